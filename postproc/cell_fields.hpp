@@ -1,0 +1,35 @@
+#pragma once
+#include <span>
+#include <vector>
+
+#include "solver/model.hpp"
+#include "solver/system_layout.hpp"
+
+namespace aquiledger {
+
+/// The cell arrays written for viewers, per grid cell in raster order, NaN where inactive.
+struct CellFields {
+  std::vector<double> head;                   ///< L
+  std::vector<double> drawdown;               ///< L, initial head minus head
+  std::vector<double> saturated_thickness;    ///< L
+  std::vector<double> state;                  ///< 0 dry, 1 water table, 2 confined
+  std::vector<double> storage_rate;           ///< L3/T, positive = released from storage
+  std::vector<double> storage_skeleton_rate;  ///< L3/T
+  std::vector<double> storage_water_rate;     ///< L3/T
+  std::vector<double> storage_elastic_rate;   ///< L3/T, used when no compressibilities given
+  std::vector<double> storage_drainage_rate;  ///< L3/T
+  std::vector<double> compaction;             ///< L, cumulative since the start
+  std::vector<double> flow_east;              ///< L3/T across the east face, positive east
+  std::vector<double> flow_north;             ///< L3/T across the north face, positive north
+};
+
+/// Starts the fields at time 0 from the initial head (zero rates, zero compaction).
+CellFields initial_cell_fields(const Model& model, const SystemLayout& layout,
+                               std::span<const double> initial_head);
+
+/// Updates the fields for an accepted step; compaction accumulates.
+void update_cell_fields(const Model& model, const SystemLayout& layout, bool steady, double dt,
+                        std::span<const double> initial_head, std::span<const double> head_old,
+                        std::span<const double> head_new, CellFields& fields);
+
+}  // namespace aquiledger

@@ -1,0 +1,51 @@
+#pragma once
+#include <array>
+#include <cstddef>
+#include <span>
+#include <string_view>
+#include <vector>
+
+#include "solver/model.hpp"
+#include "solver/stress_flows.hpp"
+#include "solver/system_layout.hpp"
+
+namespace aquiledger {
+
+/// Budget components in the order of the CSV columns.
+enum class BudgetComponent {
+  storage_skeleton, storage_water, storage_drainage, storage_elastic, fixed_head, wells,
+  recharge, river, drain, external_head, evapotranspiration, leakage
+};
+inline constexpr std::size_t n_budget_components = 12;
+
+/// Column stem of a component, e.g. "storage_skeleton" (columns are stem_in, stem_out).
+std::string_view component_label(BudgetComponent c);
+
+struct InOut {
+  double in = 0.0;   ///< into the flow system (storage: released from storage)
+  double out = 0.0;  ///< out of the flow system (storage: taken into storage)
+};
+
+/// Rates (L3/T) of one step, or volumes (L3) of one period.
+struct WaterBudget {
+  std::array<InOut, n_budget_components> components{};
+  std::vector<InOut> features;  ///< one per list_features(model) entry
+  double well_shortfall = 0.0;  ///< same unit as the components
+
+  InOut& operator[](BudgetComponent c) { return components[static_cast<std::size_t>(c)]; }
+  const InOut& operator[](BudgetComponent c) const { return components[static_cast<std::size_t>(c)]; }
+  double total_in() const;
+  double total_out() const;
+  /// 100 (in - out) / ((in + out) / 2); 0 when both are 0.
+  double discrepancy_percent() const;
+  /// this += factor * other (turns rates into volumes with factor = dt).
+  void add_scaled(const WaterBudget& other, double factor);
+};
+
+/// End-of-step rates of every component and feature for an accepted step.
+/// Steady steps have no storage terms; dt is then ignored.
+WaterBudget step_budget(const Model& model, const SystemLayout& layout, std::size_t period,
+                        bool steady, double dt, std::span<const double> head_old,
+                        std::span<const double> head_new);
+
+}  // namespace aquiledger

@@ -1,0 +1,167 @@
+#pragma once
+// The validated model description the solver takes. It is plain data: the reader in io/
+// fills it from a TOML file, tests and benchmarks build it directly.
+#include <filesystem>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "mesh/rectilinear_grid.hpp"
+#include "solver/period_values.hpp"
+
+namespace aquiledger {
+
+enum class Condition { confined, water_table, switching };
+
+/// Compressibility route inputs (Jacob, 1940): Ss = rho g (alpha + n beta).
+struct Compressibility {
+  double skeleton = 0.0;  ///< alpha, 1/Pa (uniform value used for reporting; per cell below)
+  double porosity = 0.0;  ///< n, -
+  double water = 4.6e-10; ///< beta, 1/Pa
+  double density = 998.2; ///< rho, kg/m3
+  double gravity = 9.80665; ///< g, m/s2
+};
+
+struct Aquifer {
+  Condition condition = Condition::confined;
+  /// All per-cell arrays have n_cells entries in raster order (inactive cells included).
+  std::vector<double> top;               ///< L; NaN where absent (water_table without top)
+  std::vector<double> bottom;            ///< L
+  std::vector<double> kx;                ///< L/T, hydraulic conductivity along x
+  std::vector<double> ky;                ///< L/T, kx * k_ratio
+  std::vector<double> specific_yield;    ///< -, empty when confined
+  std::vector<double> specific_storage;  ///< 1/L, total elastic storage, every route
+  /// Share of the elastic storage from skeleton compression, alpha / (alpha + n beta);
+  /// filled only on the compressibility route (then the budget splits skeleton and water).
+  std::vector<double> skeleton_share;
+  std::optional<Compressibility> compressibility;  ///< set on the compressibility route
+  bool elastic_split() const { return !skeleton_share.empty(); }
+};
+
+struct Initial {
+  bool steady = false;        ///< start from the steady state of period 1's stresses
+  std::vector<double> head;   ///< L, n_cells (empty when steady)
+};
+
+struct Period {
+  std::string name;
+  double length = 1.0;  ///< T
+  int steps = 1;
+  double growth = 1.0;  ///< ratio of consecutive step lengths
+  bool steady = false;
+};
+
+/// Values of a feature are indexed by the position of the cell in `cells`.
+struct Well {
+  std::string name;
+  double x = 0.0, y = 0.0;  ///< L
+  CellIndex cell;
+  PeriodValues rate;        ///< L3/T, positive = withdrawal
+};
+
+struct FixedHead {
+  std::string name;
+  std::vector<CellIndex> cells;
+  PeriodValues head;  ///< L
+};
+
+struct Recharge {
+  std::string name;
+  std::vector<CellIndex> cells;  ///< mask cells, or every active cell
+  PeriodValues rate;             ///< L/T over the cell area; negative = withdrawal
+};
+
+struct River {
+  std::string name;
+  std::vector<CellIndex> cells;
+  std::vector<double> length;    ///< L of channel in each cell (1 per cell for cells/mask placement)
+  PeriodValues stage;            ///< L
+  PeriodValues bed_bottom;       ///< L
+  PeriodValues conductance;      ///< L2/T per cell (per-length conductance times length)
+};
+
+struct Drain {
+  std::string name;
+  std::vector<CellIndex> cells;
+  PeriodValues elevation;    ///< L
+  PeriodValues conductance;  ///< L2/T per cell
+};
+
+struct ExternalHead {
+  std::string name;
+  std::vector<CellIndex> cells;
+  PeriodValues head;         ///< L
+  PeriodValues conductance;  ///< L2/T per cell
+};
+
+struct Evapotranspiration {
+  std::string name;
+  std::vector<CellIndex> cells;
+  PeriodValues surface;           ///< L
+  PeriodValues max_rate;          ///< L/T
+  PeriodValues extinction_depth;  ///< L
+};
+
+struct Leakage {
+  std::string name = "leakage";
+  std::vector<CellIndex> cells;  ///< every active cell
+  PeriodValues source_head;      ///< L
+  PeriodValues leakance;         ///< 1/T (aquitard k / thickness)
+};
+
+struct MeasuredHead {
+  double time = 0.0;  ///< T
+  double head = 0.0;  ///< L
+};
+
+struct Observation {
+  std::string name;
+  double x = 0.0, y = 0.0;  ///< L
+  CellIndex cell;
+  std::filesystem::path measured_file;  ///< empty when none
+  std::vector<MeasuredHead> measured;
+};
+
+enum class FieldCadence { every_step, period_end, none };
+
+struct OutputSettings {
+  std::filesystem::path folder = "results";  ///< absolute, or relative to the model file
+  FieldCadence fields = FieldCadence::period_end;
+  bool budget = true;
+};
+
+enum class LinearChoice { automatic, direct, pcg, bicgstab };
+
+struct SolverSettings {
+  LinearChoice linear = LinearChoice::automatic;
+  double head_tolerance = 1.0e-5;  ///< L
+  double flow_tolerance = 1.0e-6;  ///< -, largest cell imbalance over total throughflow
+  int max_iterations = 50;
+  int max_cutbacks = 5;
+  int threads = 0;  ///< 0 = all cores
+};
+
+struct Model {
+  std::filesystem::path source_file;  ///< the model file, for messages
+  std::string title;
+  std::string length_unit = "m";
+  std::string time_unit = "d";
+  RectilinearGrid grid;
+  Aquifer aquifer;
+  Initial initial;
+  std::vector<Period> periods;
+  std::vector<Well> wells;
+  std::vector<FixedHead> fixed_heads;
+  std::vector<Recharge> recharges;
+  std::vector<River> rivers;
+  std::vector<Drain> drains;
+  std::vector<ExternalHead> external_heads;
+  std::vector<Evapotranspiration> evapotranspiration;
+  std::optional<Leakage> leakage;
+  std::vector<Observation> observations;
+  OutputSettings output;
+  SolverSettings solver;
+  std::vector<std::string> warnings;  ///< from the reader's plausibility checks
+};
+
+}  // namespace aquiledger

@@ -1,0 +1,48 @@
+#pragma once
+// Every stress except fixed heads and storage: wells, recharge, rivers, drains, external
+// heads, evapotranspiration and leakage. One place evaluates them, for the Newton system
+// (flow and derivative per cell) and for the budget (in, out per feature).
+#include <cstddef>
+#include <span>
+#include <string>
+#include <vector>
+
+#include "solver/model.hpp"
+#include "solver/saturation.hpp"
+#include "solver/system_layout.hpp"
+
+namespace aquiledger {
+
+enum class FeatureKind { well, fixed_head, recharge, river, drain, external_head, evapotranspiration, leakage };
+
+/// "well", "fixed_head", ... as written in budget_features.csv.
+const char* feature_kind_label(FeatureKind kind);
+
+struct FeatureRef {
+  std::string name;
+  FeatureKind kind;
+  std::size_t index;  ///< position in the model's list of that kind
+};
+
+/// Every named feature in a fixed order: wells, fixed heads, recharges, rivers, drains,
+/// external heads, evapotranspiration, leakage.
+std::vector<FeatureRef> list_features(const Model& model);
+
+/// Rates of one feature over a step (L3/T, both positive): in = into the aquifer.
+struct FeatureFlow {
+  double in = 0.0;
+  double out = 0.0;
+  double shortfall = 0.0;  ///< L3/T of withdrawal not delivered because the cell ran dry
+};
+
+/// Adds each stress's flow into the aquifer (L3/T) and its head derivative (L2/T) to q and
+/// dq_dh, both indexed by grid cell. Fixed-head and inactive cells are skipped.
+void add_stress_flows(const Model& model, const SystemLayout& layout, std::size_t period,
+                      std::span<const double> head, std::span<double> q, std::span<double> dq_dh);
+
+/// Fills flows[k] for every entry k of list_features(model) that is not a fixed head
+/// (fixed-head entries are left untouched).
+void stress_flows_by_feature(const Model& model, const SystemLayout& layout, std::size_t period,
+                             std::span<const double> head, std::span<FeatureFlow> flows);
+
+}  // namespace aquiledger

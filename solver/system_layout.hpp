@@ -1,0 +1,36 @@
+#pragma once
+#include <cstdint>
+#include <vector>
+
+#include "solver/model.hpp"
+
+namespace aquiledger {
+
+/// Numbers derived once from a model before the time loop: which cells are unknowns, cell
+/// areas, and the per-cell lengths of the smoothing intervals.
+struct SystemLayout {
+  std::vector<std::uint8_t> fixed;        ///< per grid cell: 1 when held by a fixed_head
+  std::vector<std::int32_t> unknown_of_cell;  ///< per grid cell: equation number, -1 if none
+  std::vector<CellIndex> cell_of_unknown;     ///< per equation: its grid cell
+  std::vector<double> area;               ///< L2 per grid cell
+  /// L per grid cell: full saturated thickness top - bottom (NaN when there is no top).
+  std::vector<double> full_thickness;
+  /// L per grid cell: width of the smoothing of saturated thickness near the base and top.
+  std::vector<double> smoothing_length;
+  /// L per grid cell: saturated thickness below which withdrawals are reduced smoothly.
+  std::vector<double> reduction_length;
+  int n_unknowns() const { return static_cast<int>(cell_of_unknown.size()); }
+};
+
+/// Smoothing widths as fractions of the full saturated thickness (top - bottom); where a
+/// water-table cell has no top, of `reference_thickness_without_top` instead.
+inline constexpr double smoothing_fraction = 1.0e-3;
+inline constexpr double reduction_fraction = 1.0e-2;
+inline constexpr double reference_thickness_without_top = 10.0;  ///< L
+
+SystemLayout make_system_layout(const Model& model);
+
+/// Saturated thickness of a cell (L) and its derivative with respect to head.
+ValueSlope saturated_thickness(const Model& model, const SystemLayout& layout, CellIndex c, double head);
+
+}  // namespace aquiledger
