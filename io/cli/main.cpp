@@ -1,2 +1,38 @@
-#include <cstdio>
-int main() { std::puts("aquiledger: under construction"); return 0; }
+// aquiledger: the command line. Subcommands read a model, check it, or run it.
+#include <CLI/CLI.hpp>
+#include <fmt/format.h>
+
+#include "aquiledger_version.hpp"
+#include "io/cli/commands.hpp"
+
+int main(int argc, char** argv) {
+  using namespace aquiledger;
+  CLI::App app{"aquiledger: transient 2D groundwater flow with exact confined / water-table storage "
+               "switching and closed water budgets."};
+  app.set_version_flag("--version", fmt::format("aquiledger {}", version_string));
+  app.require_subcommand(1);
+  app.footer(
+      "Exit status: 0 success; 1 invalid model file (nothing run); 2 the run did not converge "
+      "(results up to the last converged step are kept); 3 results could not be written.");
+
+  CheckOptions check_options;
+  auto* check = app.add_subcommand("check", "Validate a model file and print what it describes.");
+  check->add_option("MODEL", check_options.model_file, "Model definition (TOML)")->required();
+
+  RunOptions run_options;
+  auto* run = app.add_subcommand("run", "Validate and run a model, writing results.");
+  run->add_option("MODEL", run_options.model_file, "Model definition (TOML)")->required();
+  run->add_option("-o,--output", run_options.output_folder,
+                  "Folder for results (default: [output].folder of the model)");
+  run->add_option("-t,--threads", run_options.threads, "Threads (default: [solver].threads)")
+      ->check(CLI::NonNegativeNumber);
+  run->add_flag("-q,--quiet", run_options.quiet, "Print only errors and the final status line");
+
+  try {
+    app.parse(argc, argv);
+  } catch (const CLI::ParseError& e) {
+    return app.exit(e) == 0 ? 0 : 64;
+  }
+  if (*check) return run_check_command(check_options);
+  return run_run_command(run_options);
+}

@@ -1,0 +1,153 @@
+#include "io/cli/commands.hpp"
+
+#include <unistd.h>
+
+#include <algorithm>
+#include <chrono>
+#include <cstdio>
+
+#include <fmt/format.h>
+
+#include "aquiledger_version.hpp"
+#include "io/atomic_file.hpp"
+#include "io/check_report.hpp"
+#include "io/model_reader.hpp"
+#include "io/result_recorder.hpp"
+#include "io/run_report.hpp"
+#include "io/summary_json.hpp"
+#include "solver/simulation.hpp"
+
+namespace aquiledger {
+
+namespace {
+
+/// Prints every diagnostic; returns true when the model is usable.
+bool report_diagnostics(const ReadResult& result) {
+  int errors = 0;
+  for (const Diagnostic& d : result.diagnostics) {
+    std::fprintf(stderr, "%s\n", d.to_string().c_str());
+    if (d.severity == Severity::error) ++errors;
+  }
+  if (errors > 0)
+    std::fprintf(stderr, "%d error%s: the model was not run.\n", errors, errors == 1 ? "" : "s");
+  return result.ok();
+}
+
+double median(std::vector<int> v) {
+  if (v.empty()) return 0.0;
+  std::sort(v.begin(), v.end());
+  const std::size_t n = v.size();
+  return n % 2 ? v[n / 2] : 0.5 * (v[n / 2 - 1] + v[n / 2]);
+}
+
+}  // namespace
+
+int run_check_command(const CheckOptions& options) {
+  const ReadResult result = read_model_file(options.model_file);
+  if (!report_diagnostics(result)) return exit_invalid_model;
+  std::fputs(format_check_report(*result.model).c_str(), stdout);
+  std::fputs("The model is valid.\n", stdout);
+  return exit_success;
+}
+
+int run_run_command(const RunOptions& options) {
+  using Clock = std::chrono::steady_clock;
+  const auto start = Clock::now();
+  ReadResult result = read_model_file(options.model_file);
+  if (!report_diagnostics(result)) return exit_invalid_model;
+  Model& model = *result.model;
+  if (options.threads) model.solver.threads = *options.threads;
+  const std::filesystem::path folder = options.output_folder ? *options.output_folder : model.output.folder;
+
+  const bool terminal = isatty(fileno(stderr)) && !options.quiet;
+  try {
+    check_output_folder_writable(folder);
+  } catch (const OutputError& e) {
+    std::fprintf(stderr, "error: %s\nNothing was run.\n", e.what());
+    return exit_output_failure;
+  }
+
+  if (!options.quiet) {
+    std::fputs(fmt::format("aquiledger {}: {}\n", version_string, model.title).c_str(), stdout);
+    std::fputs(fmt::format("  model   {}\n  grid    {} x {} cells, {} active\n  results {}\n",
+                           options.model_file.string(), model.grid.n_rows(), model.grid.n_cols(),
+                           model.grid.n_active(), folder.string())
+                   .c_str(),
+               stdout);
+    for (const auto& w : model.warnings) std::fprintf(stdout, "  warning: %s\n", w.c_str());
+    std::fflush(stdout);
+  }
+
+  RunResult run;
+  std::optional<ResultRecorder> recorder;
+  try {
+    recorder.emplace(model, folder);
+    if (terminal) {
+      const std::size_t n_periods = model.periods.size();
+      recorder->set_progress_callback([&, last = Clock::now()](const StepInfo& info) mutable {
+        if (Clock::now() - last < std::chrono::milliseconds(250)) return;
+        last = Clock::now();
+        std::fprintf(stderr, "\r  period %zu/%zu  step %d/%d  t = %-12.6g %s  Newton %d   ",
+                     info.period + 1, n_periods, info.step, model.periods[info.period].steps,
+                     info.time, model.time_unit.c_str(), info.newton_iterations);
+        std::fflush(stderr);
+      });
+    }
+    run = run_simulation(model, *recorder);
+    if (terminal) std::fputs("\r\033[K", stderr);
+    recorder->flush();
+  } catch (const OutputError& e) {
+    if (terminal) std::fputs("\n", stderr);
+    std::fprintf(stderr, "error: %s\nResults written before this point are complete.\n", e.what());
+    return exit_output_failure;
+  }
+  const double wall = std::chrono::duration<double>(Clock::now() - start).count();
+  const RecorderStatistics& stats = recorder->statistics();
+
+  RunSummary summary;
+  summary.version = version_string;
+  summary.title = model.title;
+  summary.model_file = options.model_file.string();
+  summary.cells = model.grid.n_cells();
+  summary.active_cells = model.grid.n_active();
+  summary.periods = static_cast<int>(model.periods.size());
+  summary.steps = stats.steps;
+  summary.wall_seconds = wall;
+  summary.output_seconds = stats.output_seconds;
+  summary.newton_iterations_per_step = stats.newton_iterations;
+  summary.linear_solver = run.linear_solver;
+  summary.linear_reason = run.linear_reason;
+  summary.max_abs_discrepancy_percent = stats.max_abs_discrepancy_percent;
+  summary.converged = run.converged;
+  summary.failure = run.failure;
+  summary.warnings = model.warnings;
+  summary.caution = professional_caution;
+  try {
+    write_summary_json(folder / "summary.json", summary);
+  } catch (const OutputError& e) {
+    std::fprintf(stderr, "error: %s\n", e.what());
+    return exit_output_failure;
+  }
+
+  if (!options.quiet) {
+    std::fputs("\n", stdout);
+    std::fputs(format_period_budget_table(model, recorder->period_rows()).c_str(), stdout);
+    std::fputs(fmt::format("\n  steps          {} accepted, {} with cut-backs\n", stats.steps, run.cutbacks).c_str(), stdout);
+    std::fputs(fmt::format("  Newton         median {:g}, largest {} iterations per step\n",
+                           median(stats.newton_iterations), stats.max_newton_iterations).c_str(), stdout);
+    std::fputs(fmt::format("  linear solver  {} ({})\n", run.linear_solver, run.linear_reason).c_str(), stdout);
+    std::fputs(fmt::format("  largest step imbalance {:.3g} %\n", stats.max_abs_discrepancy_percent).c_str(), stdout);
+    std::fputs(fmt::format("  wall time      {:.2f} s ({:.0f} % writing results)\n", wall,
+                           wall > 0 ? 100.0 * stats.output_seconds / wall : 0.0).c_str(), stdout);
+    std::fputs(fmt::format("  results in     {}\n\n{}\n", folder.string(), professional_caution).c_str(), stdout);
+  }
+  if (!run.converged) {
+    std::fprintf(stderr, "error: %s\nResults up to the last converged step are in %s.\n",
+                 run.failure.c_str(), folder.string().c_str());
+    return exit_not_converged;
+  }
+  if (options.quiet) std::fprintf(stdout, "aquiledger: run complete, results in %s\n", folder.string().c_str());
+  return exit_success;
+}
+
+}  // namespace aquiledger

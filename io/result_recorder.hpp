@@ -1,0 +1,76 @@
+#pragma once
+// Turns the solver's accepted steps into the result files: budgets, observations, fields and
+// the run summary. Each table is rewritten whole (atomically) at every period end, so a run
+// that stops early leaves complete files up to its last converged step.
+#include <chrono>
+#include <cstddef>
+#include <filesystem>
+#include <functional>
+#include <string>
+#include <vector>
+
+#include "io/result_tables.hpp"
+#include "io/vtk_fields.hpp"
+#include "postproc/cell_fields.hpp"
+#include "postproc/observation_sampler.hpp"
+#include "postproc/water_budget.hpp"
+#include "solver/simulation.hpp"
+#include "solver/system_layout.hpp"
+
+namespace aquiledger {
+
+struct RecorderStatistics {
+  int steps = 0;
+  int max_newton_iterations = 0;
+  std::vector<int> newton_iterations;  ///< per accepted step
+  double max_abs_discrepancy_percent = 0.0;
+  int field_files = 0;
+  double output_seconds = 0.0;  ///< wall time spent computing and writing results
+};
+
+class ResultRecorder final : public SimulationObserver {
+ public:
+  /// folder: where results go (must exist and be writable).
+  ResultRecorder(const Model& model, std::filesystem::path folder);
+
+  void initial_state(std::span<const double> head) override;
+  void step_done(const StepInfo& info, std::span<const double> head_old,
+                 std::span<const double> head_new) override;
+  void period_done(std::size_t period) override;
+
+  /// Writes every table as it stands (also after a failed run).
+  void flush();
+  /// Called after each step with a one-line progress text (for a terminal).
+  void set_progress_callback(std::function<void(const StepInfo&)> callback) {
+    progress_ = std::move(callback);
+  }
+
+  const std::vector<BudgetPeriodRow>& period_rows() const { return period_rows_; }
+  const std::vector<FeatureRef>& features() const { return features_; }
+  const RecorderStatistics& statistics() const { return stats_; }
+  const std::filesystem::path& folder() const { return folder_; }
+
+ private:
+  void write_fields(double time);
+  void start_period_row(std::size_t period);
+
+  const Model& model_;
+  std::filesystem::path folder_;
+  SystemLayout layout_;
+  std::vector<FeatureRef> features_;
+  ObservationSampler sampler_;
+  std::vector<double> initial_head_;
+  std::vector<double> initial_observed_;
+  CellFields fields_;
+  std::vector<BudgetStepRow> step_rows_;
+  std::vector<BudgetPeriodRow> period_rows_;
+  std::vector<ObservationRow> observation_rows_;
+  std::vector<FieldFileEntry> field_entries_;
+  std::size_t current_period_ = 0;
+  bool period_open_ = false;
+  double time_ = 0.0;
+  RecorderStatistics stats_;
+  std::function<void(const StepInfo&)> progress_;
+};
+
+}  // namespace aquiledger

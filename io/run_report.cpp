@@ -1,0 +1,48 @@
+#include "io/run_report.hpp"
+
+#include <algorithm>
+
+#include <fmt/format.h>
+
+#include "postproc/water_budget.hpp"
+
+namespace aquiledger {
+
+namespace {
+
+double storage_net_release(const WaterBudget& b) {
+  double net = 0.0;
+  for (auto c : {BudgetComponent::storage_skeleton, BudgetComponent::storage_water,
+                 BudgetComponent::storage_drainage, BudgetComponent::storage_elastic})
+    net += b[c].in - b[c].out;
+  return net;
+}
+
+std::string volume(double v) { return fmt::format("{:.4g}", v); }
+
+}  // namespace
+
+std::string format_period_budget_table(const Model& model, const std::vector<BudgetPeriodRow>& rows) {
+  const std::string vu = model.length_unit + "3";
+  std::size_t name_width = 6;
+  for (const auto& r : rows) name_width = std::max(name_width, r.name.size());
+  name_width = std::min<std::size_t>(name_width, 24);
+
+  std::string out = fmt::format("Water budget per period (volumes in {}; storage + = released)\n", vu);
+  out += fmt::format("  {:>3}  {:<{}}  {:>10}  {:>11}  {:>11}  {:>11}  {:>11}  {:>11}  {:>12}\n", "#",
+                     "period", name_width, fmt::format("end ({})", model.time_unit), "inflow",
+                     "outflow", "net storage", "drainage", "wells out", "imbalance %");
+  for (const auto& r : rows) {
+    const WaterBudget& b = r.volumes;
+    const std::string name = r.name.size() > name_width ? r.name.substr(0, name_width) : r.name;
+    out += fmt::format("  {:>3}  {:<{}}  {:>10.4g}  {:>11}  {:>11}  {:>11}  {:>11}  {:>11}  {:>12.2e}\n",
+                       r.period, name, name_width, r.end, volume(b.total_in()), volume(b.total_out()),
+                       volume(storage_net_release(b)),
+                       volume(b[BudgetComponent::storage_drainage].in -
+                              b[BudgetComponent::storage_drainage].out),
+                       volume(b[BudgetComponent::wells].out), b.discrepancy_percent());
+  }
+  return out;
+}
+
+}  // namespace aquiledger
