@@ -3,6 +3,7 @@
 #include <vector>
 
 #include "solver/model.hpp"
+#include "solver/saturation.hpp"
 
 namespace aquiledger {
 
