@@ -106,6 +106,7 @@ void write_atomically(vtkRectilinearGrid* vtk_grid, const std::filesystem::path&
   writer->SetDataModeToAppended();
   writer->EncodeAppendedDataOff();
   writer->SetCompressorTypeToZLib();
+  writer->SetHeaderTypeToUInt64();  // arrays beyond 4 GB stay readable
   const int ok = writer->Write();
   const unsigned long code = writer->GetErrorCode();
   if (ok != 1 || code != vtkErrorCode::NoError) {
