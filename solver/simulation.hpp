@@ -44,6 +44,8 @@ struct RunResult {
   long newton_iterations = 0;
   long linear_iterations = 0;
   int cutbacks = 0;
+  long factorizations = 0;         ///< numeric factorisations (or preconditioner set-ups)
+  long factorization_reuses = 0;   ///< solves that reused the previous factorisation
 };
 
 /// Runs every period of the model, reporting each accepted step to the observer.

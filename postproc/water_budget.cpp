@@ -1,0 +1,155 @@
+#include "postproc/water_budget.hpp"
+
+#include <cmath>
+
+#include "solver/face_table.hpp"
+#include "solver/storage_function.hpp"
+
+namespace aquiledger {
+
+namespace {
+
+std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
+
+void add_signed(InOut& io, double q) {
+  if (q > 0.0)
+    io.in += q;
+  else
+    io.out -= q;
+}
+
+BudgetComponent component_of(FeatureKind kind) {
+  switch (kind) {
+    case FeatureKind::well: return BudgetComponent::wells;
+    case FeatureKind::fixed_head: return BudgetComponent::fixed_head;
+    case FeatureKind::recharge: return BudgetComponent::recharge;
+    case FeatureKind::river: return BudgetComponent::river;
+    case FeatureKind::drain: return BudgetComponent::drain;
+    case FeatureKind::external_head: return BudgetComponent::external_head;
+    case FeatureKind::evapotranspiration: return BudgetComponent::evapotranspiration;
+    case FeatureKind::leakage: return BudgetComponent::leakage;
+  }
+  return BudgetComponent::wells;
+}
+
+/// Net flow (L3/T) from fixed cell c into its active non-fixed neighbours.
+double fixed_cell_net_flow(const Model& model, const SystemLayout& layout, CellIndex c,
+                           std::span<const double> head) {
+  const RectilinearGrid& g = model.grid;
+  const RowCol rc = g.row_col(c);
+  double net = 0.0;
+  auto consider = [&](int r, int col, bool east_west) {
+    if (r < 0 || r >= g.n_rows() || col < 0 || col >= g.n_cols()) return;
+    const CellIndex nb = g.cell(r, col);
+    if (!g.is_active(nb) || layout.fixed[at(nb)]) return;
+    const double factor = face_factor(model, c, nb, east_west);
+    net -= face_flow(model, layout, nb, c, factor, head[at(nb)], head[at(c)]).q;
+  };
+  consider(rc.row, rc.col - 1, true);
+  consider(rc.row, rc.col + 1, true);
+  consider(rc.row - 1, rc.col, false);
+  consider(rc.row + 1, rc.col, false);
+  return net;
+}
+
+}  // namespace
+
+std::string_view component_label(BudgetComponent c) {
+  switch (c) {
+    case BudgetComponent::storage_skeleton: return "storage_skeleton";
+    case BudgetComponent::storage_water: return "storage_water";
+    case BudgetComponent::storage_drainage: return "storage_drainage";
+    case BudgetComponent::storage_elastic: return "storage_elastic";
+    case BudgetComponent::fixed_head: return "fixed_head";
+    case BudgetComponent::wells: return "wells";
+    case BudgetComponent::recharge: return "recharge";
+    case BudgetComponent::river: return "river";
+    case BudgetComponent::drain: return "drain";
+    case BudgetComponent::external_head: return "external_head";
+    case BudgetComponent::evapotranspiration: return "evapotranspiration";
+    case BudgetComponent::leakage: return "leakage";
+  }
+  return "unknown";
+}
+
+double WaterBudget::total_in() const {
+  double s = 0.0;
+  for (const InOut& c : components) s += c.in;
+  return s;
+}
+
+double WaterBudget::total_out() const {
+  double s = 0.0;
+  for (const InOut& c : components) s += c.out;
+  return s;
+}
+
+double WaterBudget::discrepancy_percent() const {
+  const double in = total_in();
+  const double out = total_out();
+  if (in == 0.0 && out == 0.0) return 0.0;
+  return 100.0 * (in - out) / (0.5 * (in + out));
+}
+
+void WaterBudget::add_scaled(const WaterBudget& other, double factor) {
+  for (std::size_t k = 0; k < n_budget_components; ++k) {
+    components[k].in += factor * other.components[k].in;
+    components[k].out += factor * other.components[k].out;
+  }
+  if (features.size() < other.features.size()) features.resize(other.features.size());
+  for (std::size_t k = 0; k < other.features.size(); ++k) {
+    features[k].in += factor * other.features[k].in;
+    features[k].out += factor * other.features[k].out;
+  }
+  well_shortfall += factor * other.well_shortfall;
+}
+
+WaterBudget step_budget(const Model& model, const SystemLayout& layout, std::size_t period,
+                        bool steady, double dt, std::span<const double> head_old,
+                        std::span<const double> head_new) {
+  WaterBudget budget;
+  // Storage: released (positive) or taken (negative) in each unknown cell, by mechanism.
+  if (!steady) {
+    const bool split = model.aquifer.elastic_split();
+    for (CellIndex c : layout.cell_of_unknown) {
+      const std::size_t i = at(c);
+      const StoredWater change = stored_water_change(cell_storage(model, c), head_old[i], head_new[i]);
+      const double elastic = -layout.area[i] * change.elastic / dt;
+      const double drainage = -layout.area[i] * change.drainage / dt;
+      if (split) {
+        const double share = model.aquifer.skeleton_share[i];
+        add_signed(budget[BudgetComponent::storage_skeleton], share * elastic);
+        add_signed(budget[BudgetComponent::storage_water], (1.0 - share) * elastic);
+      } else {
+        add_signed(budget[BudgetComponent::storage_elastic], elastic);
+      }
+      add_signed(budget[BudgetComponent::storage_drainage], drainage);
+    }
+  }
+
+  const std::vector<FeatureRef> features = list_features(model);
+  std::vector<FeatureFlow> flows(features.size());
+  stress_flows_by_feature(model, layout, period, head_new, flows);
+  budget.features.resize(features.size());
+  // Fixed heads: each fixed cell counted once, under the first feature that holds it.
+  std::vector<std::uint8_t> counted(layout.fixed.size(), 0);
+  for (std::size_t k = 0; k < features.size(); ++k) {
+    InOut& row = budget.features[k];
+    if (features[k].kind == FeatureKind::fixed_head) {
+      for (CellIndex c : model.fixed_heads[features[k].index].cells) {
+        if (!model.grid.is_active(c) || counted[at(c)]) continue;
+        counted[at(c)] = 1;
+        add_signed(row, fixed_cell_net_flow(model, layout, c, head_new));
+      }
+    } else {
+      row = {flows[k].in, flows[k].out};
+      if (features[k].kind == FeatureKind::well) budget.well_shortfall += flows[k].shortfall;
+    }
+    InOut& total = budget[component_of(features[k].kind)];
+    total.in += row.in;
+    total.out += row.out;
+  }
+  return budget;
+}
+
+}  // namespace aquiledger

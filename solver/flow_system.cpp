@@ -1,0 +1,148 @@
+#include "solver/flow_system.hpp"
+
+#include <cmath>
+
+#include "solver/face_table.hpp"
+#include "solver/stress_flows.hpp"
+
+namespace aquiledger {
+
+namespace {
+
+std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
+
+/// Active neighbours of c with the face factor seen from c, in the order W, E, N, S.
+template <class Visit>
+void for_each_active_neighbour(const Model& model, CellIndex c, Visit&& visit) {
+  const RectilinearGrid& g = model.grid;
+  const RowCol rc = g.row_col(c);
+  auto consider = [&](int r, int col, bool east_west) {
+    if (r < 0 || r >= g.n_rows() || col < 0 || col >= g.n_cols()) return;
+    const CellIndex n = g.cell(r, col);
+    if (!g.is_active(n)) return;
+    visit(n, face_factor(model, c, n, east_west));
+  };
+  consider(rc.row, rc.col - 1, true);
+  consider(rc.row, rc.col + 1, true);
+  consider(rc.row - 1, rc.col, false);
+  consider(rc.row + 1, rc.col, false);
+}
+
+/// Position of entry (row, col) in the values of a compressed column-major matrix.
+int value_position(const SparseMatrix& m, int row, int col) {
+  for (int p = m.outerIndexPtr()[col]; p < m.outerIndexPtr()[col + 1]; ++p)
+    if (m.innerIndexPtr()[p] == row) return p;
+  return -1;
+}
+
+}  // namespace
+
+FlowSystem::FlowSystem(const Model& model, const SystemLayout& layout) : model_(model), layout_(layout) {
+  const int n = layout.n_unknowns();
+  std::vector<Eigen::Triplet<double>> pattern;
+  pattern.reserve(static_cast<std::size_t>(n) * (max_neighbours + 1));
+  neighbours_.assign(static_cast<std::size_t>(n) * max_neighbours, Neighbour{});
+  storage_.resize(static_cast<std::size_t>(n));
+  for (int u = 0; u < n; ++u) {
+    const CellIndex c = layout.cell_of_unknown[static_cast<std::size_t>(u)];
+    storage_[static_cast<std::size_t>(u)] = cell_storage(model, c);
+    pattern.emplace_back(u, u, 0.0);
+    int k = 0;
+    for_each_active_neighbour(model, c, [&](CellIndex nb, double factor) {
+      neighbours_[static_cast<std::size_t>(u * max_neighbours + k++)] = {nb, factor, -1};
+      const int v = layout.unknown_of_cell[at(nb)];
+      if (v >= 0) pattern.emplace_back(u, v, 0.0);
+    });
+  }
+  matrix_.resize(n, n);
+  matrix_.setFromTriplets(pattern.begin(), pattern.end());
+  matrix_.makeCompressed();
+  diagonal_.resize(static_cast<std::size_t>(n));
+  for (int u = 0; u < n; ++u) {
+    diagonal_[static_cast<std::size_t>(u)] = value_position(matrix_, u, u);
+    for (int k = 0; k < max_neighbours; ++k) {
+      Neighbour& nb = neighbours_[static_cast<std::size_t>(u * max_neighbours + k)];
+      if (!nb.cell.valid()) continue;
+      const int v = layout.unknown_of_cell[at(nb.cell)];
+      if (v >= 0) nb.value = value_position(matrix_, u, v);
+    }
+  }
+  residual_.setZero(n);
+  stress_q_.assign(static_cast<std::size_t>(model.grid.n_cells()), 0.0);
+  stress_dq_.assign(stress_q_.size(), 0.0);
+  for (int i = 0; i < model.grid.n_cells(); ++i) {
+    const CellIndex c{i};
+    if (!layout.fixed[at(c)]) continue;
+    fixed_cells_.push_back(c);
+    int k = 0;
+    for_each_active_neighbour(model, c, [&](CellIndex nb, double factor) {
+      if (!layout.fixed[at(nb)]) fixed_neighbours_.push_back({nb, factor, k});
+      ++k;
+    });
+    fixed_neighbours_.push_back({CellIndex{}, 0.0, -1});  // end of this cell's list
+  }
+}
+
+void FlowSystem::set_step(std::size_t period, bool steady, double dt, std::span<const double> head_old) {
+  period_ = period;
+  steady_ = steady;
+  dt_ = dt;
+  head_old_ = head_old;
+}
+
+void FlowSystem::assemble(std::span<const double> head) {
+  std::fill(stress_q_.begin(), stress_q_.end(), 0.0);
+  std::fill(stress_dq_.begin(), stress_dq_.end(), 0.0);
+  add_stress_flows(model_, layout_, period_, head, stress_q_, stress_dq_);
+
+  const int n = n_unknowns();
+  double* values = matrix_.valuePtr();
+  double abs_sum = 0.0;
+  double sum = 0.0;
+  const bool transient = !steady_;
+  const double inv_dt = transient ? 1.0 / dt_ : 0.0;
+#pragma omp parallel for schedule(static) reduction(+ : abs_sum, sum)
+  for (int u = 0; u < n; ++u) {
+    const CellIndex c = layout_.cell_of_unknown[static_cast<std::size_t>(u)];
+    const std::size_t i = at(c);
+    const double hi = head[i];
+    double r = stress_q_[i];
+    double diag = stress_dq_[i];
+    double budget_terms = std::abs(stress_q_[i]);
+    for (int k = 0; k < max_neighbours; ++k) {
+      const Neighbour& nb = neighbours_[static_cast<std::size_t>(u * max_neighbours + k)];
+      if (!nb.cell.valid()) break;
+      const FaceFlow f = face_flow(model_, layout_, c, nb.cell, nb.factor, hi, head[at(nb.cell)]);
+      r += f.q;
+      diag += f.dq_dhi;
+      if (nb.value >= 0) values[nb.value] = -f.dq_dhj;
+    }
+    if (transient) {
+      const CellStorage& s = storage_[static_cast<std::size_t>(u)];
+      const double area = layout_.area[i];
+      const double release = -area * stored_water_change(s, head_old_[i], hi).total() * inv_dt;
+      r += release;
+      diag -= area * stored_water_slope(s, hi) * inv_dt;
+      budget_terms += std::abs(release);
+    }
+    values[diagonal_[static_cast<std::size_t>(u)]] = -diag;
+    residual_[u] = r;
+    abs_sum += budget_terms;
+    sum += r;
+  }
+  // Fixed heads enter the budget as the net flow of each fixed cell to its neighbours.
+  std::size_t p = 0;
+  for (CellIndex c : fixed_cells_) {
+    double net = 0.0;
+    for (; fixed_neighbours_[p].cell.valid(); ++p) {
+      const Neighbour& nb = fixed_neighbours_[p];
+      net -= face_flow(model_, layout_, nb.cell, c, nb.factor, head[at(nb.cell)], head[at(c)]).q;
+    }
+    ++p;
+    abs_sum += std::abs(net);
+  }
+  throughflow_ = 0.5 * abs_sum;
+  residual_sum_ = sum;
+}
+
+}  // namespace aquiledger

@@ -1,0 +1,69 @@
+#pragma once
+// The discrete mass balance of every unknown cell and its exact Jacobian. The matrix pattern
+// (5-point stencil over the unknowns) is built once; each assembly only rewrites values.
+#include <Eigen/SparseCore>
+#include <cstddef>
+#include <span>
+#include <vector>
+
+#include "solver/model.hpp"
+#include "solver/storage_function.hpp"
+#include "solver/system_layout.hpp"
+
+namespace aquiledger {
+
+using SparseMatrix = Eigen::SparseMatrix<double, Eigen::ColMajor, int>;
+
+class FlowSystem {
+ public:
+  FlowSystem(const Model& model, const SystemLayout& layout);
+
+  /// Fixes the step: stresses of `period`, storage from head_old (per grid cell) over dt (T),
+  /// or no storage when steady.
+  void set_step(std::size_t period, bool steady, double dt, std::span<const double> head_old);
+
+  /// Evaluates the residual R (L3/T per unknown: face flows + stresses + storage release
+  /// rate) and the matrix -dR/dh at head (per grid cell; fixed cells hold their heads).
+  void assemble(std::span<const double> head);
+
+  /// -dR/dh (L2/T); symmetric positive definite for a confined model.
+  const SparseMatrix& matrix() const { return matrix_; }
+  const Eigen::VectorXd& residual() const { return residual_; }
+  /// L3/T: half the sum of the absolute values of every budget term (the step's (in+out)/2).
+  double throughflow() const { return throughflow_; }
+  /// L3/T: sum of the residuals (the step's in - out).
+  double residual_sum() const { return residual_sum_; }
+  /// True when the Jacobian is symmetric (confined model: no upstream weighting).
+  bool symmetric() const { return model_.aquifer.condition == Condition::confined; }
+  int n_unknowns() const { return layout_.n_unknowns(); }
+  const SystemLayout& layout() const { return layout_; }
+  const Model& model() const { return model_; }
+
+ private:
+  static constexpr int max_neighbours = 4;
+  struct Neighbour {
+    CellIndex cell;
+    double factor = 0.0;  ///< see Face::factor
+    int value = -1;       ///< position of the (row, neighbour) entry in the matrix values; -1 if fixed
+  };
+
+  const Model& model_;
+  const SystemLayout& layout_;
+  SparseMatrix matrix_;
+  Eigen::VectorXd residual_;
+  std::vector<Neighbour> neighbours_;  ///< max_neighbours per unknown, unused slots have no cell
+  std::vector<int> diagonal_;          ///< position of each diagonal entry in the matrix values
+  std::vector<CellStorage> storage_;   ///< per unknown
+  std::vector<double> stress_q_, stress_dq_;  ///< per grid cell
+  /// Fixed cells with their active non-fixed neighbours, for the fixed-head throughflow.
+  std::vector<CellIndex> fixed_cells_;
+  std::vector<Neighbour> fixed_neighbours_;
+  std::span<const double> head_old_;
+  std::size_t period_ = 0;
+  bool steady_ = true;
+  double dt_ = 1.0;
+  double throughflow_ = 0.0;
+  double residual_sum_ = 0.0;
+};
+
+}  // namespace aquiledger

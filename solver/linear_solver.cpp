@@ -1,0 +1,79 @@
+#include "solver/linear_solver.hpp"
+
+#include <Eigen/IterativeLinearSolvers>
+#include <algorithm>
+
+namespace aquiledger {
+
+bool LinearSolver::values_changed(const SparseMatrix& a) {
+  const Eigen::Map<const Eigen::VectorXd> v(a.valuePtr(), a.nonZeros());
+  if (last_values_.size() == v.size() && std::equal(v.begin(), v.end(), last_values_.begin()))
+    return false;
+  last_values_ = v;
+  return true;
+}
+
+namespace {
+
+/// Eigen's iterative solvers, started from the previous solution. The preconditioner is
+/// rebuilt only when the matrix values changed.
+template <class Iterative>
+class IterativeSolver final : public LinearSolver {
+ public:
+  explicit IterativeSolver(std::string name) : name_(std::move(name)) {
+    solver_.setTolerance(iterative_tolerance);
+  }
+  bool solve(const SparseMatrix& a, const Eigen::VectorXd& b, Eigen::VectorXd& x) override {
+    if (!analysed_) {
+      solver_.analyzePattern(a);
+      solver_.setMaxIterations(std::max<Eigen::Index>(1000, 4 * a.rows()));
+      analysed_ = true;
+    }
+    const bool changed = values_changed(a);
+    if (changed) solver_.factorize(a);
+    count_factorization(!changed);
+    if (x.size() != b.size() || !x.allFinite()) x.setZero(b.size());
+    x = solver_.solveWithGuess(b, x);
+    count_iterations(static_cast<int>(solver_.iterations()));
+    return solver_.info() == Eigen::Success && x.allFinite();
+  }
+  std::string name() const override { return name_; }
+
+ private:
+  std::string name_;
+  Iterative solver_;
+  bool analysed_ = false;
+};
+
+using Pcg = Eigen::ConjugateGradient<SparseMatrix, Eigen::Lower | Eigen::Upper,
+                                     Eigen::IncompleteCholesky<double, Eigen::Lower, Eigen::NaturalOrdering<int>>>;
+using Bicgstab = Eigen::BiCGSTAB<SparseMatrix, Eigen::IncompleteLUT<double, int>>;
+
+}  // namespace
+
+std::unique_ptr<LinearSolver> make_pcg_solver() { return std::make_unique<IterativeSolver<Pcg>>("pcg"); }
+std::unique_ptr<LinearSolver> make_bicgstab_solver() {
+  return std::make_unique<IterativeSolver<Bicgstab>>("bicgstab");
+}
+
+LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int n) {
+  const std::string size = std::to_string(n) + " unknowns";
+  switch (choice) {
+    case LinearChoice::direct:
+      if (symmetric) return {make_cholmod_solver(), "direct requested; symmetric system: Cholesky"};
+      return {make_umfpack_solver(), "direct requested; non-symmetric system: LU"};
+    case LinearChoice::pcg:
+      if (symmetric) return {make_pcg_solver(), "pcg requested"};
+      return {make_bicgstab_solver(), "pcg requested but the system is not symmetric (upstream thickness): bicgstab"};
+    case LinearChoice::bicgstab: return {make_bicgstab_solver(), "bicgstab requested"};
+    case LinearChoice::automatic: break;
+  }
+  if (symmetric) {
+    if (n <= cholmod_auto_limit) return {make_cholmod_solver(), "auto: symmetric (confined), " + size + ": Cholesky"};
+    return {make_pcg_solver(), "auto: symmetric (confined), " + size + " (over the direct limit): pcg"};
+  }
+  if (n <= umfpack_auto_limit) return {make_umfpack_solver(), "auto: non-symmetric (upstream thickness), " + size + ": LU"};
+  return {make_bicgstab_solver(), "auto: non-symmetric (upstream thickness), " + size + " (over the direct limit): bicgstab"};
+}
+
+}  // namespace aquiledger

@@ -1,0 +1,64 @@
+#pragma once
+// One interface over the sparse linear solvers: CHOLMOD and UMFPACK (direct, in
+// sparse_direct.cpp, the only file that includes SuiteSparse headers) and Eigen's
+// preconditioned conjugate gradients and BiCGSTAB (iterative, in linear_solver.cpp).
+#include <memory>
+#include <string>
+
+#include <Eigen/SparseCore>
+
+#include "solver/flow_system.hpp"
+#include "solver/model.hpp"
+
+namespace aquiledger {
+
+class LinearSolver {
+ public:
+  virtual ~LinearSolver() = default;
+  /// Solves a x = b. On entry x holds the previous solution (the start of an iterative
+  /// solver). The pattern of a must not change between calls (symbolic analysis runs once).
+  /// Returns false when the solver failed (singular matrix, no convergence).
+  virtual bool solve(const SparseMatrix& a, const Eigen::VectorXd& b, Eigen::VectorXd& x) = 0;
+  virtual std::string name() const = 0;
+
+  int last_iterations() const { return last_iterations_; }
+  long total_iterations() const { return total_iterations_; }
+  /// Numeric factorisations (or preconditioner set-ups) computed, and those skipped because
+  /// the matrix values were unchanged.
+  long factorizations() const { return factorizations_; }
+  long reuses() const { return reuses_; }
+
+ protected:
+  /// True when a's values differ from those of the last factorisation (and records them).
+  bool values_changed(const SparseMatrix& a);
+  void count_factorization(bool reused) { reused ? ++reuses_ : ++factorizations_; }
+  void count_iterations(int n) { last_iterations_ = n; total_iterations_ += n; }
+
+ private:
+  Eigen::VectorXd last_values_;
+  int last_iterations_ = 0;
+  long total_iterations_ = 0;
+  long factorizations_ = 0;
+  long reuses_ = 0;
+};
+
+/// Relative residual the iterative solvers reach; tight so that budgets still close.
+inline constexpr double iterative_tolerance = 1.0e-12;
+/// Size limits of the direct solvers under linear = "auto" (memory and fill-in on 2D grids).
+inline constexpr int cholmod_auto_limit = 5'000'000;
+inline constexpr int umfpack_auto_limit = 300'000;
+
+std::unique_ptr<LinearSolver> make_cholmod_solver();
+std::unique_ptr<LinearSolver> make_umfpack_solver();
+std::unique_ptr<LinearSolver> make_pcg_solver();
+std::unique_ptr<LinearSolver> make_bicgstab_solver();
+
+struct LinearSolverChoice {
+  std::unique_ptr<LinearSolver> solver;
+  std::string reason;  ///< one line: why this backend
+};
+
+/// The backend for a system of n_unknowns equations, symmetric or not, as the user asked.
+LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int n_unknowns);
+
+}  // namespace aquiledger

@@ -1,0 +1,35 @@
+#pragma once
+// Newton-Raphson on the cell mass balances with a backtracking line search on the residual
+// norm. It reports a result; the time controller decides what to do with it.
+#include <span>
+
+#include "solver/flow_system.hpp"
+#include "solver/linear_solver.hpp"
+
+namespace aquiledger {
+
+struct NewtonSettings {
+  double head_tolerance = 1.0e-5;  ///< L
+  double flow_tolerance = 1.0e-6;  ///< -, relative to the throughflow
+  int max_iterations = 50;
+};
+
+struct NewtonResult {
+  bool converged = false;
+  int iterations = 0;         ///< linear solves
+  int linear_iterations = 0;
+  double max_head_change = 0.0;  ///< L, last update
+  double max_imbalance = 0.0;    ///< -, largest |R_i| over the throughflow
+  double sum_imbalance = 0.0;    ///< -, |sum R_i| over the throughflow
+  CellIndex worst_cell;          ///< cell of the largest |R_i|
+  bool linear_failure = false;
+};
+
+/// Converged when max |dh| < head_tolerance, max |R_i| <= flow_tolerance * throughflow and
+/// |sum R_i| <= 0.01 flow_tolerance * throughflow (the last closes the step's budget to
+/// 1e-6 percent with the default tolerance). head (per grid cell) holds the start on entry
+/// and the last iterate on return; the system must have its step set.
+NewtonResult solve_newton(FlowSystem& system, LinearSolver& linear, const NewtonSettings& settings,
+                          std::span<double> head);
+
+}  // namespace aquiledger

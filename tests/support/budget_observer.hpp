@@ -1,0 +1,55 @@
+#pragma once
+// An observer shared by the solver tests: it keeps every accepted step's heads and budget
+// and checks each step's budget closure, the contract's promise that default tolerances
+// close every converged step to better than 1e-6 percent (model format, "Rules in detail").
+#include <catch2/catch.hpp>
+
+#include <cmath>
+#include <vector>
+
+#include "postproc/water_budget.hpp"
+#include "solver/simulation.hpp"
+#include "solver/system_layout.hpp"
+
+namespace aquiledger::test {
+
+class BudgetObserver : public SimulationObserver {
+ public:
+  explicit BudgetObserver(const Model& model, bool keep_heads = true)
+      : model_(model), layout_(make_system_layout(model)), keep_heads_(keep_heads) {}
+
+  void initial_state(std::span<const double> head) override {
+    initial.assign(head.begin(), head.end());
+  }
+  void step_done(const StepInfo& info, std::span<const double> head_old,
+                 std::span<const double> head_new) override {
+    steps.push_back(info);
+    const WaterBudget b = step_budget(model_, layout_, info.period, info.steady, info.dt, head_old, head_new);
+    const double d = b.discrepancy_percent();
+    max_discrepancy = std::max(max_discrepancy, std::abs(d));
+    CHECK(std::abs(d) < 1e-6);
+    budgets.push_back(b);
+    if (keep_heads_) heads.emplace_back(head_new.begin(), head_new.end());
+    last_head.assign(head_new.begin(), head_new.end());
+    cumulative.add_scaled(b, info.dt);
+  }
+  void period_done(std::size_t period) override { periods_done.push_back(period); }
+
+  const SystemLayout& layout() const { return layout_; }
+
+  std::vector<double> initial;
+  std::vector<StepInfo> steps;
+  std::vector<WaterBudget> budgets;
+  std::vector<std::vector<double>> heads;
+  std::vector<double> last_head;
+  std::vector<std::size_t> periods_done;
+  WaterBudget cumulative;  ///< volumes (L3) since the start
+  double max_discrepancy = 0.0;  ///< percent
+
+ private:
+  const Model& model_;
+  SystemLayout layout_;
+  bool keep_heads_;
+};
+
+}  // namespace aquiledger::test
