@@ -69,27 +69,30 @@ std::string iteration_stats(const std::vector<int>& its) {
 }  // namespace
 
 std::string summary_json(const RunSummary& s) {
+  long newton_total = 0;
+  for (int n : s.newton_iterations_per_step) newton_total += n;
   JsonObject o;
   o.text("program", "aquiledger");
-  o.text("program_version", s.program_version);
-  o.text("model_title", s.model_title);
+  o.text("program_version", s.version);
+  o.text("model_title", s.title);
   o.text("model_file", s.model_file);
   o.text("length_unit", s.length_unit);
   o.text("time_unit", s.time_unit);
   o.integer("cells", s.cells);
   o.integer("active_cells", s.active_cells);
   o.integer("unknowns", s.unknowns);
-  o.integer("periods", static_cast<long long>(s.periods));
+  o.integer("periods", s.periods);
   o.integer("steps", s.steps);
-  o.number("wall_time_seconds", s.wall_time_seconds);
-  o.raw("iterations_per_step", fmt::format("[{}]", fmt::join(s.iterations_per_step, ", ")));
-  o.raw("iterations_per_step_stats", iteration_stats(s.iterations_per_step));
-  o.integer("newton_iterations", s.newton_iterations);
+  o.number("wall_time_seconds", s.wall_seconds);
+  o.number("output_time_seconds", s.output_seconds);
+  o.raw("iterations_per_step", fmt::format("[{}]", fmt::join(s.newton_iterations_per_step, ", ")));
+  o.raw("iterations_per_step_stats", iteration_stats(s.newton_iterations_per_step));
+  o.integer("newton_iterations", newton_total);
   o.integer("linear_iterations", s.linear_iterations);
   o.integer("cutbacks", s.cutbacks);
   o.text("linear_solver", s.linear_solver);
   o.text("linear_solver_reason", s.linear_reason);
-  o.number("largest_discrepancy_percent", s.largest_discrepancy_percent);
+  o.number("largest_discrepancy_percent", s.max_abs_discrepancy_percent);
   o.number("well_shortfall_volume", s.well_shortfall_volume);
   o.boolean("converged", s.converged);
   o.raw("failure", s.converged && s.failure.empty() ? "null" : json_string(s.failure));

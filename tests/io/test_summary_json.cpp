@@ -8,10 +8,10 @@ using namespace aquiledger;
 // must be escaped; NaN has no JSON form (section 6), so it is written as null.
 TEST_CASE("summary JSON escapes text and has the documented keys", "[io][json]") {
   RunSummary s;
-  s.program_version = "0.1.0";
-  s.model_title = "Basin \"north\"\\2\n\ttab";
-  s.iterations_per_step = {3, 5, 4};
-  s.largest_discrepancy_percent = std::numeric_limits<double>::quiet_NaN();
+  s.version = "0.1.0";
+  s.title = "Basin \"north\"\\2\n\ttab";
+  s.newton_iterations_per_step = {3, 5, 4};
+  s.max_abs_discrepancy_percent = std::numeric_limits<double>::quiet_NaN();
   s.warnings = {"river partly outside", "bell\x07"};
   const std::string j = summary_json(s);
   CHECK(j.find(R"("model_title": "Basin \"north\"\\2\n\ttab")") != std::string::npos);
@@ -20,6 +20,7 @@ TEST_CASE("summary JSON escapes text and has the documented keys", "[io][json]")
         std::string::npos);
   CHECK(j.find(R"("largest_discrepancy_percent": null)") != std::string::npos);
   CHECK(j.find(R"("bell\u0007")") != std::string::npos);
+  CHECK(j.find(R"("newton_iterations": 12)") != std::string::npos);  // 3 + 5 + 4
   CHECK(j.find(R"("converged": true)") != std::string::npos);
   CHECK(j.find(R"("failure": null)") != std::string::npos);
   CHECK(j.find(R"("caution": ")") != std::string::npos);
