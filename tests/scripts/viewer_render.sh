@@ -26,6 +26,8 @@ if [[ ! -f "$tmpdir/fields.pvd" ]]; then
   echo "FAILED: the run wrote no $tmpdir/fields.pvd" >&2
   exit 1
 fi
+# The summary must be valid JSON (RFC 8259) for scripts that read it.
+"$python" -c 'import json, sys; json.load(open(sys.argv[1]))' "$tmpdir/summary.json"
 xvfb-run -a -s '-screen 0 1024x768x24' "$python" "$src/tests/scripts/render_fields.py" \
   "$tmpdir/fields.pvd" "$tmpdir/out.png"
 echo "viewer render: OK"
