@@ -1,0 +1,206 @@
+#include "io/vtk_fields.hpp"
+
+#include <vtkCellData.h>
+#include <vtkDataSetAttributes.h>
+#include <vtkDoubleArray.h>
+#include <vtkErrorCode.h>
+#include <vtkFieldData.h>
+#include <vtkNew.h>
+#include <vtkRectilinearGrid.h>
+#include <vtkStringArray.h>
+#include <vtkUnsignedCharArray.h>
+#include <vtkXMLRectilinearGridWriter.h>
+
+#include <fmt/format.h>
+
+#include <cmath>
+#include <iterator>
+#include <limits>
+#include <stdexcept>
+#include <string_view>
+
+#include "io/atomic_file.hpp"
+
+namespace aquiledger {
+namespace {
+
+constexpr double nan_value = std::numeric_limits<double>::quiet_NaN();
+
+/// The grid with true cell edges. VTK's j index grows with y, so the y coordinates run south
+/// to north (the reverse of the grid's raster order).
+vtkNew<vtkRectilinearGrid> make_grid(const RectilinearGrid& grid) {
+  vtkNew<vtkRectilinearGrid> vtk_grid;
+  vtk_grid->SetDimensions(grid.n_cols() + 1, grid.n_rows() + 1, 1);
+  vtkNew<vtkDoubleArray> x, y, z;
+  x->SetName("x");
+  y->SetName("y");
+  z->SetName("z");
+  for (double e : grid.x_edges()) x->InsertNextValue(e);
+  const auto ye = grid.y_edges();
+  for (auto it = ye.rbegin(); it != ye.rend(); ++it) y->InsertNextValue(*it);
+  z->InsertNextValue(0.0);
+  vtk_grid->SetXCoordinates(x);
+  vtk_grid->SetYCoordinates(y);
+  vtk_grid->SetZCoordinates(z);
+
+  // Viewers hide cells flagged HIDDENCELL in the ghost array (blanking).
+  vtkNew<vtkUnsignedCharArray> ghost;
+  ghost->SetName(vtkDataSetAttributes::GhostArrayName());
+  ghost->SetNumberOfValues(grid.n_cells());
+  const int n_rows = grid.n_rows(), n_cols = grid.n_cols();
+  for (int j = 0; j < n_rows; ++j) {
+    const int row = n_rows - 1 - j;
+    for (int i = 0; i < n_cols; ++i) {
+      const bool active = grid.is_active(grid.cell(row, i));
+      ghost->SetValue(static_cast<vtkIdType>(j) * n_cols + i,
+                      active ? 0 : static_cast<unsigned char>(vtkDataSetAttributes::HIDDENCELL));
+    }
+  }
+  vtk_grid->GetCellData()->AddArray(ghost);
+  return vtk_grid;
+}
+
+/// Adds a per-cell array given in raster order; inactive cells get NaN whatever they hold.
+void add_cell_array(vtkRectilinearGrid* vtk_grid, const RectilinearGrid& grid,
+                    std::string_view name, const std::vector<double>& values) {
+  if (values.size() != static_cast<std::size_t>(grid.n_cells())) {
+    throw std::invalid_argument(fmt::format("cell array '{}' has {} values, the grid {} cells",
+                                            name, values.size(), grid.n_cells()));
+  }
+  vtkNew<vtkDoubleArray> array;
+  array->SetName(std::string(name).c_str());
+  array->SetNumberOfValues(grid.n_cells());
+  const int n_rows = grid.n_rows(), n_cols = grid.n_cols();
+  for (int j = 0; j < n_rows; ++j) {
+    const int row = n_rows - 1 - j;
+    for (int i = 0; i < n_cols; ++i) {
+      const CellIndex c = grid.cell(row, i);
+      const double v = grid.is_active(c) ? values[static_cast<std::size_t>(c.value)] : nan_value;
+      array->SetValue(static_cast<vtkIdType>(j) * n_cols + i, v);
+    }
+  }
+  vtk_grid->GetCellData()->AddArray(array);
+}
+
+void add_text(vtkFieldData* data, const char* name, const std::string& text) {
+  vtkNew<vtkStringArray> array;
+  array->SetName(name);
+  array->InsertNextValue(text);
+  data->AddArray(array);
+}
+
+void add_model_field_data(vtkRectilinearGrid* vtk_grid, const Model& model) {
+  vtkFieldData* data = vtk_grid->GetFieldData();
+  add_text(data, "title", model.title);
+  add_text(data, "length_unit", model.length_unit);
+  add_text(data, "time_unit", model.time_unit);
+}
+
+/// VTK fills a temporary beside the target, which is then flushed and renamed into place.
+void write_atomically(vtkRectilinearGrid* vtk_grid, const std::filesystem::path& path) {
+  // Creating the file ourselves first reports an unwritable folder with the OS reason.
+  const std::filesystem::path temporary = create_temporary_for(path);
+  vtkNew<vtkXMLRectilinearGridWriter> writer;
+  writer->SetInputData(vtk_grid);
+  writer->SetFileName(temporary.c_str());
+  writer->SetDataModeToAppended();
+  writer->EncodeAppendedDataOff();
+  writer->SetCompressorTypeToZLib();
+  writer->SetHeaderTypeToUInt64();  // arrays beyond 4 GB stay readable
+  const int ok = writer->Write();
+  const unsigned long code = writer->GetErrorCode();
+  if (ok != 1 || code != vtkErrorCode::NoError) {
+    discard_temporary_file(temporary);
+    const char* reason = vtkErrorCode::GetStringFromErrorCode(code);
+    throw OutputError(fmt::format("cannot write '{}': VTK writer failed ({})", path.string(),
+                                  reason != nullptr ? reason : "unknown error"));
+  }
+  commit_temporary_file(temporary, path);
+}
+
+std::string xml_escaped(std::string_view text) {
+  std::string out;
+  for (char ch : text) {
+    switch (ch) {
+      case '&': out += "&amp;"; break;
+      case '<': out += "&lt;"; break;
+      case '>': out += "&gt;"; break;
+      case '"': out += "&quot;"; break;
+      case '\'': out += "&apos;"; break;
+      default: out += ch;
+    }
+  }
+  return out;
+}
+
+}  // namespace
+
+void write_fields_vtr(const std::filesystem::path& path, const Model& model,
+                      const CellFields& fields, double time) {
+  const RectilinearGrid& grid = model.grid;
+  auto vtk_grid = make_grid(grid);
+  add_cell_array(vtk_grid, grid, "head", fields.head);
+  add_cell_array(vtk_grid, grid, "drawdown", fields.drawdown);
+  add_cell_array(vtk_grid, grid, "saturated_thickness", fields.saturated_thickness);
+  add_cell_array(vtk_grid, grid, "state", fields.state);
+  add_cell_array(vtk_grid, grid, "storage_rate", fields.storage_rate);
+  add_cell_array(vtk_grid, grid, "storage_skeleton_rate", fields.storage_skeleton_rate);
+  add_cell_array(vtk_grid, grid, "storage_water_rate", fields.storage_water_rate);
+  add_cell_array(vtk_grid, grid, "storage_elastic_rate", fields.storage_elastic_rate);
+  add_cell_array(vtk_grid, grid, "storage_drainage_rate", fields.storage_drainage_rate);
+  add_cell_array(vtk_grid, grid, "compaction", fields.compaction);
+  add_cell_array(vtk_grid, grid, "flow_east", fields.flow_east);
+  add_cell_array(vtk_grid, grid, "flow_north", fields.flow_north);
+  vtk_grid->GetCellData()->SetActiveScalars("head");
+
+  vtkNew<vtkDoubleArray> time_array;
+  time_array->SetName("TIME");
+  time_array->InsertNextValue(time);
+  vtk_grid->GetFieldData()->AddArray(time_array);
+  add_model_field_data(vtk_grid, model);
+  write_atomically(vtk_grid, path);
+}
+
+void write_static_vtr(const std::filesystem::path& path, const Model& model) {
+  const RectilinearGrid& grid = model.grid;
+  const Aquifer& aquifer = model.aquifer;
+  auto vtk_grid = make_grid(grid);
+  add_cell_array(vtk_grid, grid, "kx", aquifer.kx);
+  add_cell_array(vtk_grid, grid, "ky", aquifer.ky);
+  if (!aquifer.top.empty()) add_cell_array(vtk_grid, grid, "top", aquifer.top);
+  add_cell_array(vtk_grid, grid, "bottom", aquifer.bottom);
+  add_cell_array(vtk_grid, grid, "specific_storage", aquifer.specific_storage);
+  if (!aquifer.specific_yield.empty())
+    add_cell_array(vtk_grid, grid, "specific_yield", aquifer.specific_yield);
+
+  vtkNew<vtkUnsignedCharArray> active;
+  active->SetName("active");
+  active->SetNumberOfValues(grid.n_cells());
+  const int n_rows = grid.n_rows(), n_cols = grid.n_cols();
+  for (int j = 0; j < n_rows; ++j)
+    for (int i = 0; i < n_cols; ++i)
+      active->SetValue(static_cast<vtkIdType>(j) * n_cols + i,
+                       grid.is_active(grid.cell(n_rows - 1 - j, i)) ? 1 : 0);
+  vtk_grid->GetCellData()->AddArray(active);
+  vtk_grid->GetCellData()->SetActiveScalars("kx");
+  add_model_field_data(vtk_grid, model);
+  write_atomically(vtk_grid, path);
+}
+
+void write_pvd(const std::filesystem::path& path, const std::vector<FieldFileEntry>& entries) {
+  std::string text =
+      "<?xml version=\"1.0\"?>\n"
+      "<VTKFile type=\"Collection\" version=\"0.1\" byte_order=\"LittleEndian\">\n"
+      "  <Collection>\n";
+  for (const FieldFileEntry& e : entries) {
+    fmt::format_to(std::back_inserter(text),
+                   "    <DataSet timestep=\"{}\" group=\"\" part=\"0\" file=\"{}\"/>\n", e.time,
+                   xml_escaped(e.file));
+  }
+  text += "  </Collection>\n</VTKFile>\n";
+  write_file_atomically(path, text);
+}
+
+std::string field_file_name(std::size_t n) { return fmt::format("fields_{:04d}.vtr", n); }
+
+}  // namespace aquiledger

@@ -1,0 +1,54 @@
+#pragma once
+// A small model for the writer tests: variable spacing, one inactive cell, distinct values in
+// every cell so that any mix-up of rows, columns or arrays shows.
+#include <algorithm>
+#include <cmath>
+#include <filesystem>
+#include <string>
+#include <unistd.h>
+#include <vector>
+
+#include "solver/model.hpp"
+
+namespace aquiledger::testing {
+
+/// 2 rows x 3 columns; column widths 10, 20, 40; row heights 5 (north), 15 (south);
+/// origin (100, 200); the north-east cell (row 0, col 2) is inactive.
+inline Model small_model() {
+  Model m;
+  m.title = "writer test \"basin\", <small>";
+  m.length_unit = "m";
+  m.time_unit = "d";
+  m.grid = RectilinearGrid({10.0, 20.0, 40.0}, {5.0, 15.0}, 100.0, 200.0, {1, 1, 0, 1, 1, 1});
+  const int n = m.grid.n_cells();
+  m.aquifer.condition = Condition::switching;
+  for (int c = 0; c < n; ++c) {
+    m.aquifer.kx.push_back(1.0 / (c + 3.0));  // not representable in short decimals
+    m.aquifer.ky.push_back(0.1 * (c + 1));
+    m.aquifer.top.push_back(40.0 + c / 7.0);
+    m.aquifer.bottom.push_back(-c / 3.0);
+    m.aquifer.specific_storage.push_back(1.0e-6 * std::sqrt(c + 2.0));
+    m.aquifer.specific_yield.push_back(0.1 + c / 97.0);
+  }
+  return m;
+}
+
+/// A fresh empty folder for one test's files.
+inline std::filesystem::path scratch_folder(const std::string& name) {
+  const auto folder = std::filesystem::temp_directory_path() /
+                      ("aquiledger-test-" + name + "-" + std::to_string(::getpid()));
+  std::filesystem::remove_all(folder);
+  std::filesystem::create_directories(folder);
+  return folder;
+}
+
+/// Names of regular files in a folder (to prove no temporary is left behind).
+inline std::vector<std::string> file_names(const std::filesystem::path& folder) {
+  std::vector<std::string> names;
+  for (const auto& e : std::filesystem::directory_iterator(folder))
+    names.push_back(e.path().filename().string());
+  std::sort(names.begin(), names.end());
+  return names;
+}
+
+}  // namespace aquiledger::testing
