@@ -159,8 +159,8 @@ std::optional<CellField> read_field(ReaderContext& ctx, const toml::node& node, 
   CellField field;
   field.at = ctx.spot(node);
   if (auto v = number_of(node)) {
-    if (!ctx.shape) return std::nullopt;
-    field.values.assign(static_cast<std::size_t>(ctx.shape->n_cells()), *v);
+    // Without a grid a number is still checked, as a field of one cell.
+    field.values.assign(ctx.shape ? static_cast<std::size_t>(ctx.shape->n_cells()) : 1, *v);
     field.uniform = true;
     return field;
   }
@@ -207,7 +207,7 @@ bool check_field(ReaderContext& ctx, const CellField& field, const std::string& 
     if (n_bad++ == 0) first = static_cast<int>(c);
   }
   if (n_bad == 0) return true;
-  const int ncol = ctx.shape->ncol;
+  const int ncol = ctx.shape ? ctx.shape->ncol : 1;
   const double v = field.values[static_cast<std::size_t>(first)];
   std::string message = (field.uniform ? "value " + show_number(v)
                                         : (std::isnan(v) ? std::string("no value (NODATA)") : "value " + show_number(v)) +
