@@ -37,6 +37,10 @@ int edit_distance(std::string_view a, std::string_view b) {
 }
 
 std::optional<std::string> closest_word(std::string_view word, std::initializer_list<std::string_view> allowed) {
+  // A cut-short word ("switch" for "switching") is as likely a slip as a typo.
+  if (word.size() >= 3)
+    for (std::string_view candidate : allowed)
+      if (candidate.substr(0, word.size()) == word) return std::string(candidate);
   std::optional<std::string> best;
   int best_distance = 0;
   for (std::string_view candidate : allowed) {
