@@ -1,0 +1,23 @@
+#pragma once
+// Plausibility checks of aquifer properties against ranges of common practice. They warn,
+// never stop a run.
+#include <string>
+#include <vector>
+
+#include "solver/model.hpp"
+
+namespace aquiledger {
+
+struct PlausibilityWarning {
+  std::string key;      ///< e.g. "[aquifer].k"
+  std::string message;
+};
+
+/// Confined storativity outside 1e-5..1e-3, specific yield outside 0.01..0.35 and
+/// K outside 1e-4..1e4 m/d (in the model's units) over the active cells.
+std::vector<PlausibilityWarning> plausibility_warnings(const Model& model);
+
+/// Minimum and maximum over the active cells (NaN, NaN when there are none).
+std::pair<double, double> active_range(const RectilinearGrid& grid, const std::vector<double>& values);
+
+}  // namespace aquiledger
