@@ -49,6 +49,7 @@ class ResultRecorder final : public SimulationObserver {
   const std::vector<FeatureRef>& features() const { return features_; }
   const RecorderStatistics& statistics() const { return stats_; }
   const std::filesystem::path& folder() const { return folder_; }
+  const SystemLayout& layout() const { return layout_; }
 
  private:
   void write_fields(double time);

@@ -108,6 +108,12 @@ int run_run_command(const RunOptions& options) {
   summary.version = version_string;
   summary.title = model.title;
   summary.model_file = options.model_file.string();
+  summary.length_unit = model.length_unit;
+  summary.time_unit = model.time_unit;
+  summary.unknowns = recorder->layout().n_unknowns();
+  summary.linear_iterations = run.linear_iterations;
+  summary.cutbacks = run.cutbacks;
+  for (const auto& row : recorder->period_rows()) summary.well_shortfall_volume += row.volumes.well_shortfall;
   summary.cells = model.grid.n_cells();
   summary.active_cells = model.grid.n_active();
   summary.periods = static_cast<int>(model.periods.size());
@@ -137,6 +143,9 @@ int run_run_command(const RunOptions& options) {
                            median(stats.newton_iterations), stats.max_newton_iterations).c_str(), stdout);
     std::fputs(fmt::format("  linear solver  {} ({})\n", run.linear_solver, run.linear_reason).c_str(), stdout);
     std::fputs(fmt::format("  largest step imbalance {:.3g} %\n", stats.max_abs_discrepancy_percent).c_str(), stdout);
+    if (summary.well_shortfall_volume > 0.0)
+      std::fputs(fmt::format("  well shortfall {:.4g} {}3 not delivered where cells ran dry\n",
+                             summary.well_shortfall_volume, model.length_unit).c_str(), stdout);
     std::fputs(fmt::format("  wall time      {:.2f} s ({:.0f} % writing results)\n", wall,
                            wall > 0 ? 100.0 * stats.output_seconds / wall : 0.0).c_str(), stdout);
     std::fputs(fmt::format("  results in     {}\n\n{}\n", folder.string(), professional_caution).c_str(), stdout);
