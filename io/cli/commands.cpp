@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <chrono>
 #include <cstdio>
+#include <tuple>
 
 #include <fmt/format.h>
 
@@ -24,7 +25,11 @@ namespace {
 /// Prints every diagnostic; returns true when the model is usable.
 bool report_diagnostics(const ReadResult& result) {
   int errors = 0;
-  for (const Diagnostic& d : result.diagnostics) {
+  std::vector<Diagnostic> sorted = result.diagnostics;
+  std::stable_sort(sorted.begin(), sorted.end(), [](const Diagnostic& a, const Diagnostic& b) {
+    return std::tie(a.file, a.line) < std::tie(b.file, b.line);
+  });
+  for (const Diagnostic& d : sorted) {
     std::fprintf(stderr, "%s\n", d.to_string().c_str());
     if (d.severity == Severity::error) ++errors;
   }
