@@ -1,7 +1,6 @@
 // Cell fields for viewers: face flows against Darcy's law, blanking of inactive cells,
 // states, storage rates and compaction.
 #include <catch2/catch.hpp>
-
 #include <cmath>
 
 #include "postproc/cell_fields.hpp"
@@ -44,14 +43,16 @@ TEST_CASE("face flows follow Darcy's law; inactive cells are blanked", "[cell_fi
   for (int r = 1; r < 6; ++r) {
     double south = 0.0;
     for (int c = 0; c < 2; ++c)
-      if (m.grid.is_active(m.grid.cell(r, c))) south -= f.flow_north[static_cast<std::size_t>(m.grid.cell(r, c).value)];
+      if (m.grid.is_active(m.grid.cell(r, c)))
+        south -= f.flow_north[static_cast<std::size_t>(m.grid.cell(r, c).value)];
     CHECK(south == Approx(inflow).epsilon(1e-9));
   }
   CHECK(f.state[0] == 2.0);  // confined model: 2 everywhere
   CHECK(f.drawdown[static_cast<std::size_t>(m.grid.cell(0, 0).value)] == Approx(20.0 - 22.0));
 }
 
-TEST_CASE("storage rates by mechanism, states and compaction over a draining switching cell", "[cell_fields]") {
+TEST_CASE("storage rates by mechanism, states and compaction over a draining switching cell",
+          "[cell_fields]") {
   // A closed cell drained uniformly: rates are the exact W(h) differences over dt;
   // compaction is the elastic release per unit area, S (h0 - top) once below the top
   // (the whole elastic part, an upper bound, since Ss is given directly).

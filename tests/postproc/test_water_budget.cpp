@@ -1,7 +1,6 @@
 // Budget accounting: labels and arithmetic of the contract, storage split by mechanism on the
 // compressibility route, fixed heads and features.
 #include <catch2/catch.hpp>
-
 #include <cmath>
 
 #include "postproc/water_budget.hpp"
@@ -12,9 +11,18 @@ using namespace aquiledger;
 
 TEST_CASE("component labels and arithmetic follow the model format", "[budget]") {
   // Column stems listed in the model format contract ("Results").
-  const char* stems[] = {"storage_skeleton", "storage_water", "storage_drainage", "storage_elastic",
-                         "fixed_head", "wells", "recharge", "river", "drain", "external_head",
-                         "evapotranspiration", "leakage"};
+  const char* stems[] = {"storage_skeleton",
+                         "storage_water",
+                         "storage_drainage",
+                         "storage_elastic",
+                         "fixed_head",
+                         "wells",
+                         "recharge",
+                         "river",
+                         "drain",
+                         "external_head",
+                         "evapotranspiration",
+                         "leakage"};
   for (std::size_t k = 0; k < n_budget_components; ++k)
     CHECK(component_label(static_cast<BudgetComponent>(k)) == stems[k]);
   WaterBudget b;
@@ -54,7 +62,8 @@ TEST_CASE("compressibility route splits released elastic water alpha : n beta", 
   // Uniform withdrawal from a closed confined aquifer: all of it comes from elastic storage.
   const double withdrawn = 1e-3 * 10000.0 * 10.0;
   CHECK(v[BudgetComponent::recharge].out == Approx(withdrawn).epsilon(1e-12));
-  CHECK(v[BudgetComponent::storage_skeleton].in + v[BudgetComponent::storage_water].in == Approx(withdrawn).epsilon(1e-6));
+  CHECK(v[BudgetComponent::storage_skeleton].in + v[BudgetComponent::storage_water].in ==
+        Approx(withdrawn).epsilon(1e-6));
   CHECK(v[BudgetComponent::storage_skeleton].in / v[BudgetComponent::storage_water].in ==
         Approx(comp.skeleton / (comp.porosity * comp.water)).epsilon(1e-9));
   CHECK(v[BudgetComponent::storage_elastic].in == 0.0);  // contract: zero on this route

@@ -1,7 +1,6 @@
 // Time control: drying and rewetting, non-convergence reporting, linear backends,
 // factorisation reuse.
 #include <catch2/catch.hpp>
-
 #include <cmath>
 #include <cstdio>
 
@@ -46,7 +45,8 @@ TEST_CASE("a cell pumped dry wets again under recharge", "[time_control]") {
   // must fall short, and the reported shortfall plus the delivered rate is the asked rate.
   const WaterBudget& dry = obs.budgets[end_of_pumping];
   std::printf("drying: centre head %.4f m, delivered %.4f, shortfall %.4f m3/d\n",
-              obs.heads[end_of_pumping][centre], dry[BudgetComponent::wells].out, dry.well_shortfall);
+              obs.heads[end_of_pumping][centre], dry[BudgetComponent::wells].out,
+              dry.well_shortfall);
   CHECK(dry.well_shortfall > 10.0);
   CHECK(dry[BudgetComponent::wells].out + dry.well_shortfall == Approx(20.0).epsilon(1e-9));
   CHECK(obs.heads[end_of_pumping][centre] < 0.1);  // within the reduction length of the base
@@ -93,7 +93,8 @@ TEST_CASE("linear backends agree on the same system", "[linear]") {
     std::vector<std::unique_ptr<LinearSolver>> solvers;
     solvers.push_back(make_umfpack_solver());
     solvers.push_back(make_bicgstab_solver());
-    if (sys.symmetric()) solvers.push_back(make_cholmod_solver()), solvers.push_back(make_pcg_solver());
+    if (sys.symmetric())
+      solvers.push_back(make_cholmod_solver()), solvers.push_back(make_pcg_solver());
     Eigen::VectorXd reference;
     for (auto& s : solvers) {
       Eigen::VectorXd x = Eigen::VectorXd::Zero(b.size());
@@ -110,13 +111,18 @@ TEST_CASE("linear backends agree on the same system", "[linear]") {
 
 TEST_CASE("linear = auto picks by symmetry and size", "[linear]") {
   CHECK(choose_linear_solver(LinearChoice::automatic, true, 1000).solver->name() == "cholmod");
-  CHECK(choose_linear_solver(LinearChoice::automatic, true, cholmod_auto_limit + 1).solver->name() == "pcg");
+  CHECK(
+      choose_linear_solver(LinearChoice::automatic, true, cholmod_auto_limit + 1).solver->name() ==
+      "pcg");
   CHECK(choose_linear_solver(LinearChoice::automatic, false, 1000).solver->name() == "umfpack");
-  CHECK(choose_linear_solver(LinearChoice::automatic, false, umfpack_auto_limit + 1).solver->name() == "bicgstab");
+  CHECK(
+      choose_linear_solver(LinearChoice::automatic, false, umfpack_auto_limit + 1).solver->name() ==
+      "bicgstab");
   CHECK(choose_linear_solver(LinearChoice::pcg, false, 10).solver->name() == "bicgstab");
 }
 
-TEST_CASE("confined model with constant dt factorises once; backends give the same run", "[linear]") {
+TEST_CASE("confined model with constant dt factorises once; backends give the same run",
+          "[linear]") {
   test::AquiferSpec a;
   a.initial_head = 30.0;
   Model m = test::make_model(std::vector<double>(30, 10.0), std::vector<double>(20, 10.0), a);
@@ -135,5 +141,6 @@ TEST_CASE("confined model with constant dt factorises once; backends give the sa
     ends.push_back(obs.last_head);
   }
   for (std::size_t k = 1; k < ends.size(); ++k)
-    for (std::size_t i = 0; i < ends[0].size(); ++i) CHECK(ends[k][i] == Approx(ends[0][i]).margin(1e-7));
+    for (std::size_t i = 0; i < ends[0].size(); ++i)
+      CHECK(ends[k][i] == Approx(ends[0][i]).margin(1e-7));
 }
