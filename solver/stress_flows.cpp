@@ -10,31 +10,6 @@ namespace {
 
 std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
 
-/// Saturated thickness b(h) (L) and db/dh, as fixed in the physics decisions (see
-/// saturated_thickness in solver/system_layout.hpp); kept local until that lands here.
-ValueSlope local_saturated_thickness(const Model& model, const SystemLayout& layout, CellIndex c,
-                                     double head) {
-  const std::size_t i = at(c);
-  const double bottom = model.aquifer.bottom[i];
-  const double eps = layout.smoothing_length[i];
-  switch (model.aquifer.condition) {
-    case Condition::confined:
-      return {model.aquifer.top[i] - bottom, 0.0};
-    case Condition::water_table:
-      return smooth_ramp(head - bottom, eps);
-    case Condition::switching: {
-      const double top = model.aquifer.top[i];
-      if (head >= top) return {top - bottom, 0.0};
-      if (head > top - eps) {
-        const ValueSlope r = smooth_ramp(top - head, eps);
-        return {top - bottom - r.value, r.slope};
-      }
-      return smooth_ramp(head - bottom, eps);
-    }
-  }
-  return {0.0, 0.0};
-}
-
 /// Calls visit(k, cell, flow) for every cell of every stress feature, k being the feature's
 /// position in list_features(model). Inactive and fixed-head cells carry no stress.
 template <class Visit>
@@ -48,7 +23,7 @@ void visit_stress_flows(const Model& model, const SystemLayout& layout, std::siz
   for (const Well& well : model.wells) {
     if (carries_stress(well.cell)) {
       const CellIndex c = well.cell;
-      const ValueSlope b = local_saturated_thickness(model, layout, c, head[at(c)]);
+      const ValueSlope b = saturated_thickness(model, layout, c, head[at(c)]);
       visit(k, c, well_flow(well.rate.at(period, 0), b, layout.reduction_length[at(c)], reducible));
     }
     ++k;
@@ -59,7 +34,7 @@ void visit_stress_flows(const Model& model, const SystemLayout& layout, std::siz
     for (std::size_t j = 0; j < recharge.cells.size(); ++j) {
       const CellIndex c = recharge.cells[j];
       if (!carries_stress(c)) continue;
-      const ValueSlope b = local_saturated_thickness(model, layout, c, head[at(c)]);
+      const ValueSlope b = saturated_thickness(model, layout, c, head[at(c)]);
       visit(k, c,
             recharge_flow(recharge.rate.at(period, j), layout.area[at(c)], b,
                           layout.reduction_length[at(c)], reducible));
