@@ -100,10 +100,11 @@ void FlowSystem::assemble(std::span<const double> head) {
   const int n = n_unknowns();
   double* values = matrix_.valuePtr();
   double abs_sum = 0.0;
+  double face_sum = 0.0;
   double sum = 0.0;
   const bool transient = !steady_;
   const double inv_dt = transient ? 1.0 / dt_ : 0.0;
-#pragma omp parallel for schedule(static) reduction(+ : abs_sum, sum)
+#pragma omp parallel for schedule(static) reduction(+ : abs_sum, sum, face_sum)
   for (int u = 0; u < n; ++u) {
     const CellIndex c = layout_.cell_of_unknown[static_cast<std::size_t>(u)];
     const std::size_t i = at(c);
@@ -116,6 +117,7 @@ void FlowSystem::assemble(std::span<const double> head) {
       if (!nb.cell.valid()) break;
       const FaceFlow f = face_flow(model_, layout_, c, nb.cell, nb.factor, hi, head[at(nb.cell)]);
       r += f.q;
+      face_sum += std::abs(f.q);
       diag += f.dq_dhi;
       if (nb.value >= 0) values[nb.value] = -f.dq_dhj;
     }
@@ -144,6 +146,7 @@ void FlowSystem::assemble(std::span<const double> head) {
     abs_sum += std::abs(net);
   }
   throughflow_ = 0.5 * abs_sum;
+  rounding_floor_ = rounding_factor * (abs_sum + face_sum);
   residual_sum_ = sum;
 }
 
