@@ -37,7 +37,8 @@ int value_position(const SparseMatrix& m, int row, int col) {
 
 }  // namespace
 
-FlowSystem::FlowSystem(const Model& model, const SystemLayout& layout) : model_(model), layout_(layout) {
+FlowSystem::FlowSystem(const Model& model, const SystemLayout& layout)
+    : model_(model), layout_(layout) {
   const int n = layout.n_unknowns();
   std::vector<Eigen::Triplet<double>> pattern;
   pattern.reserve(static_cast<std::size_t>(n) * (max_neighbours + 1));
@@ -83,7 +84,8 @@ FlowSystem::FlowSystem(const Model& model, const SystemLayout& layout) : model_(
   }
 }
 
-void FlowSystem::set_step(std::size_t period, bool steady, double dt, std::span<const double> head_old) {
+void FlowSystem::set_step(std::size_t period, bool steady, double dt,
+                          std::span<const double> head_old) {
   period_ = period;
   steady_ = steady;
   dt_ = dt;
@@ -98,10 +100,11 @@ void FlowSystem::assemble(std::span<const double> head) {
   const int n = n_unknowns();
   double* values = matrix_.valuePtr();
   double abs_sum = 0.0;
+  double face_sum = 0.0;
   double sum = 0.0;
   const bool transient = !steady_;
   const double inv_dt = transient ? 1.0 / dt_ : 0.0;
-#pragma omp parallel for schedule(static) reduction(+ : abs_sum, sum)
+#pragma omp parallel for schedule(static) reduction(+ : abs_sum, sum, face_sum)
   for (int u = 0; u < n; ++u) {
     const CellIndex c = layout_.cell_of_unknown[static_cast<std::size_t>(u)];
     const std::size_t i = at(c);
@@ -114,6 +117,7 @@ void FlowSystem::assemble(std::span<const double> head) {
       if (!nb.cell.valid()) break;
       const FaceFlow f = face_flow(model_, layout_, c, nb.cell, nb.factor, hi, head[at(nb.cell)]);
       r += f.q;
+      face_sum += std::abs(f.q);
       diag += f.dq_dhi;
       if (nb.value >= 0) values[nb.value] = -f.dq_dhj;
     }
@@ -142,6 +146,7 @@ void FlowSystem::assemble(std::span<const double> head) {
     abs_sum += std::abs(net);
   }
   throughflow_ = 0.5 * abs_sum;
+  rounding_floor_ = rounding_factor * (abs_sum + face_sum);
   residual_sum_ = sum;
 }
 

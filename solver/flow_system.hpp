@@ -31,6 +31,9 @@ class FlowSystem {
   const Eigen::VectorXd& residual() const { return residual_; }
   /// L3/T: half the sum of the absolute values of every budget term (the step's (in+out)/2).
   double throughflow() const { return throughflow_; }
+  /// L3/T: the imbalance rounding alone can leave, from the sizes of all terms including the
+  /// flows between unknowns; tolerances below it cannot be met and are not asked for.
+  double rounding_floor() const { return rounding_floor_; }
   /// L3/T: sum of the residuals (the step's in - out).
   double residual_sum() const { return residual_sum_; }
   /// True when the Jacobian is symmetric (confined model: no upstream weighting).
@@ -44,7 +47,7 @@ class FlowSystem {
   struct Neighbour {
     CellIndex cell;
     double factor = 0.0;  ///< see Face::factor
-    int value = -1;       ///< position of the (row, neighbour) entry in the matrix values; -1 if fixed
+    int value = -1;  ///< position of the (row, neighbour) entry in the matrix values; -1 if fixed
   };
 
   const Model& model_;
@@ -64,6 +67,9 @@ class FlowSystem {
   double dt_ = 1.0;
   double throughflow_ = 0.0;
   double residual_sum_ = 0.0;
+  double rounding_floor_ = 0.0;
+  /// ~ 500 machine epsilons: the sum over a cell's terms and over all cells loses a few bits.
+  static constexpr double rounding_factor = 1.0e-13;
 };
 
 }  // namespace aquiledger

@@ -2,9 +2,11 @@
 // Small helpers that build aquiledger::Model objects directly in C++ for the stress tests.
 #include <cmath>
 #include <cstddef>
+#include <span>
 #include <vector>
 
 #include "solver/model.hpp"
+#include "solver/simulation.hpp"
 
 namespace aquiledger::stress_tests {
 
@@ -62,5 +64,24 @@ inline std::vector<CellIndex> all_cells(const Model& model) {
   for (int i = 0; i < model.grid.n_cells(); ++i) cells.push_back(CellIndex{i});
   return cells;
 }
+
+/// Keeps every accepted step's end time, length, period and heads.
+class RecordingObserver : public SimulationObserver {
+ public:
+  struct Step {
+    StepInfo info;
+    std::vector<double> head_old;
+    std::vector<double> head;
+  };
+  std::vector<double> initial;
+  std::vector<Step> steps;
+
+  void initial_state(std::span<const double> head) override { initial.assign(head.begin(), head.end()); }
+  void step_done(const StepInfo& info, std::span<const double> head_old,
+                 std::span<const double> head_new) override {
+    steps.push_back({info, {head_old.begin(), head_old.end()}, {head_new.begin(), head_new.end()}});
+  }
+  void period_done(std::size_t) override {}
+};
 
 }  // namespace aquiledger::stress_tests
