@@ -15,12 +15,14 @@ std::string Diagnostic::to_string() const {
 }
 
 void Diagnostics::error(const SourceSpot& at, std::string key, std::string message) {
-  items_.push_back({Severity::error, at.file, at.line, at.column, std::move(key), std::move(message)});
+  items_.push_back(
+      {Severity::error, at.file, at.line, at.column, std::move(key), std::move(message)});
   ++n_errors_;
 }
 
 void Diagnostics::warning(const SourceSpot& at, std::string key, std::string message) {
-  items_.push_back({Severity::warning, at.file, at.line, at.column, std::move(key), std::move(message)});
+  items_.push_back(
+      {Severity::warning, at.file, at.line, at.column, std::move(key), std::move(message)});
 }
 
 }  // namespace aquiledger

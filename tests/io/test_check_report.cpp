@@ -1,6 +1,5 @@
 // The check report: step lengths of a growing period and the report's content.
 #include <catch2/catch.hpp>
-
 #include <cmath>
 #include <fstream>
 #include <iterator>
@@ -34,7 +33,8 @@ TEST_CASE("the report describes the contract example", "[check_report]") {
   CHECK(text.find("500 m2/d") != std::string::npos);  // 12.5 m/d x 40 m
   CHECK(text.find("row 84, column 74") != std::string::npos);
   CHECK(text.find("dry season") != std::string::npos);
-  CHECK(text.find("56 cells; channel 10630 m") != std::string::npos);  // hypot(8000, 7000) = 10630.1
+  CHECK(text.find("56 cells; channel 10630 m") !=
+        std::string::npos);  // hypot(8000, 7000) = 10630.1
 }
 
 TEST_CASE("the report shows the compressibility shares", "[check_report]") {
@@ -42,7 +42,8 @@ TEST_CASE("the report shows the compressibility shares", "[check_report]") {
   std::ifstream in(dir + "/contract_example.toml");
   std::string text((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
   const std::string from = "specific_storage = 2.0e-6            # 1/L";
-  text.replace(text.find(from), from.size(), "compressibility = { skeleton = 5.0e-9, porosity = 0.25 }");
+  text.replace(text.find(from), from.size(),
+               "compressibility = { skeleton = 5.0e-9, porosity = 0.25 }");
   auto r = read_model_text(text, dir + "/contract_example.toml");
   REQUIRE(r.ok());
   const std::string report = format_check_report(*r.model);

@@ -1,10 +1,10 @@
 // Good inputs: every example of the contract's Sections block is accepted, and the values
 // land in the cells, periods and units they should.
-#include "tests/io/reader_test_support.hpp"
-
 #include <cmath>
 #include <fstream>
 #include <sstream>
+
+#include "tests/io/reader_test_support.hpp"
 
 using namespace reader_test;
 using namespace aquiledger;
@@ -22,11 +22,13 @@ Model require_model(const ReadResult& r) {
   return *r.model;
 }
 Model contract_variant(const std::string& from, const std::string& to) {
-  return require_model(read_model_text(edit(contract_text(), from, to), data_dir + "/contract_example.toml"));
+  return require_model(
+      read_model_text(edit(contract_text(), from, to), data_dir + "/contract_example.toml"));
 }
 }  // namespace
 
-TEST_CASE("the contract example is accepted and its values land where they should", "[reader][accept]") {
+TEST_CASE("the contract example is accepted and its values land where they should",
+          "[reader][accept]") {
   const Model m = require_model(read_model_file(data_dir + "/contract_example.toml"));
   const RectilinearGrid& g = m.grid;
   CHECK(m.title == "North terrace aquifer, 20-year irrigation scenario");
@@ -78,7 +80,8 @@ TEST_CASE("the contract example is accepted and its values land where they shoul
   const River& r = m.rivers[0];
   CHECK(r.cells.size() == 56);
   double total = 0.0, conductance = 0.0;
-  for (std::size_t i = 0; i < r.cells.size(); ++i) total += r.length[i], conductance += r.conductance.at(0, i);
+  for (std::size_t i = 0; i < r.cells.size(); ++i)
+    total += r.length[i], conductance += r.conductance.at(0, i);
   CHECK(total == Approx(std::hypot(8000.0, 7000.0)).epsilon(1e-12));
   // Conductance per cell = 15 per unit length x length in the cell (contract [[river]]).
   CHECK(conductance == Approx(15.0 * std::hypot(8000.0, 7000.0)).epsilon(1e-12));
@@ -114,21 +117,25 @@ TEST_CASE("the contract example is accepted and its values land where they shoul
 
 TEST_CASE("the contract's commented alternatives are accepted", "[reader][accept]") {
   SECTION("fixed head by cells, 1-based [row, col]") {
-    const Model m = contract_variant("edge = \"west\"            # north", "cells = [[1, 1], [2, 1]] # north");
+    const Model m =
+        contract_variant("edge = \"west\"            # north", "cells = [[1, 1], [2, 1]] # north");
     REQUIRE(m.fixed_heads[0].cells.size() == 2);
     CHECK(m.grid.row_col(m.fixed_heads[0].cells[1]) == RowCol{1, 0});
   }
   SECTION("fixed head by mask") {
-    const Model m = contract_variant("edge = \"west\"            # north", "mask = { file = \"shore.txt\" } # north");
+    const Model m = contract_variant("edge = \"west\"            # north",
+                                     "mask = { file = \"shore.txt\" } # north");
     CHECK(m.fixed_heads[0].cells.size() == 20);
   }
   SECTION("recharge mask") {
-    const Model m = contract_variant("# mask = { file = \"irrigated.txt\" }", "mask = { file = \"irrigated.txt\" }");
+    const Model m = contract_variant("# mask = { file = \"irrigated.txt\" }",
+                                     "mask = { file = \"irrigated.txt\" }");
     CHECK(m.recharges[0].cells.size() == 600);  // a 20 x 30 block
   }
   SECTION("storativity: Ss = S / (top - bottom)") {
     // S = Ss b (definition of storativity): 8e-5 / 40 m.
-    const Model m = contract_variant("specific_storage = 2.0e-6            # 1/L", "storativity = 8.0e-5");
+    const Model m =
+        contract_variant("specific_storage = 2.0e-6            # 1/L", "storativity = 8.0e-5");
     CHECK(m.aquifer.specific_storage[0] == Approx(2.0e-6).epsilon(1e-14));
   }
   SECTION("compressibility with the water defaults") {
@@ -143,42 +150,50 @@ TEST_CASE("the contract's commented alternatives are accepted", "[reader][accept
     CHECK(m.aquifer.compressibility->water == 4.6e-10);
   }
   SECTION("compressibility with every key") {
-    const Model m = contract_variant(
-        "specific_storage = 2.0e-6            # 1/L",
-        "compressibility = { skeleton = 5.0e-9, porosity = 0.25, water = 4.6e-10, density = 998.2, gravity = 9.80665 }");
-    CHECK(m.aquifer.specific_storage[0] == Approx(998.2 * 9.80665 * (5.0e-9 + 0.25 * 4.6e-10)).epsilon(1e-14));
+    const Model m = contract_variant("specific_storage = 2.0e-6            # 1/L",
+                                     "compressibility = { skeleton = 5.0e-9, porosity = 0.25, "
+                                     "water = 4.6e-10, density = 998.2, gravity = 9.80665 }");
+    CHECK(m.aquifer.specific_storage[0] ==
+          Approx(998.2 * 9.80665 * (5.0e-9 + 0.25 * 4.6e-10)).epsilon(1e-14));
   }
   SECTION("steady initial state") {
-    const Model m = contract_variant("head = 38.0              # field value, or:", "steady = true");
+    const Model m =
+        contract_variant("head = 38.0              # field value, or:", "steady = true");
     CHECK(m.initial.steady);
     CHECK(m.initial.head.empty());
   }
   SECTION("river bed from k, thickness and width") {
-    const Model m = contract_variant("bed_conductance = 15.0", "bed = { k = 0.5, thickness = 1.0, width = 8.0 }");
+    const Model m = contract_variant("bed_conductance = 15.0",
+                                     "bed = { k = 0.5, thickness = 1.0, width = 8.0 }");
     // Conductance per length = k w / thickness = 0.5 x 8 / 1 = 4 (Darcy's law across the bed).
     double c = 0.0;
-    for (std::size_t i = 0; i < m.rivers[0].cells.size(); ++i) c += m.rivers[0].conductance.at(0, i);
+    for (std::size_t i = 0; i < m.rivers[0].cells.size(); ++i)
+      c += m.rivers[0].conductance.at(0, i);
     CHECK(c == Approx(4.0 * std::hypot(8000.0, 7000.0)).epsilon(1e-12));
   }
   SECTION("leakance given directly") {
-    const Model m = contract_variant("aquitard = { k = 1.0e-4, thickness = 5.0 }", "leakance = 2.0e-5");
+    const Model m =
+        contract_variant("aquitard = { k = 1.0e-4, thickness = 5.0 }", "leakance = 2.0e-5");
     CHECK(m.leakage->leakance.at(1, 7) == 2.0e-5);
   }
 }
 
 TEST_CASE("compressibility route in feet converts Ss to 1/ft", "[reader][accept]") {
-  const std::string text = edit(edit(base_model(), "length_unit = \"m\"", "length_unit = \"ft\""), "specific_storage = 1.0e-5",
-                                "compressibility = { skeleton = 1.0e-8, porosity = 0.3 }");
+  const std::string text =
+      edit(edit(base_model(), "length_unit = \"m\"", "length_unit = \"ft\""),
+           "specific_storage = 1.0e-5", "compressibility = { skeleton = 1.0e-8, porosity = 0.3 }");
   const Model m = require_model(read(text));
   // Contract: Ss [1/ft] = rho g (alpha + n beta) [1/m] x 0.3048 (1 ft = 0.3048 m exactly).
-  CHECK(m.aquifer.specific_storage[5] == Approx(998.2 * 9.80665 * (1.0e-8 + 0.3 * 4.6e-10) * 0.3048).epsilon(1e-14));
+  CHECK(m.aquifer.specific_storage[5] ==
+        Approx(998.2 * 9.80665 * (1.0e-8 + 0.3 * 4.6e-10) * 0.3048).epsilon(1e-14));
 }
 
 TEST_CASE("array files read north row first", "[reader][accept]") {
   // Contract Conventions: array files list the northern row first; row 1 is the north edge.
   for (const char* file : {"k_3x4.txt", "raster_3x4.asc"}) {
     INFO(file);
-    const Model m = require_model(read(edit(base_model(), "k = 5.0", std::string("k = { file = \"") + file + "\" }")));
+    const Model m = require_model(
+        read(edit(base_model(), "k = 5.0", std::string("k = { file = \"") + file + "\" }")));
     CHECK(m.aquifer.kx[m.grid.cell(0, 0).value] == 1.0);
     CHECK(m.aquifer.kx[m.grid.cell(0, 3).value] == 4.0);
     CHECK(m.aquifer.kx[m.grid.cell(2, 0).value] == 9.0);
@@ -189,22 +204,25 @@ TEST_CASE("array files read north row first", "[reader][accept]") {
 
 TEST_CASE("zones give each cell its zone's value", "[reader][accept]") {
   const Model m = require_model(
-      read(edit(base_model(), "k = 5.0", "k = { zones = \"zones_3x4.txt\", values = { 1 = 5.0, 2 = 8.0, 3 = 0.5 } }")));
+      read(edit(base_model(), "k = 5.0",
+                "k = { zones = \"zones_3x4.txt\", values = { 1 = 5.0, 2 = 8.0, 3 = 0.5 } }")));
   CHECK(m.aquifer.kx[m.grid.cell(0, 0).value] == 5.0);
   CHECK(m.aquifer.kx[m.grid.cell(1, 3).value] == 8.0);
   CHECK(m.aquifer.kx[m.grid.cell(2, 2).value] == 0.5);
 }
 
 TEST_CASE("variable dx and dy from an array and a file", "[reader][accept]") {
-  const Model m = require_model(read(edit(edit(base_model(), "dx = 10.0", "dx = [1.0, 2.0, 3.0, 4.0]"), "dy = 10.0",
-                                          "dy = { file = \"dy_3.txt\" }")));
+  const Model m =
+      require_model(read(edit(edit(base_model(), "dx = 10.0", "dx = [1.0, 2.0, 3.0, 4.0]"),
+                              "dy = 10.0", "dy = { file = \"dy_3.txt\" }")));
   CHECK(m.grid.x_max() == 10.0);  // 1 + 2 + 3 + 4
   CHECK(m.grid.y_max() == 35.0);  // 5 + 10 + 20
   CHECK(m.grid.dy(0) == 5.0);     // the north row first
 }
 
 TEST_CASE("per-period values: numbers, arrays and a list of field values", "[reader][accept]") {
-  const Model m = require_model(read(base_model() + "\n[[recharge]]\nrate = [0.001, { file = \"k_3x4.txt\" }]\n"));
+  const Model m = require_model(
+      read(base_model() + "\n[[recharge]]\nrate = [0.001, { file = \"k_3x4.txt\" }]\n"));
   const Recharge& r = m.recharges[0];
   CHECK(r.cells.size() == 12);
   CHECK(r.rate.at(0, 7) == 0.001);
@@ -214,9 +232,10 @@ TEST_CASE("per-period values: numbers, arrays and a list of field values", "[rea
 }
 
 TEST_CASE("edges follow an irregular active mask", "[reader][accept]") {
-  const std::string text = edit(base_model(), "origin = [0.0, 0.0]", "active = { file = \"active_3x4.txt\" }") +
-                           "\n[[fixed_head]]\nname = \"e\"\nedge = \"east\"\nhead = 9.0\n"
-                           "[[external_head]]\nname = \"n\"\nedge = \"north\"\nhead = 9.0\nconductance = 1.0\n";
+  const std::string text =
+      edit(base_model(), "origin = [0.0, 0.0]", "active = { file = \"active_3x4.txt\" }") +
+      "\n[[fixed_head]]\nname = \"e\"\nedge = \"east\"\nhead = 9.0\n"
+      "[[external_head]]\nname = \"n\"\nedge = \"north\"\nhead = 9.0\nconductance = 1.0\n";
   const Model m = require_model(read(text));
   // Row 1 ends at column 3 (column 4 is inactive), rows 2 and 3 at column 4.
   REQUIRE(m.fixed_heads[0].cells.size() == 3);
@@ -227,32 +246,38 @@ TEST_CASE("edges follow an irregular active mask", "[reader][accept]") {
 }
 
 TEST_CASE("a river placed by cells takes bed_conductance per cell", "[reader][accept]") {
-  const Model m = require_model(
-      read(base_model() + "\n[[river]]\ncells = [[2, 2], [2, 3]]\nstage = 9.0\nbed_bottom = 8.0\nbed_conductance = 3.0\n"));
+  const Model m =
+      require_model(read(base_model() + "\n[[river]]\ncells = [[2, 2], [2, 3]]\nstage = "
+                                        "9.0\nbed_bottom = 8.0\nbed_conductance = 3.0\n"));
   CHECK(m.rivers[0].length == std::vector<double>{1.0, 1.0});
   CHECK(m.rivers[0].conductance.at(0, 1) == 3.0);
 }
 
 TEST_CASE("warnings never stop a read and reach Model::warnings", "[reader][accept]") {
   SECTION("stress on fixed-head cells") {
-    const auto r = read(base_model() + "\n[[fixed_head]]\nname = \"f\"\nedge = \"west\"\nhead = 9.0\n"
-                                       "[[drain]]\nname = \"d\"\ncells = [[1, 1], [1, 2]]\nelevation = 8.0\nconductance = 1.0\n");
+    const auto r = read(
+        base_model() +
+        "\n[[fixed_head]]\nname = \"f\"\nedge = \"west\"\nhead = 9.0\n"
+        "[[drain]]\nname = \"d\"\ncells = [[1, 1], [1, 2]]\nelevation = 8.0\nconductance = 1.0\n");
     const Model m = require_model(r);
     CHECK(has_warning(r, "[[drain]] \"d\"", "1 of its 2 cell(s) are fixed-head cells"));
     CHECK_FALSE(m.warnings.empty());
   }
   SECTION("river polyline partly outside the active cells") {
     // (-10, 15) -> (20, 15): 10 m west of the grid, 20 m inside.
-    const auto r = read(base_model() + "\n[[river]]\nname = \"r\"\npolyline = [[-10.0, 15.0], [20.0, 15.0]]\n"
-                                       "stage = 9.0\nbed_bottom = 8.0\nbed_conductance = 1.0\n");
+    const auto r = read(base_model() +
+                        "\n[[river]]\nname = \"r\"\npolyline = [[-10.0, 15.0], [20.0, 15.0]]\n"
+                        "stage = 9.0\nbed_bottom = 8.0\nbed_conductance = 1.0\n");
     const Model m = require_model(r);
-    CHECK(has_warning(r, "[[river]] \"r\"", "10 m of the polyline's 30 m lie outside active cells"));
+    CHECK(
+        has_warning(r, "[[river]] \"r\"", "10 m of the polyline's 30 m lie outside active cells"));
     double total = 0.0;
     for (double l : m.rivers[0].length) total += l;
     CHECK(total == Approx(20.0));
   }
   SECTION("implausible K, specific yield and storativity (common practice ranges)") {
-    const auto r = read(edit(edit(edit(base_model(), "k = 5.0", "k = 1.0e5"), "specific_yield = 0.2", "specific_yield = 0.5"),
+    const auto r = read(edit(edit(edit(base_model(), "k = 5.0", "k = 1.0e5"),
+                                  "specific_yield = 0.2", "specific_yield = 0.5"),
                              "specific_storage = 1.0e-5", "specific_storage = 1.0e-3"));
     const Model m = require_model(r);
     CHECK(has_warning(r, "[aquifer].k", "common practice"));
@@ -262,7 +287,8 @@ TEST_CASE("warnings never stop a read and reach Model::warnings", "[reader][acce
   }
   SECTION("K range converted to the model's units") {
     // 1e-3 ft/s = 1e-3 x 0.3048 x 86400 m/d = 26.3 m/d: plausible; 1 ft/s = 26334 m/d: not.
-    const std::string feet = edit(edit(base_model(), "length_unit = \"m\"", "length_unit = \"ft\""), "time_unit = \"d\"", "time_unit = \"s\"");
+    const std::string feet = edit(edit(base_model(), "length_unit = \"m\"", "length_unit = \"ft\""),
+                                  "time_unit = \"d\"", "time_unit = \"s\"");
     CHECK(require_model(read(edit(feet, "k = 5.0", "k = 1.0e-3"))).warnings.empty());
     CHECK(has_warning(read(edit(feet, "k = 5.0", "k = 1.0")), "[aquifer].k", "ft/s"));
   }

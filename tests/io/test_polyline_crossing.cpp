@@ -1,7 +1,6 @@
 // Channel length per cell against hand geometry (Pythagoras on each piece of a straight
 // segment between the cell edges it crosses).
 #include <catch2/catch.hpp>
-
 #include <cmath>
 
 #include "io/polyline_crossing.hpp"
@@ -9,7 +8,9 @@
 using namespace aquiledger;
 
 namespace {
-PolylineCrossing cross(const RectilinearGrid& g, std::vector<std::array<double, 2>> pts) { return cross_polyline(g, pts); }
+PolylineCrossing cross(const RectilinearGrid& g, std::vector<std::array<double, 2>> pts) {
+  return cross_polyline(g, pts);
+}
 }  // namespace
 
 TEST_CASE("a diagonal across a square cell has length sqrt(2) dx", "[polyline]") {
