@@ -5,8 +5,8 @@ namespace aquiledger {
 std::string Diagnostic::to_string() const {
   std::string s = file.string();
   if (line > 0) {
-    s += ":" + std::to_string(line);
-    if (column > 0) s += ":" + std::to_string(column);
+    s.append(":").append(std::to_string(line));
+    if (column > 0) s.append(":").append(std::to_string(column));
   }
   s += severity == Severity::error ? ": error: " : ": warning: ";
   if (!key.empty()) s += key + ": ";

@@ -19,8 +19,11 @@ const toml::table* optional_table(ReaderContext& ctx, const toml::table& root,
                                   std::string_view name) {
   const toml::node* node = root.get(name);
   if (!node) return nullptr;
-  if (!node->as_table())
-    ctx.error(*node, "[" + std::string(name) + "]", "expected a table, found " + type_name(*node));
+  if (!node->as_table()) {
+    std::string section = "[";
+    section.append(name).append("]");
+    ctx.error(*node, section, "expected a table, found " + type_name(*node));
+  }
   return node->as_table();
 }
 }  // namespace
