@@ -53,3 +53,19 @@ TEST_CASE("the report shows the compressibility shares", "[check_report]") {
   CHECK(report.find("97.752 %") != std::string::npos);
   CHECK(report.find("2.2483 %") != std::string::npos);
 }
+
+TEST_CASE("the Marrow Basin demo is accepted and reported", "[check_report]") {
+  auto r = read_model_file(std::string(AQUILEDGER_SOURCE_DIR) + "/cases/01-marrow-basin/model.toml");
+  for (const auto& d : r.diagnostics) INFO(d.to_string());
+  REQUIRE(r.ok());
+  const Model& m = *r.model;
+  CHECK(m.grid.n_rows() == 60);
+  CHECK(m.grid.n_cols() == 80);
+  CHECK(m.aquifer.elastic_split());
+  CHECK(m.periods.front().steady);
+  CHECK(m.wells.size() == 4);
+  CHECK(m.observations[0].measured.size() == 11);
+  const std::string report = format_check_report(m);
+  CHECK(report.find("Jacob, 1940") != std::string::npos);
+  CHECK(report.find("pre-development") != std::string::npos);
+}
