@@ -20,8 +20,8 @@ double cell_state(const Model& model, std::size_t i, double h) {
   return 1.0;
 }
 
-void fill_heads(const Model& model, const SystemLayout& layout, std::span<const double> initial_head,
-                std::span<const double> head, CellFields& f) {
+void fill_heads(const Model& model, const SystemLayout& layout,
+                std::span<const double> initial_head, std::span<const double> head, CellFields& f) {
   const double nan = std::nan("");
   for (std::size_t i = 0; i < f.head.size(); ++i) {
     const CellIndex c{static_cast<std::int32_t>(i)};
@@ -37,7 +37,8 @@ void fill_heads(const Model& model, const SystemLayout& layout, std::span<const 
 }
 
 /// Face flows positive east and north; zero across the grid edge or into inactive cells.
-void fill_face_flows(const Model& model, const SystemLayout& layout, std::span<const double> head, CellFields& f) {
+void fill_face_flows(const Model& model, const SystemLayout& layout, std::span<const double> head,
+                     CellFields& f) {
   const RectilinearGrid& g = model.grid;
   for (int r = 0; r < g.n_rows(); ++r)
     for (int col = 0; col < g.n_cols(); ++col) {
@@ -51,11 +52,14 @@ void fill_face_flows(const Model& model, const SystemLayout& layout, std::span<c
       if (col + 1 < g.n_cols() && g.is_active(g.cell(r, col + 1))) {
         const CellIndex e = g.cell(r, col + 1);
         // Flow into e from c is the flow toward the east.
-        f.flow_east[i] = face_flow(model, layout, e, c, face_factor(model, c, e, true), head[at(e)], head[i]).q;
+        f.flow_east[i] =
+            face_flow(model, layout, e, c, face_factor(model, c, e, true), head[at(e)], head[i]).q;
       }
       if (r > 0 && g.is_active(g.cell(r - 1, col))) {
         const CellIndex nn = g.cell(r - 1, col);
-        f.flow_north[i] = face_flow(model, layout, nn, c, face_factor(model, nn, c, false), head[at(nn)], head[i]).q;
+        f.flow_north[i] =
+            face_flow(model, layout, nn, c, face_factor(model, nn, c, false), head[at(nn)], head[i])
+                .q;
       }
     }
 }
@@ -91,7 +95,8 @@ void update_cell_fields(const Model& model, const SystemLayout& layout, bool ste
     double elastic = 0.0, drainage = 0.0;  // L3/T released
     // Fixed cells and steady steps have no storage term.
     if (!steady && !layout.fixed[i]) {
-      const StoredWater change = stored_water_change(cell_storage(model, c), head_old[i], head_new[i]);
+      const StoredWater change =
+          stored_water_change(cell_storage(model, c), head_old[i], head_new[i]);
       elastic = -layout.area[i] * change.elastic / dt;
       drainage = -layout.area[i] * change.drainage / dt;
     }

@@ -20,14 +20,22 @@ void add_signed(InOut& io, double q) {
 
 BudgetComponent component_of(FeatureKind kind) {
   switch (kind) {
-    case FeatureKind::well: return BudgetComponent::wells;
-    case FeatureKind::fixed_head: return BudgetComponent::fixed_head;
-    case FeatureKind::recharge: return BudgetComponent::recharge;
-    case FeatureKind::river: return BudgetComponent::river;
-    case FeatureKind::drain: return BudgetComponent::drain;
-    case FeatureKind::external_head: return BudgetComponent::external_head;
-    case FeatureKind::evapotranspiration: return BudgetComponent::evapotranspiration;
-    case FeatureKind::leakage: return BudgetComponent::leakage;
+    case FeatureKind::well:
+      return BudgetComponent::wells;
+    case FeatureKind::fixed_head:
+      return BudgetComponent::fixed_head;
+    case FeatureKind::recharge:
+      return BudgetComponent::recharge;
+    case FeatureKind::river:
+      return BudgetComponent::river;
+    case FeatureKind::drain:
+      return BudgetComponent::drain;
+    case FeatureKind::external_head:
+      return BudgetComponent::external_head;
+    case FeatureKind::evapotranspiration:
+      return BudgetComponent::evapotranspiration;
+    case FeatureKind::leakage:
+      return BudgetComponent::leakage;
   }
   return BudgetComponent::wells;
 }
@@ -56,18 +64,30 @@ double fixed_cell_net_flow(const Model& model, const SystemLayout& layout, CellI
 
 std::string_view component_label(BudgetComponent c) {
   switch (c) {
-    case BudgetComponent::storage_skeleton: return "storage_skeleton";
-    case BudgetComponent::storage_water: return "storage_water";
-    case BudgetComponent::storage_drainage: return "storage_drainage";
-    case BudgetComponent::storage_elastic: return "storage_elastic";
-    case BudgetComponent::fixed_head: return "fixed_head";
-    case BudgetComponent::wells: return "wells";
-    case BudgetComponent::recharge: return "recharge";
-    case BudgetComponent::river: return "river";
-    case BudgetComponent::drain: return "drain";
-    case BudgetComponent::external_head: return "external_head";
-    case BudgetComponent::evapotranspiration: return "evapotranspiration";
-    case BudgetComponent::leakage: return "leakage";
+    case BudgetComponent::storage_skeleton:
+      return "storage_skeleton";
+    case BudgetComponent::storage_water:
+      return "storage_water";
+    case BudgetComponent::storage_drainage:
+      return "storage_drainage";
+    case BudgetComponent::storage_elastic:
+      return "storage_elastic";
+    case BudgetComponent::fixed_head:
+      return "fixed_head";
+    case BudgetComponent::wells:
+      return "wells";
+    case BudgetComponent::recharge:
+      return "recharge";
+    case BudgetComponent::river:
+      return "river";
+    case BudgetComponent::drain:
+      return "drain";
+    case BudgetComponent::external_head:
+      return "external_head";
+    case BudgetComponent::evapotranspiration:
+      return "evapotranspiration";
+    case BudgetComponent::leakage:
+      return "leakage";
   }
   return "unknown";
 }
@@ -113,7 +133,8 @@ WaterBudget step_budget(const Model& model, const SystemLayout& layout, std::siz
     const bool split = model.aquifer.elastic_split();
     for (CellIndex c : layout.cell_of_unknown) {
       const std::size_t i = at(c);
-      const StoredWater change = stored_water_change(cell_storage(model, c), head_old[i], head_new[i]);
+      const StoredWater change =
+          stored_water_change(cell_storage(model, c), head_old[i], head_new[i]);
       const double elastic = -layout.area[i] * change.elastic / dt;
       const double drainage = -layout.area[i] * change.drainage / dt;
       if (split) {

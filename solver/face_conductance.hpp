@@ -26,16 +26,16 @@ struct FaceFlow {
 };
 
 /// Fixed conductance c (L2/T): q = c (hj - hi).
-inline FaceFlow linear_face_flow(double c, double hi, double hj) {
-  return {c * (hj - hi), -c, c};
-}
+inline FaceFlow linear_face_flow(double c, double hi, double hj) { return {c * (hj - hi), -c, c}; }
 
 /// Upstream-thickness flow: q = factor * b_up (hj - hi), b_up the saturated thickness of the
 /// cell with the higher head (tie: cell i). factor from harmonic_face_factor (L/T);
 /// bi, bj: saturated thickness (L) and its head derivative at hi, hj.
-inline FaceFlow upstream_face_flow(double factor, double hi, ValueSlope bi, double hj, ValueSlope bj) {
+inline FaceFlow upstream_face_flow(double factor, double hi, ValueSlope bi, double hj,
+                                   ValueSlope bj) {
   const double dh = hj - hi;
-  if (hi >= hj) return {factor * bi.value * dh, factor * (bi.slope * dh - bi.value), factor * bi.value};
+  if (hi >= hj)
+    return {factor * bi.value * dh, factor * (bi.slope * dh - bi.value), factor * bi.value};
   return {factor * bj.value * dh, -factor * bj.value, factor * (bj.slope * dh + bj.value)};
 }
 

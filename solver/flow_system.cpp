@@ -37,7 +37,8 @@ int value_position(const SparseMatrix& m, int row, int col) {
 
 }  // namespace
 
-FlowSystem::FlowSystem(const Model& model, const SystemLayout& layout) : model_(model), layout_(layout) {
+FlowSystem::FlowSystem(const Model& model, const SystemLayout& layout)
+    : model_(model), layout_(layout) {
   const int n = layout.n_unknowns();
   std::vector<Eigen::Triplet<double>> pattern;
   pattern.reserve(static_cast<std::size_t>(n) * (max_neighbours + 1));
@@ -83,7 +84,8 @@ FlowSystem::FlowSystem(const Model& model, const SystemLayout& layout) : model_(
   }
 }
 
-void FlowSystem::set_step(std::size_t period, bool steady, double dt, std::span<const double> head_old) {
+void FlowSystem::set_step(std::size_t period, bool steady, double dt,
+                          std::span<const double> head_old) {
   period_ = period;
   steady_ = steady;
   dt_ = dt;

@@ -44,7 +44,7 @@ class FlowSystem {
   struct Neighbour {
     CellIndex cell;
     double factor = 0.0;  ///< see Face::factor
-    int value = -1;       ///< position of the (row, neighbour) entry in the matrix values; -1 if fixed
+    int value = -1;  ///< position of the (row, neighbour) entry in the matrix values; -1 if fixed
   };
 
   const Model& model_;

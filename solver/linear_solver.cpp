@@ -45,13 +45,16 @@ class IterativeSolver final : public LinearSolver {
   bool analysed_ = false;
 };
 
-using Pcg = Eigen::ConjugateGradient<SparseMatrix, Eigen::Lower | Eigen::Upper,
-                                     Eigen::IncompleteCholesky<double, Eigen::Lower, Eigen::NaturalOrdering<int>>>;
+using Pcg = Eigen::ConjugateGradient<
+    SparseMatrix, Eigen::Lower | Eigen::Upper,
+    Eigen::IncompleteCholesky<double, Eigen::Lower, Eigen::NaturalOrdering<int>>>;
 using Bicgstab = Eigen::BiCGSTAB<SparseMatrix, Eigen::IncompleteLUT<double, int>>;
 
 }  // namespace
 
-std::unique_ptr<LinearSolver> make_pcg_solver() { return std::make_unique<IterativeSolver<Pcg>>("pcg"); }
+std::unique_ptr<LinearSolver> make_pcg_solver() {
+  return std::make_unique<IterativeSolver<Pcg>>("pcg");
+}
 std::unique_ptr<LinearSolver> make_bicgstab_solver() {
   return std::make_unique<IterativeSolver<Bicgstab>>("bicgstab");
 }
@@ -64,16 +67,23 @@ LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int
       return {make_umfpack_solver(), "direct requested; non-symmetric system: LU"};
     case LinearChoice::pcg:
       if (symmetric) return {make_pcg_solver(), "pcg requested"};
-      return {make_bicgstab_solver(), "pcg requested but the system is not symmetric (upstream thickness): bicgstab"};
-    case LinearChoice::bicgstab: return {make_bicgstab_solver(), "bicgstab requested"};
-    case LinearChoice::automatic: break;
+      return {make_bicgstab_solver(),
+              "pcg requested but the system is not symmetric (upstream thickness): bicgstab"};
+    case LinearChoice::bicgstab:
+      return {make_bicgstab_solver(), "bicgstab requested"};
+    case LinearChoice::automatic:
+      break;
   }
   if (symmetric) {
-    if (n <= cholmod_auto_limit) return {make_cholmod_solver(), "auto: symmetric (confined), " + size + ": Cholesky"};
-    return {make_pcg_solver(), "auto: symmetric (confined), " + size + " (over the direct limit): pcg"};
+    if (n <= cholmod_auto_limit)
+      return {make_cholmod_solver(), "auto: symmetric (confined), " + size + ": Cholesky"};
+    return {make_pcg_solver(),
+            "auto: symmetric (confined), " + size + " (over the direct limit): pcg"};
   }
-  if (n <= umfpack_auto_limit) return {make_umfpack_solver(), "auto: non-symmetric (upstream thickness), " + size + ": LU"};
-  return {make_bicgstab_solver(), "auto: non-symmetric (upstream thickness), " + size + " (over the direct limit): bicgstab"};
+  if (n <= umfpack_auto_limit)
+    return {make_umfpack_solver(), "auto: non-symmetric (upstream thickness), " + size + ": LU"};
+  return {make_bicgstab_solver(), "auto: non-symmetric (upstream thickness), " + size +
+                                      " (over the direct limit): bicgstab"};
 }
 
 }  // namespace aquiledger

@@ -2,10 +2,9 @@
 // One interface over the sparse linear solvers: CHOLMOD and UMFPACK (direct, in
 // sparse_direct.cpp, the only file that includes SuiteSparse headers) and Eigen's
 // preconditioned conjugate gradients and BiCGSTAB (iterative, in linear_solver.cpp).
+#include <Eigen/SparseCore>
 #include <memory>
 #include <string>
-
-#include <Eigen/SparseCore>
 
 #include "solver/flow_system.hpp"
 #include "solver/model.hpp"
@@ -32,7 +31,10 @@ class LinearSolver {
   /// True when a's values differ from those of the last factorisation (and records them).
   bool values_changed(const SparseMatrix& a);
   void count_factorization(bool reused) { reused ? ++reuses_ : ++factorizations_; }
-  void count_iterations(int n) { last_iterations_ = n; total_iterations_ += n; }
+  void count_iterations(int n) {
+    last_iterations_ = n;
+    total_iterations_ += n;
+  }
 
  private:
   Eigen::VectorXd last_values_;

@@ -35,16 +35,19 @@ ResidualCheck check_residual(const FlowSystem& system, const NewtonSettings& s) 
 }  // namespace
 
 NewtonResult solve_newton(FlowSystem& system, LinearSolver& linear, const NewtonSettings& settings,
-                          std::span<double> head) {
+                          std::span<double> head, NewtonWorkspace& work) {
   const SystemLayout& layout = system.layout();
   const int n = system.n_unknowns();
   NewtonResult result;
-  Eigen::VectorXd dh = Eigen::VectorXd::Zero(n);
-  std::vector<double> base(n);
+  if (work.update.size() != n) work.update.setZero(n);
+  work.base.resize(static_cast<std::size_t>(n));
+  Eigen::VectorXd& dh = work.update;
+  std::vector<double>& base = work.base;
   auto apply = [&](double step) {
     double largest = 0.0;
     for (int u = 0; u < n; ++u) {
-      const auto i = static_cast<std::size_t>(layout.cell_of_unknown[static_cast<std::size_t>(u)].value);
+      const auto i =
+          static_cast<std::size_t>(layout.cell_of_unknown[static_cast<std::size_t>(u)].value);
       head[i] = base[static_cast<std::size_t>(u)] + step * dh[u];
       largest = std::max(largest, std::abs(step * dh[u]));
     }
@@ -53,7 +56,8 @@ NewtonResult solve_newton(FlowSystem& system, LinearSolver& linear, const Newton
   auto record = [&](const ResidualCheck& c) {
     result.max_imbalance = c.max_relative;
     result.sum_imbalance = c.sum_relative;
-    result.worst_cell = c.worst >= 0 ? layout.cell_of_unknown[static_cast<std::size_t>(c.worst)] : CellIndex{};
+    result.worst_cell =
+        c.worst >= 0 ? layout.cell_of_unknown[static_cast<std::size_t>(c.worst)] : CellIndex{};
   };
 
   system.assemble(head);
@@ -68,7 +72,8 @@ NewtonResult solve_newton(FlowSystem& system, LinearSolver& linear, const Newton
     ++result.iterations;
     result.linear_iterations += linear.last_iterations();
     for (int u = 0; u < n; ++u)
-      base[static_cast<std::size_t>(u)] = head[static_cast<std::size_t>(layout.cell_of_unknown[static_cast<std::size_t>(u)].value)];
+      base[static_cast<std::size_t>(u)] =
+          head[static_cast<std::size_t>(layout.cell_of_unknown[static_cast<std::size_t>(u)].value)];
 
     // Backtrack while the residual norm does not fall (Armijo condition); once the residual
     // already meets the tolerance the full step is taken.

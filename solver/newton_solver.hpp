@@ -2,6 +2,7 @@
 // Newton-Raphson on the cell mass balances with a backtracking line search on the residual
 // norm. It reports a result; the time controller decides what to do with it.
 #include <span>
+#include <vector>
 
 #include "solver/flow_system.hpp"
 #include "solver/linear_solver.hpp"
@@ -16,7 +17,7 @@ struct NewtonSettings {
 
 struct NewtonResult {
   bool converged = false;
-  int iterations = 0;         ///< linear solves
+  int iterations = 0;  ///< linear solves
   int linear_iterations = 0;
   double max_head_change = 0.0;  ///< L, last update
   double max_imbalance = 0.0;    ///< -, largest |R_i| over the throughflow
@@ -25,11 +26,18 @@ struct NewtonResult {
   bool linear_failure = false;
 };
 
+/// Newton's work vectors, kept between calls so the time loop does not allocate; the last
+/// update also starts the next iterative linear solve.
+struct NewtonWorkspace {
+  Eigen::VectorXd update;    ///< L per unknown
+  std::vector<double> base;  ///< L per unknown, heads before the update
+};
+
 /// Converged when max |dh| < head_tolerance, max |R_i| <= flow_tolerance * throughflow and
 /// |sum R_i| <= 0.01 flow_tolerance * throughflow (the last closes the step's budget to
 /// 1e-6 percent with the default tolerance). head (per grid cell) holds the start on entry
 /// and the last iterate on return; the system must have its step set.
 NewtonResult solve_newton(FlowSystem& system, LinearSolver& linear, const NewtonSettings& settings,
-                          std::span<double> head);
+                          std::span<double> head, NewtonWorkspace& work);
 
 }  // namespace aquiledger

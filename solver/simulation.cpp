@@ -38,15 +38,15 @@ std::vector<double> steady_guess(const Model& model, const SystemLayout& layout)
   for (std::size_t i = 0; i < n; ++i) {
     if (!model.grid.is_active(CellIndex{static_cast<std::int32_t>(i)})) continue;
     const double full = std::isfinite(layout.full_thickness[i]) ? layout.full_thickness[i]
-                                                                 : reference_thickness_without_top;
+                                                                : reference_thickness_without_top;
     const double mid = model.aquifer.bottom[i] + 0.5 * full;
     head[i] = count > 0 ? std::max(sum / count, mid) : model.aquifer.bottom[i] + full;
   }
   return head;
 }
 
-std::string describe_failure(const Model& model, std::size_t period, int step, double time, double dt,
-                             int cutbacks, const NewtonResult& nr) {
+std::string describe_failure(const Model& model, std::size_t period, int step, double time,
+                             double dt, int cutbacks, const NewtonResult& nr) {
   std::ostringstream s;
   s << "period " << period + 1 << " (\"" << model.periods[period].name << "\"), step " << step
     << ", time " << time << " (dt " << dt << " after " << cutbacks << " cutbacks): ";
@@ -68,7 +68,8 @@ RunResult run_simulation(const Model& model, SimulationObserver& observer) {
   omp_set_num_threads(model.solver.threads > 0 ? model.solver.threads : omp_get_num_procs());
   const SystemLayout layout = make_system_layout(model);
   FlowSystem system(model, layout);
-  LinearSolverChoice choice = choose_linear_solver(model.solver.linear, system.symmetric(), system.n_unknowns());
+  LinearSolverChoice choice =
+      choose_linear_solver(model.solver.linear, system.symmetric(), system.n_unknowns());
   LinearSolver& linear = *choice.solver;
   RunResult result;
   result.linear_solver = linear.name();
@@ -90,19 +91,22 @@ RunResult run_simulation(const Model& model, SimulationObserver& observer) {
     return finish(result);
   };
 
+  NewtonWorkspace work;
   const auto n = static_cast<std::size_t>(model.grid.n_cells());
   std::vector<double> head(n, std::nan(""));
   if (model.initial.steady) {
     head = steady_guess(model, layout);
     apply_fixed_heads(model, 0, head);
     system.set_step(0, true, 1.0, head);
-    const NewtonResult nr = solve_newton(system, linear, settings, head);
+    const NewtonResult nr = solve_newton(system, linear, settings, head, work);
     result.newton_iterations += nr.iterations;
     if (!nr.converged)
-      return fail(0, 0, 0.0, "initial steady state: " + describe_failure(model, 0, 0, 0.0, 0.0, 0, nr));
+      return fail(0, 0, 0.0,
+                  "initial steady state: " + describe_failure(model, 0, 0, 0.0, 0.0, 0, nr));
   } else {
     for (std::size_t i = 0; i < n; ++i)
-      if (model.grid.is_active(CellIndex{static_cast<std::int32_t>(i)})) head[i] = model.initial.head[i];
+      if (model.grid.is_active(CellIndex{static_cast<std::int32_t>(i)}))
+        head[i] = model.initial.head[i];
   }
   observer.initial_state(head);
 
@@ -124,12 +128,13 @@ RunResult run_simulation(const Model& model, SimulationObserver& observer) {
         std::copy(head.begin(), head.end(), head_old.begin());
         std::copy(head.begin(), head.end(), trial.begin());
         system.set_step(p, period.steady, dt, head_old);
-        const NewtonResult nr = solve_newton(system, linear, settings, trial);
+        const NewtonResult nr = solve_newton(system, linear, settings, trial, work);
         result.newton_iterations += nr.iterations;
         if (!nr.converged) {
           // A steady step has no length to cut.
           if (period.steady || cutbacks >= model.solver.max_cutbacks)
-            return fail(p, step, time + dt, describe_failure(model, p, step, time + dt, dt, cutbacks, nr));
+            return fail(p, step, time + dt,
+                        describe_failure(model, p, step, time + dt, dt, cutbacks, nr));
           dt_try = 0.5 * dt;
           ++cutbacks;
           ++result.cutbacks;

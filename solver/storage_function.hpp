@@ -30,10 +30,13 @@ struct StoredWater {
 /// dry cell keeps a storage term. Switching: S max(h - top, 0) + Sy (min(h, top) - bottom).
 inline StoredWater stored_water(const CellStorage& s, double h) {
   switch (s.condition) {
-    case Condition::confined: return {s.storativity * (h - s.top), 0.0};
-    case Condition::water_table: return {0.0, s.specific_yield * (h - s.bottom)};
+    case Condition::confined:
+      return {s.storativity * (h - s.top), 0.0};
+    case Condition::water_table:
+      return {0.0, s.specific_yield * (h - s.bottom)};
     case Condition::switching:
-      return {s.storativity * std::max(h - s.top, 0.0), s.specific_yield * (std::min(h, s.top) - s.bottom)};
+      return {s.storativity * std::max(h - s.top, 0.0),
+              s.specific_yield * (std::min(h, s.top) - s.bottom)};
   }
   return {};
 }
@@ -42,8 +45,10 @@ inline StoredWater stored_water(const CellStorage& s, double h) {
 /// changes of large heads lose no digits to cancellation.
 inline StoredWater stored_water_change(const CellStorage& s, double h_old, double h_new) {
   switch (s.condition) {
-    case Condition::confined: return {s.storativity * (h_new - h_old), 0.0};
-    case Condition::water_table: return {0.0, s.specific_yield * (h_new - h_old)};
+    case Condition::confined:
+      return {s.storativity * (h_new - h_old), 0.0};
+    case Condition::water_table:
+      return {0.0, s.specific_yield * (h_new - h_old)};
     case Condition::switching:
       return {s.storativity * (std::max(h_new - s.top, 0.0) - std::max(h_old - s.top, 0.0)),
               s.specific_yield * (std::min(h_new, s.top) - std::min(h_old, s.top))};
@@ -54,9 +59,12 @@ inline StoredWater stored_water_change(const CellStorage& s, double h_old, doubl
 /// dW/dh (-). At the kink h = top of a switching cell the confined (upper) slope is taken.
 inline double stored_water_slope(const CellStorage& s, double h) {
   switch (s.condition) {
-    case Condition::confined: return s.storativity;
-    case Condition::water_table: return s.specific_yield;
-    case Condition::switching: return h >= s.top ? s.storativity : s.specific_yield;
+    case Condition::confined:
+      return s.storativity;
+    case Condition::water_table:
+      return s.specific_yield;
+    case Condition::switching:
+      return h >= s.top ? s.storativity : s.specific_yield;
   }
   return 0.0;
 }
@@ -69,7 +77,8 @@ inline CellStorage cell_storage(const Model& model, CellIndex c) {
   s.condition = aq.condition;
   s.bottom = aq.bottom[i];
   s.top = i < aq.top.size() ? aq.top[i] : 0.0;
-  if (aq.condition != Condition::water_table) s.storativity = aq.specific_storage[i] * (s.top - s.bottom);
+  if (aq.condition != Condition::water_table)
+    s.storativity = aq.specific_storage[i] * (s.top - s.bottom);
   if (aq.condition != Condition::confined) s.specific_yield = aq.specific_yield[i];
   return s;
 }

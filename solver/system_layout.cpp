@@ -37,7 +37,8 @@ SystemLayout make_system_layout(const Model& model) {
   return layout;
 }
 
-ValueSlope saturated_thickness(const Model& model, const SystemLayout& layout, CellIndex c, double head) {
+ValueSlope saturated_thickness(const Model& model, const SystemLayout& layout, CellIndex c,
+                               double head) {
   const auto i = static_cast<std::size_t>(c.value);
   const Aquifer& aq = model.aquifer;
   const double eps = layout.smoothing_length[i];

@@ -13,7 +13,8 @@ inline std::vector<double> step_end_times(const Period& p, double start) {
   const int n = std::max(p.steps, 1);
   std::vector<double> ends(static_cast<std::size_t>(n));
   const double g = p.growth;
-  double dt = std::abs(g - 1.0) < 1e-12 ? p.length / n : p.length * (g - 1.0) / (std::pow(g, n) - 1.0);
+  double dt =
+      std::abs(g - 1.0) < 1e-12 ? p.length / n : p.length * (g - 1.0) / (std::pow(g, n) - 1.0);
   double t = start;
   for (int k = 0; k < n; ++k) {
     t += dt;

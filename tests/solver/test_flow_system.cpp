@@ -2,7 +2,6 @@
 // switching model whose cells sit in every regime (confined, water table, both smoothing
 // intervals, well-reduction zone) with every kind of stress.
 #include <catch2/catch.hpp>
-
 #include <cmath>
 
 #include "solver/flow_system.hpp"
@@ -89,7 +88,8 @@ double jacobian_error(const Model& m, bool steady) {
   double worst = 0.0;
   const double h = 1e-7;
   for (int u = 0; u < sys.n_unknowns(); ++u) {
-    const auto i = static_cast<std::size_t>(layout.cell_of_unknown[static_cast<std::size_t>(u)].value);
+    const auto i =
+        static_cast<std::size_t>(layout.cell_of_unknown[static_cast<std::size_t>(u)].value);
     const double h0 = head[i];
     head[i] = h0 + h;
     sys.assemble(head);

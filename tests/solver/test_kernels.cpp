@@ -1,7 +1,6 @@
 // Pointwise kernels: storage function, face conductance, saturated thickness, time steps.
 // Every derivative is checked against a central finite difference of its own function.
 #include <catch2/catch.hpp>
-
 #include <cmath>
 
 #include "solver/face_conductance.hpp"
@@ -31,7 +30,9 @@ TEST_CASE("storage function W(h): values, exact changes, slope", "[kernels]") {
   for (Condition c : {Condition::confined, Condition::water_table, Condition::switching}) {
     s.condition = c;
     for (double h : {5.0, 12.0, 29.0, 31.0, 40.0}) {
-      const double fd = (stored_water(s, h + fd_step).total() - stored_water(s, h - fd_step).total()) / (2 * fd_step);
+      const double fd =
+          (stored_water(s, h + fd_step).total() - stored_water(s, h - fd_step).total()) /
+          (2 * fd_step);
       // Rounding of W ~ 3 over a difference 2e-6 leaves ~1e-9 absolute.
       CHECK(stored_water_slope(s, h) == Approx(fd).margin(1e-8));
     }
@@ -48,9 +49,13 @@ TEST_CASE("face conductance: harmonic mean and upstream derivatives", "[kernels]
   auto thickness = [](double h) { return smooth_ramp(h - 1.0, 0.5); };
   for (auto [hi, hj] : {std::pair{3.0, 2.0}, {2.0, 3.0}, {1.2, 1.4}, {1.3, 1.1}}) {
     const FaceFlow f = upstream_face_flow(0.7, hi, thickness(hi), hj, thickness(hj));
-    auto q = [&](double a, double b) { return upstream_face_flow(0.7, a, thickness(a), b, thickness(b)).q; };
-    CHECK(f.dq_dhi == Approx((q(hi + fd_step, hj) - q(hi - fd_step, hj)) / (2 * fd_step)).epsilon(1e-6));
-    CHECK(f.dq_dhj == Approx((q(hi, hj + fd_step) - q(hi, hj - fd_step)) / (2 * fd_step)).epsilon(1e-6));
+    auto q = [&](double a, double b) {
+      return upstream_face_flow(0.7, a, thickness(a), b, thickness(b)).q;
+    };
+    CHECK(f.dq_dhi ==
+          Approx((q(hi + fd_step, hj) - q(hi - fd_step, hj)) / (2 * fd_step)).epsilon(1e-6));
+    CHECK(f.dq_dhj ==
+          Approx((q(hi, hj + fd_step) - q(hi, hj - fd_step)) / (2 * fd_step)).epsilon(1e-6));
     // The upstream cell's thickness carries the flow (physics decisions).
     CHECK(f.q == Approx(0.7 * thickness(std::max(hi, hj)).value * (hj - hi)));
   }

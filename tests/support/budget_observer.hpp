@@ -3,7 +3,6 @@
 // and checks each step's budget closure, the contract's promise that default tolerances
 // close every converged step to better than 1e-6 percent (model format, "Rules in detail").
 #include <catch2/catch.hpp>
-
 #include <cmath>
 #include <vector>
 
@@ -24,7 +23,8 @@ class BudgetObserver : public SimulationObserver {
   void step_done(const StepInfo& info, std::span<const double> head_old,
                  std::span<const double> head_new) override {
     steps.push_back(info);
-    const WaterBudget b = step_budget(model_, layout_, info.period, info.steady, info.dt, head_old, head_new);
+    const WaterBudget b =
+        step_budget(model_, layout_, info.period, info.steady, info.dt, head_old, head_new);
     const double d = b.discrepancy_percent();
     max_discrepancy = std::max(max_discrepancy, std::abs(d));
     CHECK(std::abs(d) < 1e-6);
@@ -43,7 +43,7 @@ class BudgetObserver : public SimulationObserver {
   std::vector<std::vector<double>> heads;
   std::vector<double> last_head;
   std::vector<std::size_t> periods_done;
-  WaterBudget cumulative;  ///< volumes (L3) since the start
+  WaterBudget cumulative;        ///< volumes (L3) since the start
   double max_discrepancy = 0.0;  ///< percent
 
  private:

@@ -38,8 +38,6 @@ inline std::vector<double> geometric_spacing(double centre, double growth, doubl
 inline Model make_model(std::vector<double> dx, std::vector<double> dy, const AquiferSpec& a) {
   Model m;
   m.title = "test";
-  const double height = [&] { double s = 0; for (double h : dy) s += h; return s; }();
-  (void)height;
   m.grid = RectilinearGrid(std::move(dx), std::move(dy), 0.0, 0.0);
   const auto n = static_cast<std::size_t>(m.grid.n_cells());
   Aquifer& aq = m.aquifer;
@@ -54,7 +52,8 @@ inline Model make_model(std::vector<double> dx, std::vector<double> dy, const Aq
   return m;
 }
 
-inline void add_period(Model& m, double length, int steps, double growth = 1.0, bool steady = false) {
+inline void add_period(Model& m, double length, int steps, double growth = 1.0,
+                       bool steady = false) {
   Period p;
   p.name = "period " + std::to_string(m.periods.size() + 1);
   p.length = length;
@@ -73,7 +72,8 @@ inline void add_well(Model& m, int row, int col, std::vector<double> rates) {
   w.y = m.grid.y_center(row);
   std::vector<std::vector<double>> tables;
   std::vector<std::uint32_t> map;
-  for (double r : rates) tables.push_back({r}), map.push_back(static_cast<std::uint32_t>(map.size()));
+  for (double r : rates)
+    tables.push_back({r}), map.push_back(static_cast<std::uint32_t>(map.size()));
   w.rate = rates.size() == 1 ? PeriodValues(rates[0]) : PeriodValues(tables, map);
   m.wells.push_back(w);
 }
@@ -94,7 +94,8 @@ inline void add_recharge(Model& m, std::vector<double> rates) {
     if (m.grid.is_active(CellIndex{i})) r.cells.push_back(CellIndex{i});
   std::vector<std::vector<double>> tables;
   std::vector<std::uint32_t> map;
-  for (double v : rates) tables.push_back({v}), map.push_back(static_cast<std::uint32_t>(map.size()));
+  for (double v : rates)
+    tables.push_back({v}), map.push_back(static_cast<std::uint32_t>(map.size()));
   r.rate = rates.size() == 1 ? PeriodValues(rates[0]) : PeriodValues(tables, map);
   m.recharges.push_back(r);
 }
