@@ -1,9 +1,8 @@
 // Mass balance of whole runs with every stress active at once, accounted from the parts
 // (storage function, face flows, per-feature stress flows) independently of the solver's
 // residual.
-#include <catch2/catch.hpp>
-
 #include <algorithm>
+#include <catch2/catch.hpp>
 #include <cmath>
 #include <vector>
 
@@ -58,16 +57,19 @@ Model every_stress_model() {
   std::vector<CellIndex> river_cells = column(8);
   m.rivers.push_back(River{"creek", river_cells, std::vector<double>(river_cells.size(), 100.0),
                            PeriodValues(19.0), PeriodValues(18.5), PeriodValues(30.0)});
-  m.drains.push_back(Drain{"tiles", {g.cell(0, 3), g.cell(0, 4), g.cell(0, 5), g.cell(0, 6)},
-                           PeriodValues(20.5), PeriodValues(50.0)});
-  m.external_heads.push_back(ExternalHead{"regional", column(11), PeriodValues(22.0), PeriodValues(20.0)});
+  m.drains.push_back(Drain{"tiles",
+                           {g.cell(0, 3), g.cell(0, 4), g.cell(0, 5), g.cell(0, 6)},
+                           PeriodValues(20.5),
+                           PeriodValues(50.0)});
+  m.external_heads.push_back(
+      ExternalHead{"regional", column(11), PeriodValues(22.0), PeriodValues(20.0)});
   std::vector<CellIndex> meadow;
   for (int c = 1; c < 8; ++c) {
     meadow.push_back(g.cell(8, c));
     meadow.push_back(g.cell(9, c));
   }
-  m.evapotranspiration.push_back(Evapotranspiration{"meadow", meadow, PeriodValues(21.0), PeriodValues(2e-3),
-                                                    PeriodValues(2.0)});
+  m.evapotranspiration.push_back(Evapotranspiration{"meadow", meadow, PeriodValues(21.0),
+                                                    PeriodValues(2e-3), PeriodValues(2.0)});
   m.leakage = Leakage{"leakage", all_cells(m), PeriodValues(23.0), PeriodValues(1e-4)};
   // Compressibility route: the elastic storage splits into skeleton and water shares.
   m.aquifer.compressibility = Compressibility{};
@@ -96,7 +98,8 @@ TEST_CASE("budget closes at every step with every stress active", "[stress_budge
   double worst = 0.0;
   bool disconnected = false, drained = false, confined = false;
   for (const auto& step : recorder.steps) {
-    for (CellIndex c : m.rivers[0].cells) disconnected |= step.head[static_cast<std::size_t>(c.value)] < 18.5;
+    for (CellIndex c : m.rivers[0].cells)
+      disconnected |= step.head[static_cast<std::size_t>(c.value)] < 18.5;
     for (CellIndex c : layout.cell_of_unknown) {
       drained |= step.head[static_cast<std::size_t>(c.value)] < 20.0;
       confined |= step.head[static_cast<std::size_t>(c.value)] > 20.0;
@@ -107,9 +110,15 @@ TEST_CASE("budget closes at every step with every stress active", "[stress_budge
     if (!step.info.steady) {
       for (CellIndex c : layout.cell_of_unknown) {
         const auto i = static_cast<std::size_t>(c.value);
-        const double release = -layout.area[i] * stored_water_change(cell_storage(m, c), step.head_old[i], step.head[i]).total() / step.info.dt;
+        const double release =
+            -layout.area[i] *
+            stored_water_change(cell_storage(m, c), step.head_old[i], step.head[i]).total() /
+            step.info.dt;
         total.add(release);
-        elastic_net += -layout.area[i] * stored_water_change(cell_storage(m, c), step.head_old[i], step.head[i]).elastic / step.info.dt;
+        elastic_net +=
+            -layout.area[i] *
+            stored_water_change(cell_storage(m, c), step.head_old[i], step.head[i]).elastic /
+            step.info.dt;
         if (std::abs(release) > 0.0) active_steps.back() = 1;
       }
     }
@@ -119,8 +128,10 @@ TEST_CASE("budget closes at every step with every stress active", "[stress_budge
       const auto i = static_cast<std::size_t>(f.i.value), j = static_cast<std::size_t>(f.j.value);
       if (layout.fixed[i] == layout.fixed[j]) continue;
       const double into_i = face_flow(m, layout, f.i, f.j, f.factor, step.head[i], step.head[j]).q;
-      if (layout.fixed[j]) net[j] += into_i;
-      else net[i] -= into_i;
+      if (layout.fixed[j])
+        net[j] += into_i;
+      else
+        net[i] -= into_i;
     }
     for (double q : net) total.add(q);
     // Every other stress, feature by feature.
@@ -135,27 +146,35 @@ TEST_CASE("budget closes at every step with every stress active", "[stress_budge
     // Discrepancy as defined by the budget contract: 100 (in - out) / ((in + out) / 2).
     const double discrepancy = 100.0 * (total.in - total.out) / (0.5 * (total.in + total.out));
     worst = std::max(worst, std::abs(discrepancy));
-    INFO("period " << step.info.period << " step " << step.info.step << " discrepancy " << discrepancy);
+    INFO("period " << step.info.period << " step " << step.info.step << " discrepancy "
+                   << discrepancy);
     // Contract (model-format "Rules in detail"): default tolerances close the budget of
     // every converged step to better than 1e-6 percent.
     CHECK(std::abs(discrepancy) < 1e-6);
 
     // The budget of record (postproc) agrees with this independent accounting, and its
     // per-feature rows add up to its component columns.
-    const WaterBudget b = step_budget(m, layout, step.info.period, step.info.steady, step.info.dt, step.head_old, step.head);
+    const WaterBudget b = step_budget(m, layout, step.info.period, step.info.steady, step.info.dt,
+                                      step.head_old, step.head);
     CHECK(std::abs(b.discrepancy_percent()) < 1e-6);
     CHECK(b.total_in() == Approx(total.in).epsilon(1e-12));
     CHECK(b.total_out() == Approx(total.out).epsilon(1e-12));
-    const double skeleton = b[BudgetComponent::storage_skeleton].in - b[BudgetComponent::storage_skeleton].out;
-    const double water = b[BudgetComponent::storage_water].in - b[BudgetComponent::storage_water].out;
+    const double skeleton =
+        b[BudgetComponent::storage_skeleton].in - b[BudgetComponent::storage_skeleton].out;
+    const double water =
+        b[BudgetComponent::storage_water].in - b[BudgetComponent::storage_water].out;
     CHECK(skeleton + water == Approx(elastic_net).margin(1e-12 * total.in));
     CHECK(skeleton == Approx(0.6 * (skeleton + water)).margin(1e-12 * total.in));
     CHECK(b[BudgetComponent::storage_elastic].in + b[BudgetComponent::storage_elastic].out == 0.0);
     const std::pair<FeatureKind, BudgetComponent> kinds[] = {
-        {FeatureKind::well, BudgetComponent::wells}, {FeatureKind::fixed_head, BudgetComponent::fixed_head},
-        {FeatureKind::recharge, BudgetComponent::recharge}, {FeatureKind::river, BudgetComponent::river},
-        {FeatureKind::drain, BudgetComponent::drain}, {FeatureKind::external_head, BudgetComponent::external_head},
-        {FeatureKind::evapotranspiration, BudgetComponent::evapotranspiration}, {FeatureKind::leakage, BudgetComponent::leakage}};
+        {FeatureKind::well, BudgetComponent::wells},
+        {FeatureKind::fixed_head, BudgetComponent::fixed_head},
+        {FeatureKind::recharge, BudgetComponent::recharge},
+        {FeatureKind::river, BudgetComponent::river},
+        {FeatureKind::drain, BudgetComponent::drain},
+        {FeatureKind::external_head, BudgetComponent::external_head},
+        {FeatureKind::evapotranspiration, BudgetComponent::evapotranspiration},
+        {FeatureKind::leakage, BudgetComponent::leakage}};
     for (const auto& [kind, component] : kinds) {
       InOut sum;
       for (std::size_t k = 0; k < features.size(); ++k)
@@ -201,7 +220,8 @@ TEST_CASE("Jacobian matches finite differences along a run with every stress", "
     const Eigen::MatrixXd a(sys.matrix());
     const double scale = a.cwiseAbs().maxCoeff();
     for (int u = 0; u < sys.n_unknowns(); ++u) {
-      const auto i = static_cast<std::size_t>(layout.cell_of_unknown[static_cast<std::size_t>(u)].value);
+      const auto i =
+          static_cast<std::size_t>(layout.cell_of_unknown[static_cast<std::size_t>(u)].value);
       if (std::abs(head[i] - m.aquifer.top[i]) < 1e-6) continue;
       const double h0 = head[i], s = 1e-7;
       head[i] = h0 + s;
