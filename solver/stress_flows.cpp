@@ -47,10 +47,9 @@ void visit_stress_flows(const Model& model, const SystemLayout& layout, std::siz
       const CellIndex c = river.cells[j];
       if (!carries_stress(c)) continue;
       visit(k, c,
-            WithdrawalFlow{river_flow(head[at(c)], river.stage.at(period, j),
-                                      river.bed_bottom.at(period, j),
-                                      river.conductance.at(period, j),
-                                      layout.smoothing_length[at(c)])});
+            WithdrawalFlow{
+                river_flow(head[at(c)], river.stage.at(period, j), river.bed_bottom.at(period, j),
+                           river.conductance.at(period, j), layout.smoothing_length[at(c)])});
     }
     ++k;
   }
@@ -110,14 +109,22 @@ void visit_stress_flows(const Model& model, const SystemLayout& layout, std::siz
 
 const char* feature_kind_label(FeatureKind kind) {
   switch (kind) {
-    case FeatureKind::well: return "well";
-    case FeatureKind::fixed_head: return "fixed_head";
-    case FeatureKind::recharge: return "recharge";
-    case FeatureKind::river: return "river";
-    case FeatureKind::drain: return "drain";
-    case FeatureKind::external_head: return "external_head";
-    case FeatureKind::evapotranspiration: return "evapotranspiration";
-    case FeatureKind::leakage: return "leakage";
+    case FeatureKind::well:
+      return "well";
+    case FeatureKind::fixed_head:
+      return "fixed_head";
+    case FeatureKind::recharge:
+      return "recharge";
+    case FeatureKind::river:
+      return "river";
+    case FeatureKind::drain:
+      return "drain";
+    case FeatureKind::external_head:
+      return "external_head";
+    case FeatureKind::evapotranspiration:
+      return "evapotranspiration";
+    case FeatureKind::leakage:
+      return "leakage";
   }
   return "unknown";
 }

@@ -32,7 +32,9 @@ std::vector<FeatureRef> list_features(const Model& model);
 struct FeatureFlow {
   double in = 0.0;
   double out = 0.0;
-  double shortfall = 0.0;  ///< L3/T of withdrawal not delivered because the cell ran dry
+  /// L3/T of withdrawal not delivered because the cell ran dry (wells, and recharge with a
+  /// negative rate, which is reduced the same way)
+  double shortfall = 0.0;
 };
 
 /// Adds each stress's flow into the aquifer (L3/T) and its head derivative (L2/T) to q and

@@ -13,12 +13,12 @@ namespace aquiledger::stress_tests {
 /// Uniform aquifer properties of a test model.
 struct UniformAquifer {
   Condition condition = Condition::confined;
-  double top = 0.0;               ///< L
-  double bottom = -10.0;          ///< L
-  double k = 10.0;                ///< L/T
-  double specific_storage = 1e-5; ///< 1/L
-  double specific_yield = 0.2;    ///< -
-  double initial_head = 0.0;      ///< L
+  double top = 0.0;                ///< L
+  double bottom = -10.0;           ///< L
+  double k = 10.0;                 ///< L/T
+  double specific_storage = 1e-5;  ///< 1/L
+  double specific_yield = 0.2;     ///< -
+  double initial_head = 0.0;       ///< L
 };
 
 /// A grid of uniform widths dx (L) by dy (L) with the given aquifer and one period.
@@ -76,7 +76,9 @@ class RecordingObserver : public SimulationObserver {
   std::vector<double> initial;
   std::vector<Step> steps;
 
-  void initial_state(std::span<const double> head) override { initial.assign(head.begin(), head.end()); }
+  void initial_state(std::span<const double> head) override {
+    initial.assign(head.begin(), head.end());
+  }
   void step_done(const StepInfo& info, std::span<const double> head_old,
                  std::span<const double> head_new) override {
     steps.push_back({info, {head_old.begin(), head_old.end()}, {head_new.begin(), head_new.end()}});

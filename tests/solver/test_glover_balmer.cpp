@@ -1,11 +1,10 @@
 // Stream depletion by a well near a straight, fully penetrating river held at its stage
 // (Glover and Balmer, 1954), with the drawdown of the image-well solution.
-#include <catch2/catch.hpp>
-
 #include <algorithm>
 #include <boost/math/constants/constants.hpp>
 #include <boost/math/special_functions/erf.hpp>
 #include <boost/math/special_functions/expint.hpp>
+#include <catch2/catch.hpp>
 #include <cmath>
 #include <vector>
 
@@ -24,7 +23,8 @@ constexpr double storativity = 1e-4;      ///< -
 constexpr double rate = 1000.0;           ///< L3/T
 constexpr double distance = 200.0;        ///< L, well to river line
 constexpr double initial_head = 20.0;     ///< L
-const std::vector<int> offsets{-15, -10, -5, 3, 6, 10, 15};  ///< observation columns from the well (coarse)
+const std::vector<int> offsets{-15, -10, -5, 3,
+                               6,   10,  15};  ///< observation columns from the well (coarse)
 
 /// The river (west column, 10 m wide; its centre line is the river line), 10 m columns to
 /// 400 m east of it, then growing by 10 % to 10 km; rows 10 m at the well growing by 10 % to
@@ -35,7 +35,7 @@ Model river_model(int split, const Period& period) {
   a.condition = Condition::confined;
   a.top = 0.0;
   a.bottom = -10.0;
-  a.k = 10.0;  // T = 100 m2/d
+  a.k = 10.0;                 // T = 100 m2/d
   a.specific_storage = 1e-5;  // S = 1e-4
   a.initial_head = initial_head;
   std::vector<double> coarse_dx(40, 10.0);
@@ -71,7 +71,7 @@ struct RiverRun {
   std::vector<StepInfo> steps;
   std::vector<double> depletion;              ///< L3/T, river to aquifer, per step
   std::vector<std::vector<double>> drawdown;  ///< L, per step, per offset
-  std::vector<double> x;                      ///< L, distance of each observation from the river line
+  std::vector<double> x;  ///< L, distance of each observation from the river line
 };
 
 RiverRun run_river(int split, const Period& period) {
@@ -93,7 +93,8 @@ RiverRun run_river(int split, const Period& period) {
     run.depletion.push_back(flows[river_feature].in - flows[river_feature].out);
     std::vector<double> s;
     for (int offset : offsets)
-      s.push_back(initial_head - step.head[static_cast<std::size_t>(m.grid.cell(well_row, well_col + offset * split).value)]);
+      s.push_back(initial_head - step.head[static_cast<std::size_t>(
+                                     m.grid.cell(well_row, well_col + offset * split).value)]);
     run.drawdown.push_back(s);
   }
   return run;
@@ -101,10 +102,12 @@ RiverRun run_river(int split, const Period& period) {
 
 }  // namespace
 
-TEST_CASE("steady drawdown beside a river converges to the image-well solution", "[glover_balmer]") {
+TEST_CASE("steady drawdown beside a river converges to the image-well solution",
+          "[glover_balmer]") {
   const double pi = boost::math::constants::pi<double>();
   const RiverRun coarse = run_river(1, Period{"steady", 1.0, 1, 1.0, true});
-  const RiverRun fine = run_river(3, Period{"steady", 1.0, 1, 1.0, true});  // every cell split in three
+  const RiverRun fine =
+      run_river(3, Period{"steady", 1.0, 1, 1.0, true});  // every cell split in three
   // At steady state the river supplies the whole withdrawal (mass balance).
   CHECK(std::abs(coarse.depletion[0] - rate) <= 1e-8 * rate);
   double worst = 0.0;
@@ -115,7 +118,8 @@ TEST_CASE("steady drawdown beside a river converges to the image-well solution",
     const double r1 = std::abs(coarse.x[k] - distance), r2 = coarse.x[k] + distance;
     const double exact = rate / (2.0 * pi * transmissivity) * std::log(r2 / r1);
     const double e_coarse = coarse.drawdown[0][k] - exact, e_fine = fine.drawdown[0][k] - exact;
-    INFO("x " << coarse.x[k] << " exact " << exact << " coarse error " << e_coarse << " fine error " << e_fine);
+    INFO("x " << coarse.x[k] << " exact " << exact << " coarse error " << e_coarse << " fine error "
+              << e_fine);
     // Second-order five-point scheme: refining by 3 divides the error by about 9; the no-flow
     // edges 100 km away add (d / L)^2 Q / (2 pi T) ~ 1e-5 m, below either error.
     CHECK(e_coarse / e_fine > 6.0);
@@ -132,7 +136,8 @@ TEST_CASE("river depletion and drawdown near a river follow Glover-Balmer", "[gl
   // 2 days in 120 steps growing by 6 %.
   const RiverRun run = run_river(1, Period{"pumping", 2.0, 120, 1.06, false});
   const RiverRun steady = run_river(1, Period{"steady", 1.0, 1, 1.0, true});
-  const double a = distance * distance * storativity / (4.0 * transmissivity);  // T, d^2 S / (4 T) = 0.01 d
+  const double a =
+      distance * distance * storativity / (4.0 * transmissivity);  // T, d^2 S / (4 T) = 0.01 d
   double worst_depletion = 0.0, worst_drawdown = 0.0;
   for (std::size_t n = 0; n < run.steps.size(); ++n) {
     const double t = run.steps[n].time, dt = run.steps[n].dt;
@@ -142,7 +147,8 @@ TEST_CASE("river depletion and drawdown near a river follow Glover-Balmer", "[gl
     // Glover and Balmer (1954): depletion Q erfc(sqrt(d^2 S / (4 T t))); its rate of change
     // Q / sqrt(pi) sqrt(a) t^-3/2 exp(-a / t).
     const double expected = rate * boost::math::erfc(std::sqrt(a / t));
-    const double change = rate / std::sqrt(pi) * std::sqrt(a) * std::pow(t, -1.5) * std::exp(-a / t);
+    const double change =
+        rate / std::sqrt(pi) * std::sqrt(a) * std::pow(t, -1.5) * std::exp(-a / t);
     // Error budget: the implicit step lags about half a step behind (0.5 dt dD/dt, leading
     // term of the backward Euler error).
     INFO("t " << t << " depletion " << run.depletion[n] << " Glover-Balmer " << expected);
@@ -153,12 +159,17 @@ TEST_CASE("river depletion and drawdown near a river follow Glover-Balmer", "[gl
       // the mirror point across the river line; d/dt of Q/(4 pi T) E1(r^2 S / (4 T t)) is
       // Q/(4 pi T) exp(-r^2 S / (4 T t)) / t.
       const double r1 = std::abs(run.x[k] - distance), r2 = run.x[k] + distance;
-      auto theis = [&](double r) { return boost::math::expint(1, r * r * storativity / (4.0 * transmissivity * t)); };
-      auto theis_rate = [&](double r) { return std::exp(-r * r * storativity / (4.0 * transmissivity * t)) / t; };
+      auto theis = [&](double r) {
+        return boost::math::expint(1, r * r * storativity / (4.0 * transmissivity * t));
+      };
+      auto theis_rate = [&](double r) {
+        return std::exp(-r * r * storativity / (4.0 * transmissivity * t)) / t;
+      };
       const double exact = rate / (4.0 * pi * transmissivity) * (theis(r1) - theis(r2));
       // Error budget: half-step lag plus the grid's error at this point, taken from the
       // steady run on the same grid (second order, see the steady case).
-      const double lag = 0.5 * dt * rate / (4.0 * pi * transmissivity) * std::abs(theis_rate(r1) - theis_rate(r2));
+      const double lag =
+          0.5 * dt * rate / (4.0 * pi * transmissivity) * std::abs(theis_rate(r1) - theis_rate(r2));
       const double steady_exact = rate / (2.0 * pi * transmissivity) * std::log(r2 / r1);
       const double tolerance = lag + std::abs(steady.drawdown[0][k] - steady_exact);
       INFO("x " << run.x[k] << " drawdown " << run.drawdown[n][k] << " image wells " << exact);
@@ -166,5 +177,6 @@ TEST_CASE("river depletion and drawdown near a river follow Glover-Balmer", "[gl
       worst_drawdown = std::max(worst_drawdown, std::abs(run.drawdown[n][k] - exact));
     }
   }
-  WARN("Glover-Balmer: worst depletion error " << worst_depletion << " Q, worst drawdown error " << worst_drawdown << " m");
+  WARN("Glover-Balmer: worst depletion error " << worst_depletion << " Q, worst drawdown error "
+                                               << worst_drawdown << " m");
 }

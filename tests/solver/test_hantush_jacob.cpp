@@ -1,13 +1,12 @@
 // Drawdown around a well in a leaky confined aquifer (Hantush and Jacob, 1955), with the
 // aquitard leakage of the model's [leakage] section and the source head held at the
 // initial head.
-#include <catch2/catch.hpp>
-
 #include <algorithm>
 #include <boost/math/constants/constants.hpp>
 #include <boost/math/quadrature/exp_sinh.hpp>
 #include <boost/math/special_functions/bessel.hpp>
 #include <boost/math/special_functions/expint.hpp>
+#include <catch2/catch.hpp>
 #include <cmath>
 #include <limits>
 #include <vector>
@@ -29,11 +28,11 @@ double leaky_well_function(double u, double r_over_b) {
   return integrator.integrate(f, u, std::numeric_limits<double>::infinity());
 }
 
-constexpr double transmissivity = 100.0;  ///< L2/T
-constexpr double storativity = 1e-4;      ///< -
-constexpr double leakance = 4e-4;         ///< 1/T
-constexpr double rate = 1000.0;           ///< L3/T
-constexpr double initial_head = 20.0;     ///< L
+constexpr double transmissivity = 100.0;                             ///< L2/T
+constexpr double storativity = 1e-4;                                 ///< -
+constexpr double leakance = 4e-4;                                    ///< 1/T
+constexpr double rate = 1000.0;                                      ///< L3/T
+constexpr double initial_head = 20.0;                                ///< L
 const double leakage_factor = std::sqrt(transmissivity / leakance);  ///< L, B = 500 m
 
 /// Column widths (= row heights): 10 m at the well growing by 10 % to 10 km (20 B) on every
@@ -48,7 +47,7 @@ std::vector<double> leaky_widths(int split) {
 /// Drawdown (L) along the well's row, at the centres of the coarse cells 1..n_obs east of
 /// the well, after each step.
 struct LeakyRun {
-  std::vector<double> distance;               ///< L
+  std::vector<double> distance;  ///< L
   std::vector<StepInfo> steps;
   std::vector<std::vector<double>> drawdown;  ///< L, per step, per distance
 };
@@ -70,8 +69,8 @@ LeakyRun run_leaky_well(int split, const Period& period, int n_obs) {
   Model m = uniform_model(n, n, 1.0, 1.0, a);
   m.grid = RectilinearGrid(widths, widths, 0.0, 0.0);
   const int centre = n / 2;
-  m.wells.push_back(Well{"well", m.grid.x_center(centre), m.grid.y_center(centre), m.grid.cell(centre, centre),
-                         PeriodValues(rate)});
+  m.wells.push_back(Well{"well", m.grid.x_center(centre), m.grid.y_center(centre),
+                         m.grid.cell(centre, centre), PeriodValues(rate)});
   m.leakage = Leakage{"leakage", all_cells(m), PeriodValues(initial_head), PeriodValues(leakance)};
   m.periods = {period};
 
@@ -86,7 +85,9 @@ LeakyRun run_leaky_well(int split, const Period& period, int n_obs) {
   for (const auto& step : recorder.steps) {
     run.steps.push_back(step.info);
     std::vector<double> s;
-    for (int col : cols) s.push_back(initial_head - step.head[static_cast<std::size_t>(m.grid.cell(centre, col).value)]);
+    for (int col : cols)
+      s.push_back(initial_head -
+                  step.head[static_cast<std::size_t>(m.grid.cell(centre, col).value)]);
     run.drawdown.push_back(s);
   }
   return run;
@@ -129,9 +130,11 @@ TEST_CASE("steady leaky drawdown converges to 2 K0 at second order", "[hantush_j
     const double r = coarse.distance[k];
     // Steady leaky drawdown s = Q / (2 pi T) K0(r/B) (de Glee; the t -> inf limit of
     // Hantush and Jacob, 1955), Bessel function from Boost.Math.
-    const double exact = rate / (2.0 * pi * transmissivity) * boost::math::cyl_bessel_k(0, r / leakage_factor);
+    const double exact =
+        rate / (2.0 * pi * transmissivity) * boost::math::cyl_bessel_k(0, r / leakage_factor);
     const double e_coarse = coarse.drawdown[0][k] - exact, e_fine = fine.drawdown[0][k] - exact;
-    INFO("r " << r << " exact " << exact << " coarse error " << e_coarse << " fine error " << e_fine);
+    INFO("r " << r << " exact " << exact << " coarse error " << e_coarse << " fine error "
+              << e_fine);
     // The five-point finite-volume scheme is second order: refining by 3 divides the error
     // by 9. Accept an observed ratio 6..12 (order 1.6..2.3).
     CHECK(e_coarse / e_fine > 6.0);
@@ -144,7 +147,8 @@ TEST_CASE("steady leaky drawdown converges to 2 K0 at second order", "[hantush_j
   WARN("Hantush-Jacob steady: worst relative error on the fine grid " << worst_fine);
 }
 
-TEST_CASE("transient drawdown in a leaky confined aquifer follows Hantush-Jacob", "[hantush_jacob]") {
+TEST_CASE("transient drawdown in a leaky confined aquifer follows Hantush-Jacob",
+          "[hantush_jacob]") {
   const double pi = boost::math::constants::pi<double>();
   // 10 days (40 times B^2 S / T = 0.25 d, so the last steps are steady), 160 steps
   // growing by 6 %.
@@ -165,10 +169,12 @@ TEST_CASE("transient drawdown in a leaky confined aquifer follows Hantush-Jacob"
       // (0.5 dt ds/dt, leading term of the backward Euler error), plus the grid's error at
       // this distance, taken from the steady run on the same grid against 2 K0 (the
       // steady case above shows it is the second-order discretisation error).
-      const double exact_steady = rate / (2.0 * pi * transmissivity) * boost::math::cyl_bessel_k(0, r / leakage_factor);
+      const double exact_steady =
+          rate / (2.0 * pi * transmissivity) * boost::math::cyl_bessel_k(0, r / leakage_factor);
       const double tolerance = 0.5 * dt * ds_dt + std::abs(steady.drawdown[0][k] - exact_steady);
       const double error = std::abs(run.drawdown[n][k] - exact);
-      INFO("t " << t << " r " << r << " drawdown " << run.drawdown[n][k] << " Hantush-Jacob " << exact);
+      INFO("t " << t << " r " << r << " drawdown " << run.drawdown[n][k] << " Hantush-Jacob "
+                << exact);
       CHECK(error <= tolerance);
       worst = std::max(worst, error);
       if (exact > 0.1) worst_relative = std::max(worst_relative, error / exact);
@@ -177,5 +183,6 @@ TEST_CASE("transient drawdown in a leaky confined aquifer follows Hantush-Jacob"
   // At the end the transient run has reached the steady state (t = 40 B^2 S / T).
   for (std::size_t k = 0; k < run.distance.size(); ++k)
     CHECK(std::abs(run.drawdown.back()[k] - steady.drawdown[0][k]) <= 1e-6);
-  WARN("Hantush-Jacob transient: worst error " << worst << " m, relative (s > 0.1 m) " << worst_relative);
+  WARN("Hantush-Jacob transient: worst error " << worst << " m, relative (s > 0.1 m) "
+                                               << worst_relative);
 }

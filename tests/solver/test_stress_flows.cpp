@@ -1,7 +1,6 @@
 // The loops over stress features: which cells carry stresses, the per-feature in/out split
 // and the per-cell derivatives handed to Newton.
 #include <catch2/catch.hpp>
-
 #include <cmath>
 #include <string>
 #include <vector>
@@ -27,12 +26,20 @@ Model row_with_every_stress() {
   m.wells.push_back(Well{"injector", 250.0, 50.0, CellIndex{2}, PeriodValues(-40.0)});
   m.fixed_heads.push_back(FixedHead{"lake", {CellIndex{3}}, PeriodValues(0.0)});
   m.recharges.push_back(Recharge{"rain", all_cells(m), PeriodValues(1e-3)});
-  m.rivers.push_back(River{"creek", {CellIndex{1}, CellIndex{2}, CellIndex{3}}, {1.0, 1.0, 1.0},
-                           PeriodValues(3.0), PeriodValues(-1.0), PeriodValues(15.0)});
+  m.rivers.push_back(River{"creek",
+                           {CellIndex{1}, CellIndex{2}, CellIndex{3}},
+                           {1.0, 1.0, 1.0},
+                           PeriodValues(3.0),
+                           PeriodValues(-1.0),
+                           PeriodValues(15.0)});
   m.drains.push_back(Drain{"tiles", {CellIndex{2}}, PeriodValues(4.0), PeriodValues(50.0)});
-  m.external_heads.push_back(ExternalHead{"regional", {CellIndex{0}}, PeriodValues(2.0), PeriodValues(20.0)});
-  m.evapotranspiration.push_back(
-      Evapotranspiration{"riparian", {CellIndex{1}, CellIndex{2}}, PeriodValues(2.0), PeriodValues(3e-3), PeriodValues(3.0)});
+  m.external_heads.push_back(
+      ExternalHead{"regional", {CellIndex{0}}, PeriodValues(2.0), PeriodValues(20.0)});
+  m.evapotranspiration.push_back(Evapotranspiration{"riparian",
+                                                    {CellIndex{1}, CellIndex{2}},
+                                                    PeriodValues(2.0),
+                                                    PeriodValues(3e-3),
+                                                    PeriodValues(3.0)});
   m.leakage = Leakage{"leakage", all_cells(m), PeriodValues(0.5), PeriodValues(2e-5)};
   return m;
 }
@@ -43,8 +50,9 @@ TEST_CASE("features are listed in the fixed order with their labels", "[stress_f
   const Model m = row_with_every_stress();
   const std::vector<FeatureRef> f = list_features(m);
   REQUIRE(f.size() == 9);
-  const std::vector<std::string> labels{"well", "well", "fixed_head", "recharge", "river", "drain",
-                                        "external_head", "evapotranspiration", "leakage"};
+  const std::vector<std::string> labels{"well",   "well",  "fixed_head",    "recharge",
+                                        "river",  "drain", "external_head", "evapotranspiration",
+                                        "leakage"};
   for (std::size_t k = 0; k < f.size(); ++k) CHECK(feature_kind_label(f[k].kind) == labels[k]);
   CHECK(f[1].name == "injector");
   CHECK(f[1].index == 1);
@@ -97,9 +105,11 @@ TEST_CASE("per-cell stress derivatives match finite differences", "[stress_flows
   // Heads inside smoothing and reduction intervals as well as plain ones.
   for (const std::vector<double>& base :
        {std::vector<double>{-10.0 + 0.3 * layout.reduction_length[0], 1.0, 5.0, 0.0},
-        std::vector<double>{-10.0 + 0.5 * layout.smoothing_length[0], -1.0 + 0.4 * layout.smoothing_length[1],
+        std::vector<double>{-10.0 + 0.5 * layout.smoothing_length[0],
+                            -1.0 + 0.4 * layout.smoothing_length[1],
                             4.0 + 0.6 * layout.smoothing_length[2], 0.0},
-        std::vector<double>{0.0 + 0.3 * layout.smoothing_length[0], -0.7, 2.0 + 0.5 * layout.smoothing_length[2], 0.0}}) {
+        std::vector<double>{0.0 + 0.3 * layout.smoothing_length[0], -0.7,
+                            2.0 + 0.5 * layout.smoothing_length[2], 0.0}}) {
     std::vector<double> q(4, 0.0), dq(4, 0.0);
     add_stress_flows(m, layout, 0, base, q, dq);
     for (std::size_t i = 0; i < 3; ++i) {

@@ -2,7 +2,6 @@
 // limits, and each derivative against a centred finite difference (also inside the
 // smoothing intervals, where the laws are cubic in head).
 #include <catch2/catch.hpp>
-
 #include <cmath>
 #include <functional>
 #include <vector>
@@ -19,15 +18,16 @@ constexpr double delta = 0.02;  ///< L, smoothing width (1e-3 of a 20 m aquifer,
 /// s^2 |f'''| / 6; the ramp's cubic has |r'''| = 6 / delta^2, so with s = 1e-5 delta the
 /// error is 1e-10 of the coefficient, and round-off is ~1e-16 |f| / s. Both sit far below
 /// the 1e-7 relative tolerance used.
-double centred_difference(const std::function<double(double)>& f, double h, double s = 1e-5 * delta) {
+double centred_difference(const std::function<double(double)>& f, double h,
+                          double s = 1e-5 * delta) {
   return (f(h + s) - f(h - s)) / (2.0 * s);
 }
 
 /// Heads spread across a kink at z: outside on both sides and inside [z, z + delta]. None
 /// sits on a kink itself (there f'' jumps and a centred difference is only O(s) accurate).
 std::vector<double> heads_around(double z) {
-  return {z - 1.7, z - 0.5 * delta, z + 0.1 * delta, z + 0.37 * delta, z + 0.5 * delta,
-          z + 0.83 * delta, z + 1.5 * delta, z + 2.3};
+  return {z - 1.7,         z - 0.5 * delta,  z + 0.1 * delta, z + 0.37 * delta,
+          z + 0.5 * delta, z + 0.83 * delta, z + 1.5 * delta, z + 2.3};
 }
 
 void check_slope(const std::function<ValueSlope(double)>& kernel, double h, double scale) {
@@ -65,7 +65,9 @@ TEST_CASE("well and negative recharge slopes match finite differences", "[stress
   // Thickness of a water-table cell, b = r(h - bottom, delta).
   auto thickness = [&](double h) { return smooth_ramp(h - bottom, delta); };
   auto well = [&](double h) { return well_flow(300.0, thickness(h), reduction, true).q; };
-  auto recharge = [&](double h) { return recharge_flow(-2e-3, area, thickness(h), reduction, true).q; };
+  auto recharge = [&](double h) {
+    return recharge_flow(-2e-3, area, thickness(h), reduction, true).q;
+  };
   for (double h : {bottom - 1.0, bottom + 0.3 * delta, bottom + 0.8 * delta, bottom + 0.05,
                    bottom + 0.1, bottom + 0.17, bottom + 0.5}) {
     check_slope(well, h, 300.0 / reduction);
@@ -73,7 +75,8 @@ TEST_CASE("well and negative recharge slopes match finite differences", "[stress
   }
 }
 
-TEST_CASE("recharge is rate times area; a negative rate is reduced like a withdrawal", "[stress_kernels]") {
+TEST_CASE("recharge is rate times area; a negative rate is reduced like a withdrawal",
+          "[stress_kernels]") {
   const double area = 2500.0, reduction = 0.2;
   // Areal recharge over a cell: q = rate A (definition of an areal flux, L/T over L2).
   const WithdrawalFlow wet = recharge_flow(4e-4, area, {0.0, 0.0}, reduction, true);
@@ -107,7 +110,8 @@ TEST_CASE("river seepage: linear above the bed bottom, disconnected below", "[st
   for (double h : heads_around(bed)) check_slope(river, h, c);
 }
 
-TEST_CASE("drain: nothing below its elevation, conductance times excess above", "[stress_kernels]") {
+TEST_CASE("drain: nothing below its elevation, conductance times excess above",
+          "[stress_kernels]") {
   const double elevation = 37.0, c = 50.0;
   auto drain = [&](double h) { return drain_flow(h, elevation, c, delta); };
   // Drain law q = -C (h - e) for h > e, zero otherwise (common practice).
@@ -148,12 +152,14 @@ TEST_CASE("evapotranspiration: linear between extinction depth and surface", "[s
   for (double h : heads_around(surface)) check_slope(et, h, area * rate / depth);
 }
 
-TEST_CASE("leakage: leakance times head difference, fixed below the aquifer top", "[stress_kernels]") {
+TEST_CASE("leakage: leakance times head difference, fixed below the aquifer top",
+          "[stress_kernels]") {
   const double source = 42.0, top = 40.0, leakance = 2e-5, area = 2500.0;
   auto leak = [&](double h) { return leakage_flow(h, source, top, leakance, area, delta); };
   // Leakage through an aquitard, q = A (K'/b') (H - h) (Hantush and Jacob, 1955).
   for (double h : {top + delta, 41.0, 42.0, 45.0})
-    CHECK(std::abs(leak(h).value - area * leakance * (source - h)) <= 1e-12 * area * leakance * 5.0);
+    CHECK(std::abs(leak(h).value - area * leakance * (source - h)) <=
+          1e-12 * area * leakance * 5.0);
   // Below the top the aquitard drains freely under a unit gradient set by its own base:
   // the exchange stays A L (H - top) (project contract, model-format "Leakage").
   for (double h : {top, top - 1.0, top - 1e5})

@@ -1,8 +1,7 @@
 // Whole runs in which one head-dependent stress controls the result: a river disconnected
 // from a falling water level, and evapotranspiration draining a closed water-table aquifer.
-#include <catch2/catch.hpp>
-
 #include <algorithm>
+#include <catch2/catch.hpp>
 #include <cmath>
 #include <vector>
 
@@ -14,7 +13,8 @@
 using namespace aquiledger;
 using namespace aquiledger::stress_tests;
 
-TEST_CASE("a disconnected losing river seeps at a fixed rate however far the head falls", "[stress_runs]") {
+TEST_CASE("a disconnected losing river seeps at a fixed rate however far the head falls",
+          "[stress_runs]") {
   // One row of 21 cells of 100 m, confined (T constant, so the head may fall far below the
   // river bed), the river in the west cell, a well withdrawing more than the river can give
   // in the east cell: the head at the river falls ever further below the bed bottom.
@@ -27,7 +27,11 @@ TEST_CASE("a disconnected losing river seeps at a fixed rate however far the hea
   a.initial_head = 10.0;
   Model m = uniform_model(1, 21, 100.0, 100.0, a);
   const double stage = 6.0, bed_bottom = 5.0, conductance = 10.0;
-  m.rivers.push_back(River{"creek", {CellIndex{0}}, {100.0}, PeriodValues(stage), PeriodValues(bed_bottom),
+  m.rivers.push_back(River{"creek",
+                           {CellIndex{0}},
+                           {100.0},
+                           PeriodValues(stage),
+                           PeriodValues(bed_bottom),
                            PeriodValues(conductance)});
   m.wells.push_back(Well{"well", 2050.0, 50.0, CellIndex{20}, PeriodValues(500.0)});
   m.periods = {Period{"pumping", 50.0, 50, 1.0, false}};
