@@ -43,7 +43,7 @@ double fixed_cell_net_flow(const Model& model, const SystemLayout& layout, CellI
     const CellIndex nb = g.cell(r, col);
     if (!g.is_active(nb) || layout.fixed[at(nb)]) return;
     const double factor = face_factor(model, c, nb, east_west);
-    net -= face_flow(model, layout, nb, c, factor, head[at(nb)], head[at(c)]).q;
+    net += face_flow(model, layout, nb, c, factor, head[at(nb)], head[at(c)]).q;
   };
   consider(rc.row, rc.col - 1, true);
   consider(rc.row, rc.col + 1, true);

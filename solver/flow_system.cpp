@@ -136,7 +136,7 @@ void FlowSystem::assemble(std::span<const double> head) {
     double net = 0.0;
     for (; fixed_neighbours_[p].cell.valid(); ++p) {
       const Neighbour& nb = fixed_neighbours_[p];
-      net -= face_flow(model_, layout_, nb.cell, c, nb.factor, head[at(nb.cell)], head[at(c)]).q;
+      net += face_flow(model_, layout_, nb.cell, c, nb.factor, head[at(nb.cell)], head[at(c)]).q;
     }
     ++p;
     abs_sum += std::abs(net);

@@ -1,0 +1,139 @@
+// Time control: drying and rewetting, non-convergence reporting, linear backends,
+// factorisation reuse.
+#include <catch2/catch.hpp>
+
+#include <cmath>
+#include <cstdio>
+
+#include "solver/flow_system.hpp"
+#include "solver/linear_solver.hpp"
+#include "support/budget_observer.hpp"
+#include "support/model_builder.hpp"
+
+using namespace aquiledger;
+
+namespace {
+
+/// 5 x 5 water-table aquifer, 2 m saturated, a well in the centre pumping more than the
+/// aquifer can deliver, then recharge.
+Model drying_model() {
+  test::AquiferSpec a;
+  a.condition = Condition::water_table;
+  a.top = 10.0;
+  a.bottom = 0.0;
+  a.k = 0.5;
+  a.specific_yield = 0.1;
+  a.initial_head = 2.0;
+  Model m = test::make_model(std::vector<double>(5, 10.0), std::vector<double>(5, 10.0), a);
+  test::add_period(m, 20.0, 20, 1.1);
+  test::add_period(m, 40.0, 20, 1.1);
+  test::add_well(m, 2, 2, {20.0, 0.0});
+  test::add_recharge(m, {0.0, 0.01});
+  return m;
+}
+
+}  // namespace
+
+TEST_CASE("a cell pumped dry wets again under recharge", "[time_control]") {
+  const Model m = drying_model();
+  test::BudgetObserver obs(m);
+  const RunResult r = run_simulation(m, obs);
+  REQUIRE(r.converged);  // a drained cell never makes the run fail (model format)
+  const auto centre = static_cast<std::size_t>(m.grid.cell(2, 2).value);
+  const std::size_t end_of_pumping = 19;
+  REQUIRE(obs.steps[end_of_pumping].period == 0);
+  // The whole aquifer holds Sy A h = 0.1 * 2500 * 2 = 500 m3 < 20 m3/d * 20 d: the well
+  // must fall short, and the reported shortfall plus the delivered rate is the asked rate.
+  const WaterBudget& dry = obs.budgets[end_of_pumping];
+  std::printf("drying: centre head %.4f m, delivered %.4f, shortfall %.4f m3/d\n",
+              obs.heads[end_of_pumping][centre], dry[BudgetComponent::wells].out, dry.well_shortfall);
+  CHECK(dry.well_shortfall > 10.0);
+  CHECK(dry[BudgetComponent::wells].out + dry.well_shortfall == Approx(20.0).epsilon(1e-9));
+  CHECK(obs.heads[end_of_pumping][centre] < 0.1);  // within the reduction length of the base
+  // Recharge 0.01 m/d for 40 d refills Sy-storage by 4 m of head at most; the centre wets.
+  CHECK(obs.last_head[centre] > 1.0);
+  CHECK(obs.max_discrepancy < 1e-6);
+}
+
+TEST_CASE("non-convergence is a status with a named place, steps kept", "[time_control]") {
+  Model m = drying_model();
+  m.periods[0].steps = 3;
+  m.wells[0].rate = PeriodValues({{0.0}, {20.0}}, {0, 1});  // quiet first period
+  m.recharges.clear();
+  m.solver.max_iterations = 1;
+  m.solver.max_cutbacks = 2;
+  test::BudgetObserver obs(m);
+  const RunResult r = run_simulation(m, obs);
+  INFO(r.failure);
+  CHECK_FALSE(r.converged);
+  CHECK(r.failed_period == 1);
+  CHECK(r.failed_step == 1);
+  CHECK(r.failure.find("period 2") != std::string::npos);
+  CHECK(r.failure.find("step 1") != std::string::npos);
+  CHECK(r.failure.find("row 3, col 3") != std::string::npos);  // the pumped cell, 1-based
+  CHECK(r.cutbacks == 2);
+  // Every step of the quiet period was seen, and no failed one.
+  CHECK(obs.steps.size() == 3);
+  CHECK(obs.periods_done.size() == 1);
+}
+
+TEST_CASE("linear backends agree on the same system", "[linear]") {
+  for (Condition c : {Condition::confined, Condition::water_table}) {
+    Model m = drying_model();
+    m.aquifer.condition = c;
+    if (c == Condition::confined) m.aquifer.specific_yield.clear();
+    const SystemLayout layout = make_system_layout(m);
+    FlowSystem sys(m, layout);
+    std::vector<double> head_old = m.initial.head;
+    sys.set_step(0, false, 0.5, head_old);
+    std::vector<double> head = m.initial.head;
+    head[7] -= 0.3;  // a non-uniform state, so upstream choices differ across faces
+    sys.assemble(head);
+    const Eigen::VectorXd b = sys.residual();
+    std::vector<std::unique_ptr<LinearSolver>> solvers;
+    solvers.push_back(make_umfpack_solver());
+    solvers.push_back(make_bicgstab_solver());
+    if (sys.symmetric()) solvers.push_back(make_cholmod_solver()), solvers.push_back(make_pcg_solver());
+    Eigen::VectorXd reference;
+    for (auto& s : solvers) {
+      Eigen::VectorXd x = Eigen::VectorXd::Zero(b.size());
+      REQUIRE(s->solve(sys.matrix(), b, x));
+      // Each must solve the system to the iterative tolerance (1e-12 relative residual).
+      CHECK((sys.matrix() * x - b).norm() <= 1e-10 * b.norm());
+      if (reference.size() == 0)
+        reference = x;
+      else
+        CHECK((x - reference).cwiseAbs().maxCoeff() <= 1e-8 * reference.cwiseAbs().maxCoeff());
+    }
+  }
+}
+
+TEST_CASE("linear = auto picks by symmetry and size", "[linear]") {
+  CHECK(choose_linear_solver(LinearChoice::automatic, true, 1000).solver->name() == "cholmod");
+  CHECK(choose_linear_solver(LinearChoice::automatic, true, cholmod_auto_limit + 1).solver->name() == "pcg");
+  CHECK(choose_linear_solver(LinearChoice::automatic, false, 1000).solver->name() == "umfpack");
+  CHECK(choose_linear_solver(LinearChoice::automatic, false, umfpack_auto_limit + 1).solver->name() == "bicgstab");
+  CHECK(choose_linear_solver(LinearChoice::pcg, false, 10).solver->name() == "bicgstab");
+}
+
+TEST_CASE("confined model with constant dt factorises once; backends give the same run", "[linear]") {
+  test::AquiferSpec a;
+  a.initial_head = 30.0;
+  Model m = test::make_model(std::vector<double>(30, 10.0), std::vector<double>(20, 10.0), a);
+  test::add_period(m, 5.0, 10);
+  test::add_well(m, 10, 15, {50.0});
+  test::add_fixed_head(m, test::column_cells(m, 0), 30.0);
+  std::vector<std::vector<double>> ends;
+  for (LinearChoice choice : {LinearChoice::direct, LinearChoice::pcg, LinearChoice::bicgstab}) {
+    m.solver.linear = choice;
+    test::BudgetObserver obs(m);
+    const RunResult r = run_simulation(m, obs);
+    REQUIRE(r.converged);
+    // Same dt, same stresses, linear system: one matrix for the whole run.
+    CHECK(r.factorizations == 1);
+    CHECK(r.factorization_reuses == r.newton_iterations - 1);
+    ends.push_back(obs.last_head);
+  }
+  for (std::size_t k = 1; k < ends.size(); ++k)
+    for (std::size_t i = 0; i < ends[0].size(); ++i) CHECK(ends[k][i] == Approx(ends[0][i]).margin(1e-7));
+}
