@@ -165,3 +165,35 @@ TEST_CASE("written fields, budget and observations of a steady strip obey Darcy'
   CHECK(num(obs[4][h]) == Approx(exact(61.0)).epsilon(1e-9));
   std::filesystem::remove_all(folder);
 }
+
+// One-sided budget: steady recharge R over a strip closed on three sides leaves only through
+// the fixed-head column, so the written fixed_head_out equals R times the recharged area and
+// fixed_head_in is zero (conservation of mass in a steady state; no storage term).
+// Tolerance: the steady Newton solve stops at flow_tolerance 1e-6 of the throughflow, well
+// below 1e-5 relative.
+TEST_CASE("written budget of recharge draining to a fixed head balances one-sidedly",
+          "[io][end-to-end]") {
+  test::AquiferSpec a;
+  a.condition = Condition::water_table;
+  a.top = 30.0;
+  a.bottom = 0.0;
+  a.k = 2.0;
+  a.initial_head = 20.0;
+  Model m = test::make_model({50.0, 50.0, 50.0, 50.0}, {40.0, 40.0}, a);
+  test::add_period(m, 1.0, 1, 1.0, true);
+  test::add_fixed_head(m, test::column_cells(m, 0), 20.0);
+  test::add_recharge(m, {0.001});  // m/d
+  Recorder rec(m);
+  REQUIRE(run_simulation(m, rec).converged);
+  const auto folder = aquiledger::testing::scratch_folder("end-to-end-recharge");
+  write_budget_steps_csv(folder / "budget_steps.csv", rec.steps);
+  const auto budget = read_csv(folder / "budget_steps.csv");
+  REQUIRE(budget.size() == 2);
+  // Recharge reaches the 6 cells that are not fixed (6 x 2000 m2): 12 m3/d; the fixed
+  // cells receive none (fixed cells take no stress, physics decisions).
+  const double recharge = 0.001 * 6 * 50.0 * 40.0;
+  CHECK(num(budget[1][column(budget[0], "recharge_in")]) == Approx(recharge).epsilon(1e-12));
+  CHECK(num(budget[1][column(budget[0], "fixed_head_out")]) == Approx(recharge).epsilon(1e-5));
+  CHECK(num(budget[1][column(budget[0], "fixed_head_in")]) == Approx(0.0).margin(1e-5 * recharge));
+  std::filesystem::remove_all(folder);
+}
