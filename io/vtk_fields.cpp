@@ -105,7 +105,10 @@ void write_atomically(vtkRectilinearGrid* vtk_grid, const std::filesystem::path&
   writer->SetFileName(temporary.c_str());
   writer->SetDataModeToAppended();
   writer->EncodeAppendedDataOff();
-  writer->SetCompressorTypeToZLib();
+  // LZ4 rather than zlib: at 1M cells (12 arrays) it wrote in 0.5 s against 5-6 s for
+  // zlib, for 64 MB against 52 MB (measured on the 2-core build machine); VTK 8.1+ and
+  // ParaView 5.5+ read it.
+  writer->SetCompressorTypeToLZ4();
   writer->SetHeaderTypeToUInt64();  // arrays beyond 4 GB stay readable
   const int ok = writer->Write();
   const unsigned long code = writer->GetErrorCode();

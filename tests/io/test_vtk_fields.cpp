@@ -12,6 +12,7 @@
 #include <vtkXMLRectilinearGridReader.h>
 
 #include <cmath>
+#include <fstream>
 #include <map>
 
 #include "io/vtk_fields.hpp"
@@ -140,6 +141,12 @@ TEST_CASE("field file reads back exactly, on true edges, with inactive cells bla
   auto g = read_vtr(folder / "fields_0001.vtr");
   check_geometry_and_blanking(g, m);
   for (const char* name : field_names) check_cell_array(g, m, name, values[name]);
+  // Compressed binary, appended (the brief's choice of encoding), read from the XML header.
+  std::ifstream raw(folder / "fields_0001.vtr", std::ios::binary);
+  std::string header(2048, '\0');
+  raw.read(header.data(), static_cast<std::streamsize>(header.size()));
+  CHECK(header.find(R"(compressor="vtkLZ4DataCompressor")") != std::string::npos);
+  CHECK(header.find(R"(format="appended")") != std::string::npos);
   vtkDataArray* t = g->GetFieldData()->GetArray("TIME");
   REQUIRE(t != nullptr);
   CHECK(t->GetComponent(0, 0) == time);
