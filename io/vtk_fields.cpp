@@ -1,5 +1,6 @@
 #include "io/vtk_fields.hpp"
 
+#include <fmt/format.h>
 #include <vtkCellData.h>
 #include <vtkDataSetAttributes.h>
 #include <vtkDoubleArray.h>
@@ -10,8 +11,6 @@
 #include <vtkStringArray.h>
 #include <vtkUnsignedCharArray.h>
 #include <vtkXMLRectilinearGridWriter.h>
-
-#include <fmt/format.h>
 
 #include <cmath>
 #include <iterator>
@@ -125,12 +124,23 @@ std::string xml_escaped(std::string_view text) {
   std::string out;
   for (char ch : text) {
     switch (ch) {
-      case '&': out += "&amp;"; break;
-      case '<': out += "&lt;"; break;
-      case '>': out += "&gt;"; break;
-      case '"': out += "&quot;"; break;
-      case '\'': out += "&apos;"; break;
-      default: out += ch;
+      case '&':
+        out += "&amp;";
+        break;
+      case '<':
+        out += "&lt;";
+        break;
+      case '>':
+        out += "&gt;";
+        break;
+      case '"':
+        out += "&quot;";
+        break;
+      case '\'':
+        out += "&apos;";
+        break;
+      default:
+        out += ch;
     }
   }
   return out;

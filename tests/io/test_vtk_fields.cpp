@@ -1,5 +1,3 @@
-#include <catch2/catch.hpp>
-
 #include <vtkCellData.h>
 #include <vtkDataArray.h>
 #include <vtkDataSetAttributes.h>
@@ -11,6 +9,7 @@
 #include <vtkXMLDataParser.h>
 #include <vtkXMLRectilinearGridReader.h>
 
+#include <catch2/catch.hpp>
 #include <cmath>
 #include <fstream>
 #include <map>
@@ -27,10 +26,18 @@ using aquiledger::testing::small_model;
 // arrays bit for bit (VTK file formats, "XML File Formats"), so a read-back must be exact.
 namespace {
 
-const char* const field_names[] = {"head", "drawdown", "saturated_thickness", "state",
-                                   "storage_rate", "storage_skeleton_rate", "storage_water_rate",
-                                   "storage_elastic_rate", "storage_drainage_rate", "compaction",
-                                   "flow_east", "flow_north"};
+const char* const field_names[] = {"head",
+                                   "drawdown",
+                                   "saturated_thickness",
+                                   "state",
+                                   "storage_rate",
+                                   "storage_skeleton_rate",
+                                   "storage_water_rate",
+                                   "storage_elastic_rate",
+                                   "storage_drainage_rate",
+                                   "compaction",
+                                   "flow_east",
+                                   "flow_north"};
 
 /// Distinct values per array and cell: array a, cell c -> (a + 1) * 1000 + c / 3.
 std::map<std::string, std::vector<double>> distinct_fields(int n_cells) {

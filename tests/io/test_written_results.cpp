@@ -7,14 +7,13 @@
 // reproduces a linear head exactly, so the checks need only solver round-off: the system is
 // a handful of unknowns with a direct solve, well conditioned, and 1e-9 relative leaves
 // orders of magnitude of room above that round-off while catching any modelling slip.
-#include <catch2/catch.hpp>
-
 #include <vtkCellData.h>
 #include <vtkDataArray.h>
 #include <vtkNew.h>
 #include <vtkRectilinearGrid.h>
 #include <vtkXMLRectilinearGridReader.h>
 
+#include <catch2/catch.hpp>
 #include <cstdlib>
 #include <fstream>
 
@@ -43,7 +42,8 @@ class Recorder : public SimulationObserver {
   void step_done(const StepInfo& info, std::span<const double> head_old,
                  std::span<const double> head_new) override {
     update_cell_fields(model_, layout_, info.steady, info.dt, initial_, head_old, head_new, fields);
-    const WaterBudget b = step_budget(model_, layout_, info.period, info.steady, info.dt, head_old, head_new);
+    const WaterBudget b =
+        step_budget(model_, layout_, info.period, info.steady, info.dt, head_old, head_new);
     steps.push_back({info.period + 1, info.step, info.time, info.dt, b});
     add_observations(info.period + 1, info.step, info.time, head_new);
   }
@@ -72,8 +72,10 @@ std::vector<std::vector<std::string>> read_csv(const std::filesystem::path& p) {
   for (std::string line; std::getline(in, line);) {
     rows.emplace_back(1);
     for (char ch : line) {
-      if (ch == ',') rows.back().emplace_back();
-      else rows.back().back() += ch;
+      if (ch == ',')
+        rows.back().emplace_back();
+      else
+        rows.back().back() += ch;
     }
   }
   return rows;
