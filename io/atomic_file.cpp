@@ -1,6 +1,7 @@
 #include "io/atomic_file.hpp"
 
 #include <fcntl.h>
+#include <fmt/core.h>
 #include <unistd.h>
 
 #include <atomic>
@@ -8,8 +9,6 @@
 #include <cstring>
 #include <string>
 #include <system_error>
-
-#include <fmt/core.h>
 
 namespace aquiledger {
 namespace {
@@ -131,8 +130,8 @@ void check_output_folder_writable(const std::filesystem::path& folder) {
   std::error_code ec;
   std::filesystem::create_directories(folder, ec);
   if (ec) {
-    throw OutputError(fmt::format("cannot create output folder '{}': {}", folder.string(),
-                                  ec.message()));
+    throw OutputError(
+        fmt::format("cannot create output folder '{}': {}", folder.string(), ec.message()));
   }
   if (!std::filesystem::is_directory(folder, ec)) {
     throw OutputError(fmt::format("output folder '{}' is not a folder", folder.string()));

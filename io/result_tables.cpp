@@ -44,14 +44,22 @@ void append_budget(std::string& out, const WaterBudget& budget) {
 /// on nothing but the kind itself).
 std::string_view kind_label(FeatureKind kind) {
   switch (kind) {
-    case FeatureKind::well: return "well";
-    case FeatureKind::fixed_head: return "fixed_head";
-    case FeatureKind::recharge: return "recharge";
-    case FeatureKind::river: return "river";
-    case FeatureKind::drain: return "drain";
-    case FeatureKind::external_head: return "external_head";
-    case FeatureKind::evapotranspiration: return "evapotranspiration";
-    case FeatureKind::leakage: return "leakage";
+    case FeatureKind::well:
+      return "well";
+    case FeatureKind::fixed_head:
+      return "fixed_head";
+    case FeatureKind::recharge:
+      return "recharge";
+    case FeatureKind::river:
+      return "river";
+    case FeatureKind::drain:
+      return "drain";
+    case FeatureKind::external_head:
+      return "external_head";
+    case FeatureKind::evapotranspiration:
+      return "evapotranspiration";
+    case FeatureKind::leakage:
+      return "leakage";
   }
   return "unknown";
 }
@@ -95,9 +103,9 @@ std::string budget_features_csv(const std::vector<FeatureRef>& features,
   std::string out = "feature,kind,period,in,out\n";
   for (const BudgetPeriodRow& row : rows) {
     if (row.volumes.features.size() != features.size()) {
-      throw std::invalid_argument(fmt::format(
-          "budget of period {} has {} feature entries, the model lists {} features", row.period,
-          row.volumes.features.size(), features.size()));
+      throw std::invalid_argument(
+          fmt::format("budget of period {} has {} feature entries, the model lists {} features",
+                      row.period, row.volumes.features.size(), features.size()));
     }
     for (std::size_t k = 0; k < features.size(); ++k) {
       fmt::format_to(std::back_inserter(out), "{},{},{}", csv_text(features[k].name),

@@ -27,8 +27,8 @@ struct BudgetStepRow {
 struct BudgetPeriodRow {
   std::size_t period = 0;  ///< 1-based
   std::string name;
-  double start = 0.0;  ///< T
-  double end = 0.0;    ///< T
+  double start = 0.0;   ///< T
+  double end = 0.0;     ///< T
   WaterBudget volumes;  ///< L3; volumes.features has one entry per list_features(model)
 };
 

@@ -19,13 +19,27 @@ std::string json_string(std::string_view text) {
   std::string out = "\"";
   for (unsigned char ch : text) {
     switch (ch) {
-      case '"': out += "\\\""; break;
-      case '\\': out += "\\\\"; break;
-      case '\b': out += "\\b"; break;
-      case '\f': out += "\\f"; break;
-      case '\n': out += "\\n"; break;
-      case '\r': out += "\\r"; break;
-      case '\t': out += "\\t"; break;
+      case '"':
+        out += "\\\"";
+        break;
+      case '\\':
+        out += "\\\\";
+        break;
+      case '\b':
+        out += "\\b";
+        break;
+      case '\f':
+        out += "\\f";
+        break;
+      case '\n':
+        out += "\\n";
+        break;
+      case '\r':
+        out += "\\r";
+        break;
+      case '\t':
+        out += "\\t";
+        break;
       default:
         if (ch < 0x20)
           fmt::format_to(std::back_inserter(out), "\\u{:04x}", static_cast<unsigned>(ch));
@@ -62,7 +76,8 @@ class JsonObject {
 std::string iteration_stats(const std::vector<int>& its) {
   if (its.empty()) return R"({"min": null, "max": null, "mean": null})";
   const auto [lo, hi] = std::minmax_element(its.begin(), its.end());
-  const double mean = std::accumulate(its.begin(), its.end(), 0.0) / static_cast<double>(its.size());
+  const double mean =
+      std::accumulate(its.begin(), its.end(), 0.0) / static_cast<double>(its.size());
   return fmt::format(R"({{"min": {}, "max": {}, "mean": {}}})", *lo, *hi, json_number(mean));
 }
 

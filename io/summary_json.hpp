@@ -12,21 +12,21 @@ namespace aquiledger {
 /// Member names follow the program's driver (io/cli); JSON keys are listed in
 /// summary_json.cpp. Counts left at their defaults are written as they are.
 struct RunSummary {
-  std::string version;     ///< program version
-  std::string title;       ///< model title
+  std::string version;  ///< program version
+  std::string title;    ///< model title
   std::string model_file;
   std::string length_unit;
   std::string time_unit;
   int cells = 0;
   int active_cells = 0;
-  int unknowns = 0;        ///< equations per Newton iteration (active, not fixed-head)
+  int unknowns = 0;  ///< equations per Newton iteration (active, not fixed-head)
   int periods = 0;
-  int steps = 0;           ///< accepted steps
-  double wall_seconds = 0.0;    ///< s, whole run
-  double output_seconds = 0.0;  ///< s, of which computing and writing results
+  int steps = 0;                                ///< accepted steps
+  double wall_seconds = 0.0;                    ///< s, whole run
+  double output_seconds = 0.0;                  ///< s, of which computing and writing results
   std::vector<int> newton_iterations_per_step;  ///< per accepted step
-  long linear_iterations = 0;   ///< total (0 for a direct solver)
-  int cutbacks = 0;             ///< step halvings over the run
+  long linear_iterations = 0;                   ///< total (0 for a direct solver)
+  int cutbacks = 0;                             ///< step halvings over the run
   std::string linear_solver;
   std::string linear_reason;
   double max_abs_discrepancy_percent = 0.0;  ///< %, largest |discrepancy| over the steps

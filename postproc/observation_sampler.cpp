@@ -68,9 +68,10 @@ ObservationSampler::ObservationSampler(const RectilinearGrid& grid,
     } else if (bx.inside) {  // beyond the outermost row centres: along x only
       corners = {{rc.row, bx.lo, 1 - bx.t}, {rc.row, bx.lo + 1, bx.t}};
     }
-    const bool all_active = !corners.empty() && std::all_of(corners.begin(), corners.end(), [&](const Corner& c) {
-      return grid.is_active(grid.cell(c.row, c.col));
-    });
+    const bool all_active =
+        !corners.empty() && std::all_of(corners.begin(), corners.end(), [&](const Corner& c) {
+          return grid.is_active(grid.cell(c.row, c.col));
+        });
     if (all_active) {
       s.n = static_cast<int>(corners.size());
       for (int k = 0; k < s.n; ++k) {
@@ -94,7 +95,8 @@ std::vector<double> ObservationSampler::sample(std::span<const double> head) con
     double sum = 0.0;
     // Zero weights are skipped so that a point on a centre line ignores the far cells.
     for (int i = 0; i < s.n; ++i)
-      if (s.weights[i] != 0.0) sum += s.weights[i] * head[static_cast<std::size_t>(s.cells[i].value)];
+      if (s.weights[i] != 0.0)
+        sum += s.weights[i] * head[static_cast<std::size_t>(s.cells[i].value)];
     values[k] = sum;
   }
   return values;

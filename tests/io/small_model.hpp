@@ -1,11 +1,12 @@
 #pragma once
 // A small model for the writer tests: variable spacing, one inactive cell, distinct values in
 // every cell so that any mix-up of rows, columns or arrays shows.
+#include <unistd.h>
+
 #include <algorithm>
 #include <cmath>
 #include <filesystem>
 #include <string>
-#include <unistd.h>
 #include <vector>
 
 #include "solver/model.hpp"

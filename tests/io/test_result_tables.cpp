@@ -1,5 +1,4 @@
 #include <catch2/catch.hpp>
-
 #include <cmath>
 #include <cstdlib>
 #include <fstream>
@@ -45,10 +44,18 @@ double number(const std::string& text) { return std::strtod(text.c_str(), nullpt
 
 /// The component stems in the order the format contract lists them (model-format.md,
 /// "Results"), written out here rather than taken from the code under test.
-const std::vector<std::string> contract_components = {
-    "storage_skeleton", "storage_water", "storage_drainage", "storage_elastic",
-    "fixed_head",       "wells",         "recharge",         "river",
-    "drain",            "external_head", "evapotranspiration", "leakage"};
+const std::vector<std::string> contract_components = {"storage_skeleton",
+                                                      "storage_water",
+                                                      "storage_drainage",
+                                                      "storage_elastic",
+                                                      "fixed_head",
+                                                      "wells",
+                                                      "recharge",
+                                                      "river",
+                                                      "drain",
+                                                      "external_head",
+                                                      "evapotranspiration",
+                                                      "leakage"};
 
 std::vector<std::string> expected_header(std::vector<std::string> lead) {
   for (const auto& c : contract_components) {

@@ -1,5 +1,3 @@
-#include <catch2/catch.hpp>
-
 #include <vtkCellData.h>
 #include <vtkDataArray.h>
 #include <vtkDataSetAttributes.h>
@@ -11,7 +9,9 @@
 #include <vtkXMLDataParser.h>
 #include <vtkXMLRectilinearGridReader.h>
 
+#include <catch2/catch.hpp>
 #include <cmath>
+#include <fstream>
 #include <map>
 
 #include "io/vtk_fields.hpp"
@@ -26,10 +26,18 @@ using aquiledger::testing::small_model;
 // arrays bit for bit (VTK file formats, "XML File Formats"), so a read-back must be exact.
 namespace {
 
-const char* const field_names[] = {"head", "drawdown", "saturated_thickness", "state",
-                                   "storage_rate", "storage_skeleton_rate", "storage_water_rate",
-                                   "storage_elastic_rate", "storage_drainage_rate", "compaction",
-                                   "flow_east", "flow_north"};
+const char* const field_names[] = {"head",
+                                   "drawdown",
+                                   "saturated_thickness",
+                                   "state",
+                                   "storage_rate",
+                                   "storage_skeleton_rate",
+                                   "storage_water_rate",
+                                   "storage_elastic_rate",
+                                   "storage_drainage_rate",
+                                   "compaction",
+                                   "flow_east",
+                                   "flow_north"};
 
 /// Distinct values per array and cell: array a, cell c -> (a + 1) * 1000 + c / 3.
 std::map<std::string, std::vector<double>> distinct_fields(int n_cells) {
@@ -140,6 +148,12 @@ TEST_CASE("field file reads back exactly, on true edges, with inactive cells bla
   auto g = read_vtr(folder / "fields_0001.vtr");
   check_geometry_and_blanking(g, m);
   for (const char* name : field_names) check_cell_array(g, m, name, values[name]);
+  // Compressed binary, appended (the brief's choice of encoding), read from the XML header.
+  std::ifstream raw(folder / "fields_0001.vtr", std::ios::binary);
+  std::string header(2048, '\0');
+  raw.read(header.data(), static_cast<std::streamsize>(header.size()));
+  CHECK(header.find(R"(compressor="vtkLZ4DataCompressor")") != std::string::npos);
+  CHECK(header.find(R"(format="appended")") != std::string::npos);
   vtkDataArray* t = g->GetFieldData()->GetArray("TIME");
   REQUIRE(t != nullptr);
   CHECK(t->GetComponent(0, 0) == time);

@@ -7,14 +7,13 @@
 // reproduces a linear head exactly, so the checks need only solver round-off: the system is
 // a handful of unknowns with a direct solve, well conditioned, and 1e-9 relative leaves
 // orders of magnitude of room above that round-off while catching any modelling slip.
-#include <catch2/catch.hpp>
-
 #include <vtkCellData.h>
 #include <vtkDataArray.h>
 #include <vtkNew.h>
 #include <vtkRectilinearGrid.h>
 #include <vtkXMLRectilinearGridReader.h>
 
+#include <catch2/catch.hpp>
 #include <cstdlib>
 #include <fstream>
 
@@ -43,7 +42,8 @@ class Recorder : public SimulationObserver {
   void step_done(const StepInfo& info, std::span<const double> head_old,
                  std::span<const double> head_new) override {
     update_cell_fields(model_, layout_, info.steady, info.dt, initial_, head_old, head_new, fields);
-    const WaterBudget b = step_budget(model_, layout_, info.period, info.steady, info.dt, head_old, head_new);
+    const WaterBudget b =
+        step_budget(model_, layout_, info.period, info.steady, info.dt, head_old, head_new);
     steps.push_back({info.period + 1, info.step, info.time, info.dt, b});
     add_observations(info.period + 1, info.step, info.time, head_new);
   }
@@ -72,8 +72,10 @@ std::vector<std::vector<std::string>> read_csv(const std::filesystem::path& p) {
   for (std::string line; std::getline(in, line);) {
     rows.emplace_back(1);
     for (char ch : line) {
-      if (ch == ',') rows.back().emplace_back();
-      else rows.back().back() += ch;
+      if (ch == ',')
+        rows.back().emplace_back();
+      else
+        rows.back().back() += ch;
     }
   }
   return rows;
@@ -163,5 +165,37 @@ TEST_CASE("written fields, budget and observations of a steady strip obey Darcy'
   CHECK(num(obs[3][dd]) == Approx(18.0 - exact(37.0)).epsilon(1e-9));
   CHECK(obs[4][0] == "north edge");
   CHECK(num(obs[4][h]) == Approx(exact(61.0)).epsilon(1e-9));
+  std::filesystem::remove_all(folder);
+}
+
+// One-sided budget: steady recharge R over a strip closed on three sides leaves only through
+// the fixed-head column, so the written fixed_head_out equals R times the recharged area and
+// fixed_head_in is zero (conservation of mass in a steady state; no storage term).
+// Tolerance: the steady Newton solve stops at flow_tolerance 1e-6 of the throughflow, well
+// below 1e-5 relative.
+TEST_CASE("written budget of recharge draining to a fixed head balances one-sidedly",
+          "[io][end-to-end]") {
+  test::AquiferSpec a;
+  a.condition = Condition::water_table;
+  a.top = 30.0;
+  a.bottom = 0.0;
+  a.k = 2.0;
+  a.initial_head = 20.0;
+  Model m = test::make_model({50.0, 50.0, 50.0, 50.0}, {40.0, 40.0}, a);
+  test::add_period(m, 1.0, 1, 1.0, true);
+  test::add_fixed_head(m, test::column_cells(m, 0), 20.0);
+  test::add_recharge(m, {0.001});  // m/d
+  Recorder rec(m);
+  REQUIRE(run_simulation(m, rec).converged);
+  const auto folder = aquiledger::testing::scratch_folder("end-to-end-recharge");
+  write_budget_steps_csv(folder / "budget_steps.csv", rec.steps);
+  const auto budget = read_csv(folder / "budget_steps.csv");
+  REQUIRE(budget.size() == 2);
+  // Recharge reaches the 6 cells that are not fixed (6 x 2000 m2): 12 m3/d; the fixed
+  // cells receive none (fixed cells take no stress, physics decisions).
+  const double recharge = 0.001 * 6 * 50.0 * 40.0;
+  CHECK(num(budget[1][column(budget[0], "recharge_in")]) == Approx(recharge).epsilon(1e-12));
+  CHECK(num(budget[1][column(budget[0], "fixed_head_out")]) == Approx(recharge).epsilon(1e-5));
+  CHECK(num(budget[1][column(budget[0], "fixed_head_in")]) == Approx(0.0).margin(1e-5 * recharge));
   std::filesystem::remove_all(folder);
 }

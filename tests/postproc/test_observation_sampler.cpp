@@ -1,5 +1,4 @@
 #include <catch2/catch.hpp>
-
 #include <cmath>
 
 #include "postproc/observation_sampler.hpp"
@@ -51,8 +50,7 @@ TEST_CASE("bilinear sampling reproduces a linear head field on an uneven grid",
 
 // Beyond the outermost centres in x (the western half of column 0, x < 1005), the contract
 // interpolates along y only; the head is then linear in y at the column's centre x.
-TEST_CASE("edge half-cells interpolate along the other direction only",
-          "[postproc][observation]") {
+TEST_CASE("edge half-cells interpolate along the other direction only", "[postproc][observation]") {
   RectilinearGrid g({10.0, 30.0, 20.0}, {40.0, 10.0, 25.0}, 1000.0, 2000.0);
   const auto h = linear_heads(g, 30.0, 0.02, -0.05);
   // West edge half-cell: x = 1002 < centre 1005, y between row centres 2055 and 2030.
@@ -76,8 +74,7 @@ TEST_CASE("edge half-cells interpolate along the other direction only",
 TEST_CASE("corner quarter-cells and inactive neighbours take the containing cell's head",
           "[postproc][observation]") {
   // 3 x 3, 10 m cells, origin (0, 0); the centre cell (row 1, col 1) inactive.
-  RectilinearGrid g({10.0, 10.0, 10.0}, {10.0, 10.0, 10.0}, 0.0, 0.0,
-                    {1, 1, 1, 1, 0, 1, 1, 1, 1});
+  RectilinearGrid g({10.0, 10.0, 10.0}, {10.0, 10.0, 10.0}, 0.0, 0.0, {1, 1, 1, 1, 0, 1, 1, 1, 1});
   std::vector<double> h(9);
   for (int c = 0; c < 9; ++c) h[c] = 10.0 + c;
   h[4] = NAN;
@@ -108,7 +105,8 @@ TEST_CASE("corner quarter-cells and inactive neighbours take the containing cell
 //   scaled RMSE = 0.42426 / (48.5 - 47.0) = 0.28284
 // Tolerance: the inputs carry about 1e-16 relative rounding; 1e-12 leaves ample room.
 TEST_CASE("residual statistics match a hand computation", "[postproc][observation]") {
-  const std::vector<MeasuredHead> measured = {{5.0, 48.5}, {10.0, 48.2}, {15.0, 47.0}, {25.0, 46.0}};
+  const std::vector<MeasuredHead> measured = {
+      {5.0, 48.5}, {10.0, 48.2}, {15.0, 47.0}, {25.0, 46.0}};
   const std::vector<double> times = {0.0, 10.0, 20.0};
   const std::vector<double> simulated = {50.0, 48.0, 47.0};
   const ResidualStatistics r = residual_statistics(measured, times, simulated);
