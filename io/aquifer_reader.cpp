@@ -198,6 +198,9 @@ void read_aquifer(ReaderContext& ctx, const toml::table& root, Model& model) {
   const std::size_t n = k->values.size();
   a.kx = k->values;
   a.ky = k->values;
+  for (const auto* f : {&k, &sy, &ss})
+    if (*f && !(*f)->zone.empty())
+      model.zone_maps.push_back({f == &k ? "k" : f == &sy ? "specific_yield" : "specific_storage", (*f)->zone});
   if (ratio)
     for (std::size_t c = 0; c < n; ++c) a.ky[c] *= ratio->values[c];
   a.bottom = std::move(bottom->values);

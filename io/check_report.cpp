@@ -2,6 +2,7 @@
 
 #include <cmath>
 #include <cstdio>
+#include <map>
 #include <string>
 
 #include "io/period_value_reader.hpp"
@@ -121,6 +122,45 @@ void aquifer_part(Report& r, const Model& m) {
   }
 }
 
+/// Ranges of each zoned property, zone by zone (active cells only).
+void zone_part(Report& r, const Model& m) {
+  const RectilinearGrid& g = m.grid;
+  const Aquifer& a = m.aquifer;
+  for (const ZoneMap& zm : m.zone_maps) {
+    const std::vector<double>* values = zm.key == "k"                ? &a.kx
+                                        : zm.key == "specific_yield" ? &a.specific_yield
+                                                                     : &a.specific_storage;
+    if (values->empty()) continue;
+    std::map<int, std::vector<std::size_t>> cells;
+    for (std::size_t c = 0; c < zm.zone.size(); ++c)
+      if (g.is_active(CellIndex{static_cast<std::int32_t>(c)})) cells[zm.zone[c]].push_back(c);
+    const std::string L = m.length_unit, T = m.time_unit;
+    for (const auto& [zone, list] : cells) {
+      auto range = [&](auto value_of) {
+        std::pair<double, double> mm{INFINITY, -INFINITY};
+        for (std::size_t c : list) mm = {std::min(mm.first, value_of(c)), std::max(mm.second, value_of(c))};
+        return mm;
+      };
+      std::string text = std::to_string(list.size()) + " cells; ";
+      if (zm.key == "k") {
+        text += "Kx " + range_text(range([&](std::size_t c) { return a.kx[c]; }), L + "/" + T);
+        if (!std::isnan(a.top[list.front()]))
+          text += ", T " + range_text(range([&](std::size_t c) { return a.kx[c] * (a.top[c] - a.bottom[c]); }),
+                                      L + "2/" + T);
+      } else if (zm.key == "specific_yield") {
+        text += "Sy " + range_text(range([&](std::size_t c) { return a.specific_yield[c]; }), "");
+      } else {
+        text += "Ss " + range_text(range([&](std::size_t c) { return a.specific_storage[c]; }), "1/" + L);
+        if (!std::isnan(a.top[list.front()]))
+          text += ", S " + range_text(range([&](std::size_t c) {
+                                        return a.specific_storage[c] * (a.top[c] - a.bottom[c]);
+                                      }), "");
+      }
+      r.item("  " + zm.key + " zone " + std::to_string(zone), text);
+    }
+  }
+}
+
 void period_part(Report& r, const Model& m) {
   const std::string T = m.time_unit;
   r.heading("Periods");
@@ -213,6 +253,7 @@ std::string format_check_report(const Model& m) {
   r.item("units", "length " + m.length_unit + ", time " + m.time_unit);
   grid_part(r, m);
   aquifer_part(r, m);
+  zone_part(r, m);
   period_part(r, m);
   feature_part(r, m);
   settings_part(r, m);

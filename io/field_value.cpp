@@ -145,6 +145,7 @@ std::optional<CellField> read_zones(ReaderContext& ctx, const toml::table& t,
   field.file = zones.file;
   field.row_line = zones.row_line;
   field.values.assign(zones.values.size(), std::nan(""));
+  field.zone.assign(zones.values.size(), 0);
   std::map<long long, std::pair<int, int>> missing;  // zone -> (cell count, first cell)
   for (std::size_t c = 0; c < zones.values.size(); ++c) {
     const double z = zones.values[c];
@@ -158,6 +159,7 @@ std::optional<CellField> read_zones(ReaderContext& ctx, const toml::table& t,
     auto it = zone_value.find(static_cast<long long>(z));
     if (it != zone_value.end()) {
       field.values[c] = it->second;
+      field.zone[c] = static_cast<int>(z);
     } else if (active_cell(ctx, c)) {
       auto& m = missing[static_cast<long long>(z)];
       if (m.first++ == 0) m.second = int(c);

@@ -19,6 +19,7 @@ struct CellField {
   std::filesystem::path file;  ///< the array file, empty for a number
   std::vector<int> row_line;   ///< line of each grid row in `file` (empty for a number)
   bool uniform = false;        ///< given as one number
+  std::vector<int> zone;       ///< zone number per cell when given by zones (0 = none)
 };
 
 /// True when the node looks like a field value (a number or a table with file/zones).

@@ -141,6 +141,12 @@ struct SolverSettings {
   int threads = 0;  ///< 0 = all cores
 };
 
+/// Zone numbers of an aquifer property given as { zones, values }, kept for reports.
+struct ZoneMap {
+  std::string key;        ///< the property, e.g. "k" or "specific_yield"
+  std::vector<int> zone;  ///< per grid cell; 0 where no zone applies
+};
+
 struct Model {
   std::filesystem::path source_file;  ///< the model file, for messages
   std::string title;
@@ -161,6 +167,7 @@ struct Model {
   std::vector<Observation> observations;
   OutputSettings output;
   SolverSettings solver;
+  std::vector<ZoneMap> zone_maps;     ///< aquifer properties given by zones (reports only)
   std::vector<std::string> warnings;  ///< from the reader's plausibility checks
 };
 

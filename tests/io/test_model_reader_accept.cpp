@@ -4,6 +4,7 @@
 #include <fstream>
 #include <sstream>
 
+#include "io/check_report.hpp"
 #include "tests/io/reader_test_support.hpp"
 
 using namespace reader_test;
@@ -209,6 +210,13 @@ TEST_CASE("zones give each cell its zone's value", "[reader][accept]") {
   CHECK(m.aquifer.kx[m.grid.cell(0, 0).value] == 5.0);
   CHECK(m.aquifer.kx[m.grid.cell(1, 3).value] == 8.0);
   CHECK(m.aquifer.kx[m.grid.cell(2, 2).value] == 0.5);
+  // The check report breaks the range down zone by zone; zones_3x4.txt has 4, 4 and 4 cells.
+  REQUIRE(m.zone_maps.size() == 1);
+  CHECK(m.zone_maps[0].zone[m.grid.cell(1, 3).value] == 2);
+  const std::string text = format_check_report(m);
+  INFO(text);
+  CHECK(text.find("k zone 1                             4 cells; Kx 5 m/d") != std::string::npos);
+  CHECK(text.find("k zone 3                             4 cells; Kx 0.5 m/d") != std::string::npos);
 }
 
 TEST_CASE("variable dx and dy from an array and a file", "[reader][accept]") {
