@@ -72,8 +72,10 @@ void ResultRecorder::step_done(const StepInfo& info, std::span<const double> hea
   time_ = info.time;
   step_rows_.push_back({info.period + 1, info.step, info.time, info.dt, std::move(rates)});
 
-  update_cell_fields(model_, layout_, info.steady, info.dt, initial_head_, head_old, head_new,
-                     fields_);
+  // Cell fields exist only for the field files; compaction accumulates inside them.
+  if (model_.output.fields != FieldCadence::none)
+    update_cell_fields(model_, layout_, info.steady, info.dt, initial_head_, head_old, head_new,
+                       fields_);
   const std::vector<double> observed = sampler_.sample(head_new);
   for (std::size_t k = 0; k < observed.size(); ++k)
     observation_rows_.push_back(
