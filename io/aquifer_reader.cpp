@@ -39,7 +39,9 @@ void read_compressibility(ReaderContext& ctx, const toml::node& node, Model& mod
   const std::string path = "[aquifer].compressibility";
   const toml::table* t = node.as_table();
   if (!t) {
-    ctx.error(node, path, "expected { skeleton = (1/Pa), porosity = (-) }, found " + type_name(node) + " " + show(node));
+    ctx.error(node, path,
+              "expected { skeleton = (1/Pa), porosity = (-) }, found " + type_name(node) + " " +
+                  show(node));
     return;
   }
   check_keys(ctx, *t, path, {"skeleton", "porosity", "water", "density", "gravity"});
@@ -50,8 +52,13 @@ void read_compressibility(ReaderContext& ctx, const toml::node& node, Model& mod
   c.density = read_number(ctx, *t, "density", path, false).value_or(default_density);
   c.gravity = read_number(ctx, *t, "gravity", path, false).value_or(default_gravity);
   bool ok = alpha && n;
-  if (alpha) ok &= check_field(ctx, *alpha, path + ".skeleton", [](double v) { return v >= 0.0; }, ">= 0 1/Pa");
-  if (n) ok &= check_field(ctx, *n, path + ".porosity", [](double v) { return v > 0.0 && v < 1.0; }, "a porosity in (0, 1)");
+  if (alpha)
+    ok &= check_field(
+        ctx, *alpha, path + ".skeleton", [](double v) { return v >= 0.0; }, ">= 0 1/Pa");
+  if (n)
+    ok &= check_field(
+        ctx, *n, path + ".porosity", [](double v) { return v > 0.0 && v < 1.0; },
+        "a porosity in (0, 1)");
   auto positive = [&](double v, const char* key, const char* unit) {
     if (v > 0.0) return true;
     ctx.error(*t, path + "." + key, "value " + show_number(v) + "; expected > 0 " + unit);
@@ -59,7 +66,9 @@ void read_compressibility(ReaderContext& ctx, const toml::node& node, Model& mod
   };
   ok &= positive(c.density, "density", "kg/m3");
   ok &= positive(c.gravity, "gravity", "m/s2");
-  if (c.water < 0.0) ctx.error(*t, path + ".water", "value " + show_number(c.water) + "; expected >= 0 1/Pa"), ok = false;
+  if (c.water < 0.0)
+    ctx.error(*t, path + ".water", "value " + show_number(c.water) + "; expected >= 0 1/Pa"),
+        ok = false;
   if (!ok || !ctx.grid) return;
   const double per_length = model.length_unit == "ft" ? 0.3048 : 1.0;  // 1/m -> 1/ft
   Aquifer& a = model.aquifer;
@@ -83,20 +92,25 @@ void read_aquifer(ReaderContext& ctx, const toml::table& root, Model& model) {
   const std::string path = "[aquifer]";
   const toml::node* node = root.get("aquifer");
   if (!node || !node->as_table()) {
-    if (node) ctx.error(*node, path, "expected a table, found " + type_name(*node));
-    else ctx.error(ctx.file_spot(), path, "missing required section (bottom, k, condition, storage)");
+    if (node)
+      ctx.error(*node, path, "expected a table, found " + type_name(*node));
+    else
+      ctx.error(ctx.file_spot(), path, "missing required section (bottom, k, condition, storage)");
     return;
   }
   const toml::table& t = *node->as_table();
-  check_keys(ctx, t, path, {"top", "bottom", "k", "k_ratio", "condition", "specific_yield", "specific_storage",
-                            "storativity", "compressibility"});
+  check_keys(ctx, t, path,
+             {"top", "bottom", "k", "k_ratio", "condition", "specific_yield", "specific_storage",
+              "storativity", "compressibility"});
   Aquifer& a = model.aquifer;
   auto condition = read_choice(ctx, t, "condition", path, {"confined", "water_table", "switching"});
   if (!t.contains("condition"))
-    ctx.error(t, path + ".condition", "missing required key (expected confined | water_table | switching)");
-  if (condition) a.condition = *condition == "confined" ? Condition::confined
-                               : *condition == "water_table" ? Condition::water_table
-                                                             : Condition::switching;
+    ctx.error(t, path + ".condition",
+              "missing required key (expected confined | water_table | switching)");
+  if (condition)
+    a.condition = *condition == "confined"      ? Condition::confined
+                  : *condition == "water_table" ? Condition::water_table
+                                                : Condition::switching;
   const bool known = condition.has_value();
   const bool needs_top = known && a.condition != Condition::water_table;
   auto top = read_field_key(ctx, t, "top", path, needs_top);
@@ -104,23 +118,37 @@ void read_aquifer(ReaderContext& ctx, const toml::table& root, Model& model) {
   auto k = read_field_key(ctx, t, "k", path, true);
   auto ratio = read_field_key(ctx, t, "k_ratio", path, false);
   const std::string K = ctx.velocity_unit();
-  if (k) check_field(ctx, *k, path + ".k", [](double v) { return v > 0.0; }, "> 0 " + K + " (hydraulic conductivity)");
-  if (ratio) check_field(ctx, *ratio, path + ".k_ratio", [](double v) { return v > 0.0; }, "> 0 (Ky / Kx)");
-  if (bottom) check_field(ctx, *bottom, path + ".bottom", [](double v) { return std::isfinite(v); }, "an elevation in " + ctx.length_unit);
+  if (k)
+    check_field(
+        ctx, *k, path + ".k", [](double v) { return v > 0.0; },
+        "> 0 " + K + " (hydraulic conductivity)");
+  if (ratio)
+    check_field(
+        ctx, *ratio, path + ".k_ratio", [](double v) { return v > 0.0; }, "> 0 (Ky / Kx)");
+  if (bottom)
+    check_field(
+        ctx, *bottom, path + ".bottom", [](double v) { return std::isfinite(v); },
+        "an elevation in " + ctx.length_unit);
   if (top && bottom) {
     CellField gap = *top;
-    for (std::size_t c = 0; c < gap.values.size(); ++c) gap.values[c] = top->values[c] - bottom->values[c];
-    check_field(ctx, gap, path + ".top", [](double v) { return v > 0.0; },
-                "top above bottom (top - bottom > 0 " + ctx.length_unit + "; the value shown is top - bottom)");
+    for (std::size_t c = 0; c < gap.values.size(); ++c)
+      gap.values[c] = top->values[c] - bottom->values[c];
+    check_field(
+        ctx, gap, path + ".top", [](double v) { return v > 0.0; },
+        "top above bottom (top - bottom > 0 " + ctx.length_unit +
+            "; the value shown is top - bottom)");
   }
 
   // Specific yield: needed unless confined.
   const bool needs_sy = known && a.condition != Condition::confined;
   auto sy = read_field_key(ctx, t, "specific_yield", path, needs_sy);
   if (sy && known && !needs_sy)
-    ctx.warning(sy->at, path + ".specific_yield", "ignored: a confined aquifer has no specific yield");
+    ctx.warning(sy->at, path + ".specific_yield",
+                "ignored: a confined aquifer has no specific yield");
   else if (sy)
-    check_field(ctx, *sy, path + ".specific_yield", [](double v) { return v > 0.0 && v < 1.0; }, "a fraction in (0, 1)");
+    check_field(
+        ctx, *sy, path + ".specific_yield", [](double v) { return v > 0.0 && v < 1.0; },
+        "a fraction in (0, 1)");
 
   // Storage under pressure: exactly one route.
   const char* routes[] = {"specific_storage", "storativity", "compressibility"};
@@ -134,23 +162,32 @@ void read_aquifer(ReaderContext& ctx, const toml::table& root, Model& model) {
   } else if (given.empty() && needs_top && any_transient(model)) {
     ctx.error(t, path + ".specific_storage",
               "missing storage input for a transient " + *condition +
-                  " model: give specific_storage (1/" + ctx.length_unit + "), storativity (-) or compressibility (1/Pa)");
+                  " model: give specific_storage (1/" + ctx.length_unit +
+                  "), storativity (-) or compressibility (1/Pa)");
   }
   if (given.size() == 1 && known && a.condition == Condition::water_table)
-    ctx.warning(ctx.spot(*t.get(given[0])), path + "." + given[0], "ignored: water_table cells store water by specific yield only");
+    ctx.warning(ctx.spot(*t.get(given[0])), path + "." + given[0],
+                "ignored: water_table cells store water by specific yield only");
 
   std::optional<CellField> ss;
   if (given.size() == 1 && given[0] == "specific_storage") {
     ss = read_field_key(ctx, t, "specific_storage", path, true);
-    if (ss) check_field(ctx, *ss, path + ".specific_storage", [](double v) { return v >= 0.0; }, ">= 0 1/" + ctx.length_unit);
+    if (ss)
+      check_field(
+          ctx, *ss, path + ".specific_storage", [](double v) { return v >= 0.0; },
+          ">= 0 1/" + ctx.length_unit);
   } else if (given.size() == 1 && given[0] == "storativity") {
     auto s = read_field_key(ctx, t, "storativity", path, true);
-    if (s && check_field(ctx, *s, path + ".storativity", [](double v) { return v >= 0.0; }, ">= 0 (dimensionless)")) {
+    if (s && check_field(
+                 ctx, *s, path + ".storativity", [](double v) { return v >= 0.0; },
+                 ">= 0 (dimensionless)")) {
       if (!top) {
-        ctx.error(s->at, path + ".storativity", "storativity needs [aquifer].top (Ss = S / (top - bottom))");
+        ctx.error(s->at, path + ".storativity",
+                  "storativity needs [aquifer].top (Ss = S / (top - bottom))");
       } else if (bottom) {
         ss = *s;
-        for (std::size_t c = 0; c < ss->values.size(); ++c) ss->values[c] = s->values[c] / (top->values[c] - bottom->values[c]);
+        for (std::size_t c = 0; c < ss->values.size(); ++c)
+          ss->values[c] = s->values[c] / (top->values[c] - bottom->values[c]);
       }
     }
   } else if (given.size() == 1 && given[0] == "compressibility") {
@@ -174,8 +211,11 @@ void read_initial(ReaderContext& ctx, const toml::table& root, Model& model) {
   const std::string path = "[initial]";
   const toml::node* node = root.get("initial");
   if (!node || !node->as_table()) {
-    if (node) ctx.error(*node, path, "expected a table, found " + type_name(*node));
-    else ctx.error(ctx.file_spot(), path, "missing required section (head = field value, or steady = true)");
+    if (node)
+      ctx.error(*node, path, "expected a table, found " + type_name(*node));
+    else
+      ctx.error(ctx.file_spot(), path,
+                "missing required section (head = field value, or steady = true)");
     return;
   }
   const toml::table& t = *node->as_table();
@@ -189,7 +229,9 @@ void read_initial(ReaderContext& ctx, const toml::table& root, Model& model) {
   if (steady) return;
   auto head = read_field_key(ctx, t, "head", path, true);
   if (!head) return;
-  if (!check_field(ctx, *head, path + ".head", [](double v) { return std::isfinite(v); }, "a head in " + ctx.length_unit))
+  if (!check_field(
+          ctx, *head, path + ".head", [](double v) { return std::isfinite(v); },
+          "a head in " + ctx.length_unit))
     return;
   if (!ctx.diagnostics.has_errors()) model.initial.head = std::move(head->values);
 }

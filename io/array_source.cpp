@@ -49,8 +49,8 @@ std::string lower(std::string s) {
 }
 
 /// Reads the six (or five, without NODATA_value) header lines of a raster.
-void read_raster_header(std::ifstream& in, int& line_no, ArraySource& out, std::string& first_data_line,
-                        int& first_data_line_no) {
+void read_raster_header(std::ifstream& in, int& line_no, ArraySource& out,
+                        std::string& first_data_line, int& first_data_line_no) {
   RasterHeader h;
   bool have_ncols = false, have_nrows = false, have_x = false, have_y = false, have_size = false;
   std::string line;
@@ -59,8 +59,9 @@ void read_raster_header(std::ifstream& in, int& line_no, ArraySource& out, std::
     auto tokens = split_tokens(line);
     if (tokens.empty()) continue;
     const std::string key = lower(tokens[0]);
-    const bool is_header = key == "ncols" || key == "nrows" || key == "xllcorner" || key == "yllcorner" ||
-                           key == "xllcenter" || key == "yllcenter" || key == "cellsize" || key == "nodata_value";
+    const bool is_header = key == "ncols" || key == "nrows" || key == "xllcorner" ||
+                           key == "yllcorner" || key == "xllcenter" || key == "yllcenter" ||
+                           key == "cellsize" || key == "nodata_value";
     if (!is_header) {
       first_data_line = line;
       first_data_line_no = line_no;
@@ -68,18 +69,21 @@ void read_raster_header(std::ifstream& in, int& line_no, ArraySource& out, std::
     }
     std::optional<double> v = tokens.size() == 2 ? parse_value(tokens[1]) : std::nullopt;
     if (!v) {
-      out.problems.push_back({line_no, "raster header line '" + line + "' needs one number after the key"});
+      out.problems.push_back(
+          {line_no, "raster header line '" + line + "' needs one number after the key"});
       continue;
     }
     if (key == "ncols") h.ncols = static_cast<int>(*v), have_ncols = true;
     if (key == "nrows") h.nrows = static_cast<int>(*v), have_nrows = true;
-    if (key == "xllcorner" || key == "xllcenter") h.xll = *v, have_x = true, h.centre_given = key == "xllcenter";
+    if (key == "xllcorner" || key == "xllcenter")
+      h.xll = *v, have_x = true, h.centre_given = key == "xllcenter";
     if (key == "yllcorner" || key == "yllcenter") h.yll = *v, have_y = true;
     if (key == "cellsize") h.cellsize = *v, have_size = true;
     if (key == "nodata_value") h.nodata = *v;
   }
   if (!(have_ncols && have_nrows && have_x && have_y && have_size))
-    out.problems.push_back({line_no, "raster header incomplete: needs ncols, nrows, xllcorner, yllcorner, cellsize"});
+    out.problems.push_back(
+        {line_no, "raster header incomplete: needs ncols, nrows, xllcorner, yllcorner, cellsize"});
   out.raster = h;
 }
 
@@ -93,9 +97,10 @@ void read_data_line(const std::string& line, int line_no, ArraySource& out) {
     auto v = parse_value(tokens[t]);
     if (!v) {
       const std::string lower_token = lower(tokens[t]);
-      const bool is_nan = lower_token.find("nan") != std::string::npos || lower_token.find("inf") != std::string::npos;
-      out.problems.push_back({line_no, (is_nan ? "value '" : "not a number: '") + tokens[t] + "' (value " +
-                                           std::to_string(t + 1) + " on the line)" +
+      const bool is_nan = lower_token.find("nan") != std::string::npos ||
+                          lower_token.find("inf") != std::string::npos;
+      out.problems.push_back({line_no, (is_nan ? "value '" : "not a number: '") + tokens[t] +
+                                           "' (value " + std::to_string(t + 1) + " on the line)" +
                                            (is_nan ? " is not a finite number" : "")});
       row.values.push_back(std::nan(""));
       continue;

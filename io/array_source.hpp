@@ -23,10 +23,10 @@ struct ArrayProblem {
 struct RasterHeader {
   int ncols = 0;
   int nrows = 0;
-  double xll = 0.0;          ///< L, x of the lower-left corner (or centre, see below)
-  double yll = 0.0;          ///< L
-  bool centre_given = false; ///< xllcenter/yllcenter instead of corner
-  double cellsize = 0.0;     ///< L
+  double xll = 0.0;           ///< L, x of the lower-left corner (or centre, see below)
+  double yll = 0.0;           ///< L
+  bool centre_given = false;  ///< xllcenter/yllcenter instead of corner
+  double cellsize = 0.0;      ///< L
   std::optional<double> nodata;
 };
 

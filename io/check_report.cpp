@@ -4,8 +4,8 @@
 #include <cstdio>
 #include <string>
 
-#include "io/plausibility.hpp"
 #include "io/period_value_reader.hpp"
+#include "io/plausibility.hpp"
 
 namespace aquiledger {
 
@@ -17,7 +17,9 @@ double first_step_length(const Period& p) {
   return p.length * (g - 1.0) / (std::pow(g, n) - 1.0);
 }
 
-double last_step_length(const Period& p) { return first_step_length(p) * std::pow(p.growth, p.steps - 1); }
+double last_step_length(const Period& p) {
+  return first_step_length(p) * std::pow(p.growth, p.steps - 1);
+}
 
 namespace {
 
@@ -54,7 +56,9 @@ std::string range_text(std::pair<double, double> r, const std::string& unit) {
 }
 
 const char* condition_name(Condition c) {
-  return c == Condition::confined ? "confined" : c == Condition::water_table ? "water_table" : "switching";
+  return c == Condition::confined      ? "confined"
+         : c == Condition::water_table ? "water_table"
+                                       : "switching";
 }
 
 void grid_part(Report& r, const Model& m) {
@@ -67,7 +71,8 @@ void grid_part(Report& r, const Model& m) {
   };
   r.heading("Grid");
   r.item("rows x columns", std::to_string(g.n_rows()) + " x " + std::to_string(g.n_cols()) + " = " +
-                               std::to_string(g.n_cells()) + " cells, " + std::to_string(g.n_active()) + " active");
+                               std::to_string(g.n_cells()) + " cells, " +
+                               std::to_string(g.n_active()) + " active");
   r.item("x (west to east)", g3(g.x_min()) + " .. " + g3(g.x_max()) + " " + L);
   r.item("y (south to north)", g3(g.y_min()) + " .. " + g3(g.y_max()) + " " + L);
   r.item("column widths dx", range_text(span_range(dx), L));
@@ -78,9 +83,11 @@ void aquifer_part(Report& r, const Model& m) {
   const RectilinearGrid& g = m.grid;
   const Aquifer& a = m.aquifer;
   const std::string L = m.length_unit, T = m.time_unit;
-  r.heading("Aquifer (" + std::string(condition_name(a.condition)) + ", ranges over the active cells)");
-  r.item("top", a.condition == Condition::water_table && std::isnan(active_range(g, a.top).first) ? "- (not needed)"
-                                                                                                   : range_text(active_range(g, a.top), L));
+  r.heading("Aquifer (" + std::string(condition_name(a.condition)) +
+            ", ranges over the active cells)");
+  r.item("top", a.condition == Condition::water_table && std::isnan(active_range(g, a.top).first)
+                    ? "- (not needed)"
+                    : range_text(active_range(g, a.top), L));
   r.item("bottom", range_text(active_range(g, a.bottom), L));
   r.item("Kx", range_text(active_range(g, a.kx), L + "/" + T));
   r.item("Ky", range_text(active_range(g, a.ky), L + "/" + T));
@@ -102,11 +109,13 @@ void aquifer_part(Report& r, const Model& m) {
   if (a.compressibility) {
     const Compressibility& c = *a.compressibility;
     r.item("storage route", "compressibility, Ss = rho g (alpha + n beta) (Jacob, 1940)");
-    r.item("  alpha, n, beta", g3(c.skeleton) + " 1/Pa, " + g3(c.porosity) + ", " + g3(c.water) + " 1/Pa (means)");
+    r.item("  alpha, n, beta",
+           g3(c.skeleton) + " 1/Pa, " + g3(c.porosity) + ", " + g3(c.water) + " 1/Pa (means)");
     r.item("  rho, g", g3(c.density) + " kg/m3, " + g3(c.gravity) + " m/s2");
     auto share = active_range(g, a.skeleton_share);
-    r.item("  skeleton : water", range_text({100.0 * share.first, 100.0 * share.second}, "%") + " : " +
-                                     range_text({100.0 * (1.0 - share.second), 100.0 * (1.0 - share.first)}, "%"));
+    r.item("  skeleton : water",
+           range_text({100.0 * share.first, 100.0 * share.second}, "%") + " : " +
+               range_text({100.0 * (1.0 - share.second), 100.0 * (1.0 - share.first)}, "%"));
   } else if (a.condition != Condition::water_table) {
     r.item("storage route", "specific storage given (one elastic budget column)");
   }
@@ -115,18 +124,21 @@ void aquifer_part(Report& r, const Model& m) {
 void period_part(Report& r, const Model& m) {
   const std::string T = m.time_unit;
   r.heading("Periods");
-  r.item("initial state", m.initial.steady ? "steady state of period 1's stresses"
-                                           : "head " + range_text(active_range(m.grid, m.initial.head), m.length_unit));
+  r.item("initial state",
+         m.initial.steady
+             ? "steady state of period 1's stresses"
+             : "head " + range_text(active_range(m.grid, m.initial.head), m.length_unit));
   char b[256];
-  std::snprintf(b, sizeof b, "%-3s %-24s %-9s %10s %6s %7s %11s %11s", "#", "name", "kind", "length", "steps", "growth",
-                "first dt", "last dt");
+  std::snprintf(b, sizeof b, "%-3s %-24s %-9s %10s %6s %7s %11s %11s", "#", "name", "kind",
+                "length", "steps", "growth", "first dt", "last dt");
   r.line(b);
   double time = 0.0;
   for (std::size_t i = 0; i < m.periods.size(); ++i) {
     const Period& p = m.periods[i];
     time += p.length;
-    std::snprintf(b, sizeof b, "%-3zu %-24s %-9s %10s %6d %7s %11s %11s", i + 1, p.name.substr(0, 24).c_str(),
-                  p.steady ? "steady" : "transient", g3(p.length).c_str(), p.steps, g3(p.growth).c_str(),
+    std::snprintf(b, sizeof b, "%-3zu %-24s %-9s %10s %6d %7s %11s %11s", i + 1,
+                  p.name.substr(0, 24).c_str(), p.steady ? "steady" : "transient",
+                  g3(p.length).c_str(), p.steps, g3(p.growth).c_str(),
                   g3(first_step_length(p)).c_str(), g3(last_step_length(p)).c_str());
     r.line(b);
   }
@@ -143,30 +155,39 @@ void feature_part(Report& r, const Model& m) {
   r.heading("Features");
   auto cells = [](std::size_t n) { return std::to_string(n) + (n == 1 ? " cell" : " cells"); };
   for (const Well& w : m.wells)
-    r.item("well \"" + w.name + "\"", cell_text(m.grid, w.cell) + "; rate " + range_text(value_range(w.rate), L + "3/" + T));
+    r.item("well \"" + w.name + "\"",
+           cell_text(m.grid, w.cell) + "; rate " + range_text(value_range(w.rate), L + "3/" + T));
   for (const FixedHead& f : m.fixed_heads)
-    r.item("fixed_head \"" + f.name + "\"", cells(f.cells.size()) + "; head " + range_text(value_range(f.head), L));
+    r.item("fixed_head \"" + f.name + "\"",
+           cells(f.cells.size()) + "; head " + range_text(value_range(f.head), L));
   for (const Recharge& f : m.recharges)
-    r.item("recharge \"" + f.name + "\"", cells(f.cells.size()) + "; rate " + range_text(value_range(f.rate), L + "/" + T));
+    r.item("recharge \"" + f.name + "\"",
+           cells(f.cells.size()) + "; rate " + range_text(value_range(f.rate), L + "/" + T));
   for (const River& f : m.rivers) {
     double total = 0.0;
     for (double l : f.length) total += l;
-    r.item("river \"" + f.name + "\"", cells(f.cells.size()) + "; channel " + g3(total) + " " + L + "; stage " +
-                                           range_text(value_range(f.stage), L));
+    r.item("river \"" + f.name + "\"", cells(f.cells.size()) + "; channel " + g3(total) + " " + L +
+                                           "; stage " + range_text(value_range(f.stage), L));
   }
   for (const Drain& f : m.drains)
-    r.item("drain \"" + f.name + "\"", cells(f.cells.size()) + "; elevation " + range_text(value_range(f.elevation), L));
+    r.item("drain \"" + f.name + "\"",
+           cells(f.cells.size()) + "; elevation " + range_text(value_range(f.elevation), L));
   for (const ExternalHead& f : m.external_heads)
-    r.item("external_head \"" + f.name + "\"", cells(f.cells.size()) + "; head " + range_text(value_range(f.head), L));
+    r.item("external_head \"" + f.name + "\"",
+           cells(f.cells.size()) + "; head " + range_text(value_range(f.head), L));
   for (const Evapotranspiration& f : m.evapotranspiration)
-    r.item("evapotranspiration \"" + f.name + "\"", cells(f.cells.size()) + "; max rate " +
-                                                        range_text(value_range(f.max_rate), L + "/" + T));
+    r.item(
+        "evapotranspiration \"" + f.name + "\"",
+        cells(f.cells.size()) + "; max rate " + range_text(value_range(f.max_rate), L + "/" + T));
   if (m.leakage)
-    r.item("leakage", cells(m.leakage->cells.size()) + "; leakance " + range_text(value_range(m.leakage->leakance), "1/" + T) +
+    r.item("leakage", cells(m.leakage->cells.size()) + "; leakance " +
+                          range_text(value_range(m.leakage->leakance), "1/" + T) +
                           "; source head " + range_text(value_range(m.leakage->source_head), L));
   for (const Observation& o : m.observations)
-    r.item("observation \"" + o.name + "\"", cell_text(m.grid, o.cell) +
-                                                 (o.measured.empty() ? "" : "; " + std::to_string(o.measured.size()) + " measured heads"));
+    r.item("observation \"" + o.name + "\"",
+           cell_text(m.grid, o.cell) +
+               (o.measured.empty() ? ""
+                                   : "; " + std::to_string(o.measured.size()) + " measured heads"));
 }
 
 void settings_part(Report& r, const Model& m) {
@@ -178,8 +199,10 @@ void settings_part(Report& r, const Model& m) {
   r.item("fields, budget", std::string(fields) + ", " + (m.output.budget ? "yes" : "no"));
   const char* linear[] = {"auto", "direct", "pcg", "bicgstab"};
   r.item("linear solver", linear[static_cast<int>(m.solver.linear)]);
-  r.item("tolerances", "head " + g3(m.solver.head_tolerance) + " " + m.length_unit + ", flow " + g3(m.solver.flow_tolerance));
-  r.item("iterations, cutbacks", std::to_string(m.solver.max_iterations) + ", " + std::to_string(m.solver.max_cutbacks));
+  r.item("tolerances", "head " + g3(m.solver.head_tolerance) + " " + m.length_unit + ", flow " +
+                           g3(m.solver.flow_tolerance));
+  r.item("iterations, cutbacks",
+         std::to_string(m.solver.max_iterations) + ", " + std::to_string(m.solver.max_cutbacks));
 }
 
 }  // namespace
@@ -193,7 +216,9 @@ std::string format_check_report(const Model& m) {
   period_part(r, m);
   feature_part(r, m);
   settings_part(r, m);
-  r.heading(m.warnings.empty() ? "No warnings" : "Warnings (" + std::to_string(m.warnings.size()) + ", none stops a run)");
+  r.heading(m.warnings.empty()
+                ? "No warnings"
+                : "Warnings (" + std::to_string(m.warnings.size()) + ", none stops a run)");
   for (const std::string& w : m.warnings) r.line("- " + w);
   return r.take();
 }

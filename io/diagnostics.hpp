@@ -12,9 +12,9 @@ enum class Severity { error, warning };
 struct Diagnostic {
   Severity severity = Severity::error;
   std::filesystem::path file;
-  int line = 0;    ///< 1-based; 0 when unknown
-  int column = 0;  ///< 1-based; 0 when unknown
-  std::string key; ///< key path, e.g. "[aquifer].k" or "[[well]] 'north well'.pumping_rate"
+  int line = 0;     ///< 1-based; 0 when unknown
+  int column = 0;   ///< 1-based; 0 when unknown
+  std::string key;  ///< key path, e.g. "[aquifer].k" or "[[well]] 'north well'.pumping_rate"
   std::string message;
   /// "path:line:column: error: key: message" (line and column left out when unknown).
   std::string to_string() const;

@@ -34,11 +34,13 @@ std::vector<CellIndex> edge_cells(const RectilinearGrid& g, const std::string& e
   return cells;
 }
 
-std::optional<std::vector<CellIndex>> listed_cells(ReaderContext& ctx, const toml::node& node, const std::string& key) {
+std::optional<std::vector<CellIndex>> listed_cells(ReaderContext& ctx, const toml::node& node,
+                                                   const std::string& key) {
   const RectilinearGrid& g = *ctx.grid;
   const toml::array* arr = node.as_array();
   if (!arr) {
-    ctx.error(node, key, "expected an array of [row, col] pairs (1-based), found " + type_name(node));
+    ctx.error(node, key,
+              "expected an array of [row, col] pairs (1-based), found " + type_name(node));
     return std::nullopt;
   }
   std::vector<CellIndex> cells;
@@ -53,17 +55,21 @@ std::optional<std::vector<CellIndex>> listed_cells(ReaderContext& ctx, const tom
     }
     const long long row = (*pair)[0].as_integer()->get(), col = (*pair)[1].as_integer()->get();
     if (row < 1 || row > g.n_rows() || col < 1 || col > g.n_cols()) {
-      ctx.error(item, key, "cell [" + std::to_string(row) + ", " + std::to_string(col) + "] lies outside the grid (rows 1.." +
-                               std::to_string(g.n_rows()) + ", columns 1.." + std::to_string(g.n_cols()) + ")");
+      ctx.error(item, key,
+                "cell [" + std::to_string(row) + ", " + std::to_string(col) +
+                    "] lies outside the grid (rows 1.." + std::to_string(g.n_rows()) +
+                    ", columns 1.." + std::to_string(g.n_cols()) + ")");
       ok = false;
       continue;
     }
     const CellIndex c = g.cell(int(row - 1), int(col - 1));
     if (!g.is_active(c)) {
-      ctx.error(item, key, "cell [" + std::to_string(row) + ", " + std::to_string(col) + "] is inactive");
+      ctx.error(item, key,
+                "cell [" + std::to_string(row) + ", " + std::to_string(col) + "] is inactive");
       ok = false;
     } else if (!seen.insert(c.value).second) {
-      ctx.error(item, key, "cell [" + std::to_string(row) + ", " + std::to_string(col) + "] is listed twice");
+      ctx.error(item, key,
+                "cell [" + std::to_string(row) + ", " + std::to_string(col) + "] is listed twice");
       ok = false;
     } else {
       cells.push_back(c);
@@ -73,8 +79,8 @@ std::optional<std::vector<CellIndex>> listed_cells(ReaderContext& ctx, const tom
   return cells;
 }
 
-std::optional<std::vector<CellIndex>> mask_cells(ReaderContext& ctx, const toml::node& node, const std::string& key,
-                                                 const std::string& path) {
+std::optional<std::vector<CellIndex>> mask_cells(ReaderContext& ctx, const toml::node& node,
+                                                 const std::string& key, const std::string& path) {
   auto field = read_field(ctx, node, key);
   if (!field) return std::nullopt;
   const RectilinearGrid& g = *ctx.grid;
@@ -83,16 +89,20 @@ std::optional<std::vector<CellIndex>> mask_cells(ReaderContext& ctx, const toml:
   for (int c = 0; c < g.n_cells(); ++c) {
     const double v = field->values[std::size_t(c)];
     if (!(v != 0.0) || std::isnan(v)) continue;
-    if (g.is_active(CellIndex{c})) cells.push_back(CellIndex{c});
-    else ++inactive;
+    if (g.is_active(CellIndex{c}))
+      cells.push_back(CellIndex{c});
+    else
+      ++inactive;
   }
   if (inactive > 0)
-    ctx.warning(field->at, path, std::to_string(inactive) + " nonzero mask cell(s) lie in inactive cells and are ignored");
+    ctx.warning(
+        field->at, path,
+        std::to_string(inactive) + " nonzero mask cell(s) lie in inactive cells and are ignored");
   return cells;
 }
 
-std::optional<Placement> polyline_cells(ReaderContext& ctx, const toml::node& node, const std::string& key,
-                                        const std::string& path) {
+std::optional<Placement> polyline_cells(ReaderContext& ctx, const toml::node& node,
+                                        const std::string& key, const std::string& path) {
   const toml::array* arr = node.as_array();
   std::vector<std::array<double, 2>> points;
   if (arr) {
@@ -101,14 +111,17 @@ std::optional<Placement> polyline_cells(ReaderContext& ctx, const toml::node& no
       std::optional<double> x, y;
       if (p && p->size() == 2) x = number_of((*p)[0]), y = number_of((*p)[1]);
       if (!x || !y) {
-        ctx.error(item, key, "expected an [x, y] pair of numbers (" + ctx.length_unit + "), found " + show(item));
+        ctx.error(
+            item, key,
+            "expected an [x, y] pair of numbers (" + ctx.length_unit + "), found " + show(item));
         return std::nullopt;
       }
       points.push_back({*x, *y});
     }
   }
   if (!arr || points.size() < 2) {
-    ctx.error(node, key, "expected an array of at least two [x, y] points (" + ctx.length_unit + ")");
+    ctx.error(node, key,
+              "expected an array of at least two [x, y] points (" + ctx.length_unit + ")");
     return std::nullopt;
   }
   const PolylineCrossing crossing = cross_polyline(*ctx.grid, points);
@@ -120,22 +133,25 @@ std::optional<Placement> polyline_cells(ReaderContext& ctx, const toml::node& no
   }
   const double off = crossing.inactive_length + crossing.outside_length;
   if (p.cells.empty()) {
-    ctx.error(node, key, "the polyline (" + show_number(crossing.total_length) + " " + ctx.length_unit +
-                             " long) crosses no active cell");
+    ctx.error(node, key,
+              "the polyline (" + show_number(crossing.total_length) + " " + ctx.length_unit +
+                  " long) crosses no active cell");
     return std::nullopt;
   }
   if (off > 1.0e-9 * crossing.total_length)
     ctx.warning(ctx.spot(node), path,
-                show_number(off) + " " + ctx.length_unit + " of the polyline's " + show_number(crossing.total_length) + " " +
-                    ctx.length_unit + " lie outside active cells (" + show_number(crossing.outside_length) +
-                    " outside the grid, " + show_number(crossing.inactive_length) + " in inactive cells) and are not counted");
+                show_number(off) + " " + ctx.length_unit + " of the polyline's " +
+                    show_number(crossing.total_length) + " " + ctx.length_unit +
+                    " lie outside active cells (" + show_number(crossing.outside_length) +
+                    " outside the grid, " + show_number(crossing.inactive_length) +
+                    " in inactive cells) and are not counted");
   return p;
 }
 
 }  // namespace
 
-std::optional<Placement> read_placement(ReaderContext& ctx, const toml::table& table, const std::string& path,
-                                        PlacementDefault fallback) {
+std::optional<Placement> read_placement(ReaderContext& ctx, const toml::table& table,
+                                        const std::string& path, PlacementDefault fallback) {
   static const char* const keys[] = {"edge", "cells", "mask", "polyline"};
   std::vector<std::string> given;
   for (const char* k : keys)
@@ -153,7 +169,8 @@ std::optional<Placement> read_placement(ReaderContext& ctx, const toml::table& t
   p.at = ctx.spot(table);
   if (given.empty()) {
     if (fallback == PlacementDefault::required) {
-      ctx.error(table, path, "missing placement: give one of edge, cells, mask, polyline or x and y");
+      ctx.error(table, path,
+                "missing placement: give one of edge, cells, mask, polyline or x and y");
       return std::nullopt;
     }
     p.defaulted = true;
@@ -169,15 +186,18 @@ std::optional<Placement> read_placement(ReaderContext& ctx, const toml::table& t
     p.at = ctx.spot(*table.get("x"));
     const auto cell = ctx.grid->locate(*x, *y);
     if (!cell) {
-      ctx.error(p.at, path + ".x", "point (" + show_number(*x) + ", " + show_number(*y) + ") lies outside the grid (x " +
-                                       show_number(ctx.grid->x_min()) + ".." + show_number(ctx.grid->x_max()) + ", y " +
-                                       show_number(ctx.grid->y_min()) + ".." + show_number(ctx.grid->y_max()) + " " +
-                                       ctx.length_unit + ")");
+      ctx.error(p.at, path + ".x",
+                "point (" + show_number(*x) + ", " + show_number(*y) +
+                    ") lies outside the grid (x " + show_number(ctx.grid->x_min()) + ".." +
+                    show_number(ctx.grid->x_max()) + ", y " + show_number(ctx.grid->y_min()) +
+                    ".." + show_number(ctx.grid->y_max()) + " " + ctx.length_unit + ")");
       return std::nullopt;
     }
     if (!ctx.grid->is_active(*cell)) {
-      ctx.error(p.at, path + ".x", "point (" + show_number(*x) + ", " + show_number(*y) + ") lies in an inactive cell (" +
-                                       describe_cell(ctx.grid->n_cols(), cell->value) + ")");
+      ctx.error(p.at, path + ".x",
+                "point (" + show_number(*x) + ", " + show_number(*y) +
+                    ") lies in an inactive cell (" +
+                    describe_cell(ctx.grid->n_cols(), cell->value) + ")");
       return std::nullopt;
     }
     p.cells.push_back(*cell);

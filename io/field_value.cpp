@@ -13,13 +13,16 @@ bool is_field_node(const toml::node& node) {
   return false;
 }
 
-const ArraySource* load_cached(ReaderContext& ctx, const std::filesystem::path& file, const SourceSpot& at,
-                               const std::string& key) {
+const ArraySource* load_cached(ReaderContext& ctx, const std::filesystem::path& file,
+                               const SourceSpot& at, const std::string& key) {
   auto it = ctx.array_cache.find(file);
-  if (it == ctx.array_cache.end()) it = ctx.array_cache.emplace(file, load_array_source(file)).first;
+  if (it == ctx.array_cache.end())
+    it = ctx.array_cache.emplace(file, load_array_source(file)).first;
   const ArraySource& src = it->second;
   if (!src.readable) {
-    ctx.error(at, key, "cannot open array file '" + file.string() + "' (relative paths start in the model file's folder)");
+    ctx.error(at, key,
+              "cannot open array file '" + file.string() +
+                  "' (relative paths start in the model file's folder)");
     return nullptr;
   }
   return &src;
@@ -27,7 +30,9 @@ const ArraySource* load_cached(ReaderContext& ctx, const std::filesystem::path& 
 
 namespace {
 
-bool close(double a, double b, double scale) { return std::abs(a - b) <= 1.0e-6 * std::max(1.0, std::abs(scale)); }
+bool close(double a, double b, double scale) {
+  return std::abs(a - b) <= 1.0e-6 * std::max(1.0, std::abs(scale));
+}
 
 /// Checks a raster's header against the grid; one message per mismatch.
 bool check_raster_header(ReaderContext& ctx, const ArraySource& src, const std::string& key) {
@@ -39,10 +44,14 @@ bool check_raster_header(ReaderContext& ctx, const ArraySource& src, const std::
     ctx.error(at, key, "raster header does not match the grid: " + what);
     ok = false;
   };
-  if (h.ncols != g.ncol) mismatch("ncols " + std::to_string(h.ncols) + ", grid ncol " + std::to_string(g.ncol));
-  if (h.nrows != g.nrow) mismatch("nrows " + std::to_string(h.nrows) + ", grid nrow " + std::to_string(g.nrow));
-  const bool uniform_dx = std::all_of(g.dx.begin(), g.dx.end(), [&](double w) { return close(w, h.cellsize, h.cellsize); });
-  const bool uniform_dy = std::all_of(g.dy.begin(), g.dy.end(), [&](double w) { return close(w, h.cellsize, h.cellsize); });
+  if (h.ncols != g.ncol)
+    mismatch("ncols " + std::to_string(h.ncols) + ", grid ncol " + std::to_string(g.ncol));
+  if (h.nrows != g.nrow)
+    mismatch("nrows " + std::to_string(h.nrows) + ", grid nrow " + std::to_string(g.nrow));
+  const bool uniform_dx = std::all_of(g.dx.begin(), g.dx.end(),
+                                      [&](double w) { return close(w, h.cellsize, h.cellsize); });
+  const bool uniform_dy = std::all_of(g.dy.begin(), g.dy.end(),
+                                      [&](double w) { return close(w, h.cellsize, h.cellsize); });
   if (!uniform_dx || !uniform_dy)
     mismatch("cellsize " + show_number(h.cellsize) + " " + ctx.length_unit +
              ", but the grid's dx/dy are not all equal to it (a raster needs a uniform grid)");
@@ -54,7 +63,8 @@ bool check_raster_header(ReaderContext& ctx, const ArraySource& src, const std::
 }
 
 /// Copies a full nrow x ncol array file into the field, checking its shape.
-bool fill_from_file(ReaderContext& ctx, const ArraySource& src, const std::string& key, CellField& field) {
+bool fill_from_file(ReaderContext& ctx, const ArraySource& src, const std::string& key,
+                    CellField& field) {
   const GridShape& g = *ctx.shape;
   bool ok = true;
   for (const ArrayProblem& p : src.problems) {
@@ -72,7 +82,8 @@ bool fill_from_file(ReaderContext& ctx, const ArraySource& src, const std::strin
   for (const ArrayRow& row : src.rows) {
     if (static_cast<int>(row.values.size()) != g.ncol) {
       ctx.error(SourceSpot{src.file, row.line, 0}, key,
-                "line has " + std::to_string(row.values.size()) + " values, expected ncol = " + std::to_string(g.ncol));
+                "line has " + std::to_string(row.values.size()) +
+                    " values, expected ncol = " + std::to_string(g.ncol));
       ok = false;
     }
   }
@@ -81,7 +92,8 @@ bool fill_from_file(ReaderContext& ctx, const ArraySource& src, const std::strin
   field.row_line.resize(static_cast<std::size_t>(g.nrow));
   for (int r = 0; r < g.nrow; ++r) {
     field.row_line[r] = src.rows[r].line;
-    std::copy(src.rows[r].values.begin(), src.rows[r].values.end(), field.values.begin() + std::ptrdiff_t(r) * g.ncol);
+    std::copy(src.rows[r].values.begin(), src.rows[r].values.end(),
+              field.values.begin() + std::ptrdiff_t(r) * g.ncol);
   }
   field.file = src.file;
   return true;
@@ -92,17 +104,21 @@ bool active_cell(const ReaderContext& ctx, std::size_t c) {
 }
 
 /// { zones = "file", values = { 1 = 12.5, ... } }
-std::optional<CellField> read_zones(ReaderContext& ctx, const toml::table& t, const std::string& key, CellField field) {
+std::optional<CellField> read_zones(ReaderContext& ctx, const toml::table& t,
+                                    const std::string& key, CellField field) {
   check_keys(ctx, t, key, {"zones", "values"});
   auto file = read_string(ctx, t, "zones", key, true);
   const toml::node* values_node = t.get("values");
   if (!values_node) {
-    ctx.error(t, key + ".values", "missing required key (expected a table of zone = value, e.g. { 1 = 12.5, 2 = 0.8 })");
+    ctx.error(
+        t, key + ".values",
+        "missing required key (expected a table of zone = value, e.g. { 1 = 12.5, 2 = 0.8 })");
     return std::nullopt;
   }
   const toml::table* values = values_node->as_table();
   if (!values) {
-    ctx.error(*values_node, key + ".values", "expected a table of zone = value, found " + type_name(*values_node));
+    ctx.error(*values_node, key + ".values",
+              "expected a table of zone = value, found " + type_name(*values_node));
     return std::nullopt;
   }
   std::map<long long, double> zone_value;
@@ -115,7 +131,8 @@ std::optional<CellField> read_zones(ReaderContext& ctx, const toml::table& t, co
                 "zone '" + std::string(zone_key.str()) + "' is not an integer zone number");
       ok = false;
     } else if (!number) {
-      ctx.error(v, key + ".values." + std::string(zone_key.str()), "expected a number, found " + type_name(v));
+      ctx.error(v, key + ".values." + std::string(zone_key.str()),
+                "expected a number, found " + type_name(v));
       ok = false;
     } else {
       zone_value[static_cast<long long>(*zone)] = *number;
@@ -134,7 +151,8 @@ std::optional<CellField> read_zones(ReaderContext& ctx, const toml::table& t, co
     if (std::isnan(z) && !active_cell(ctx, c)) continue;
     if (!(z == std::floor(z))) {
       ctx.error(field_cell_spot(zones, ctx.shape->ncol, int(c)), key + ".zones",
-                "zone number " + show_number(z) + " at " + describe_cell(ctx.shape->ncol, int(c)) + " is not an integer");
+                "zone number " + show_number(z) + " at " + describe_cell(ctx.shape->ncol, int(c)) +
+                    " is not an integer");
       return std::nullopt;
     }
     auto it = zone_value.find(static_cast<long long>(z));
@@ -147,15 +165,17 @@ std::optional<CellField> read_zones(ReaderContext& ctx, const toml::table& t, co
   }
   for (auto& [zone, info] : missing)
     ctx.error(field_cell_spot(zones, ctx.shape->ncol, info.second), key + ".values",
-              "zone " + std::to_string(zone) + " is used in " + std::to_string(info.first) + " active cell(s) (first at " +
-                  describe_cell(ctx.shape->ncol, info.second) + ") but has no value");
+              "zone " + std::to_string(zone) + " is used in " + std::to_string(info.first) +
+                  " active cell(s) (first at " + describe_cell(ctx.shape->ncol, info.second) +
+                  ") but has no value");
   if (!missing.empty()) return std::nullopt;
   return field;
 }
 
 }  // namespace
 
-std::optional<CellField> read_field(ReaderContext& ctx, const toml::node& node, const std::string& key) {
+std::optional<CellField> read_field(ReaderContext& ctx, const toml::node& node,
+                                    const std::string& key) {
   CellField field;
   field.at = ctx.spot(node);
   if (auto v = number_of(node)) {
@@ -167,7 +187,8 @@ std::optional<CellField> read_field(ReaderContext& ctx, const toml::node& node, 
   const toml::table* t = node.as_table();
   if (!t || !(t->contains("file") || t->contains("zones"))) {
     ctx.error(node, key,
-              "expected a field value: a number, { file = \"...\" } or { zones = \"...\", values = { 1 = ... } }; found " +
+              "expected a field value: a number, { file = \"...\" } or { zones = \"...\", values = "
+              "{ 1 = ... } }; found " +
                   type_name(node) + " " + show(node));
     return std::nullopt;
   }
@@ -183,12 +204,14 @@ std::optional<CellField> read_field(ReaderContext& ctx, const toml::node& node, 
   return field;
 }
 
-std::optional<CellField> read_field_key(ReaderContext& ctx, const toml::table& table, std::string_view key,
-                                        const std::string& path, bool required) {
+std::optional<CellField> read_field_key(ReaderContext& ctx, const toml::table& table,
+                                        std::string_view key, const std::string& path,
+                                        bool required) {
   const toml::node* node = table.get(key);
   if (!node) {
     if (required)
-      ctx.error(table, key_path(path, key), "missing required key (expected a number, { file = } or { zones =, values = })");
+      ctx.error(table, key_path(path, key),
+                "missing required key (expected a number, { file = } or { zones =, values = })");
     return std::nullopt;
   }
   return read_field(ctx, *node, key_path(path, key));
@@ -210,20 +233,24 @@ bool check_field(ReaderContext& ctx, const CellField& field, const std::string& 
   const int ncol = ctx.shape ? ctx.shape->ncol : 1;
   const double v = field.values[static_cast<std::size_t>(first)];
   std::string message = (field.uniform ? "value " + show_number(v)
-                                        : (std::isnan(v) ? std::string("no value (NODATA)") : "value " + show_number(v)) +
-                                              " at " + describe_cell(ncol, first)) +
+                                       : (std::isnan(v) ? std::string("no value (NODATA)")
+                                                        : "value " + show_number(v)) +
+                                             " at " + describe_cell(ncol, first)) +
                         "; expected " + expected;
   if (!field.uniform && n_bad > 1) message += " (" + std::to_string(n_bad) + " active cells fail)";
   ctx.error(field_cell_spot(field, ncol, first), key, message);
   return false;
 }
 
-std::optional<std::vector<double>> read_spacing(ReaderContext& ctx, const toml::table& table, std::string_view key,
-                                                const std::string& path, int count, const std::string& count_name) {
+std::optional<std::vector<double>> read_spacing(ReaderContext& ctx, const toml::table& table,
+                                                std::string_view key, const std::string& path,
+                                                int count, const std::string& count_name) {
   const std::string name = key_path(path, key);
   const toml::node* node = table.get(key);
   if (!node) {
-    ctx.error(table, name, "missing required key (expected a number, an array of " + count_name + " numbers or { file = })");
+    ctx.error(table, name,
+              "missing required key (expected a number, an array of " + count_name +
+                  " numbers or { file = })");
     return std::nullopt;
   }
   std::vector<double> values;
@@ -234,7 +261,8 @@ std::optional<std::vector<double>> read_spacing(ReaderContext& ctx, const toml::
     for (const toml::node& item : *arr) {
       auto v = number_of(item);
       if (!v) {
-        ctx.error(item, name, "expected numbers in the array, found " + type_name(item) + " " + show(item));
+        ctx.error(item, name,
+                  "expected numbers in the array, found " + type_name(item) + " " + show(item));
         return std::nullopt;
       }
       values.push_back(*v);
@@ -245,22 +273,29 @@ std::optional<std::vector<double>> read_spacing(ReaderContext& ctx, const toml::
     if (!file) return std::nullopt;
     const ArraySource* src = load_cached(ctx, ctx.resolve(*file), at, name);
     if (!src) return std::nullopt;
-    for (const ArrayProblem& p : src->problems) ctx.error(SourceSpot{src->file, p.line, 0}, name, p.message);
+    for (const ArrayProblem& p : src->problems)
+      ctx.error(SourceSpot{src->file, p.line, 0}, name, p.message);
     if (!src->problems.empty()) return std::nullopt;
-    for (const auto& row : src->rows) values.insert(values.end(), row.values.begin(), row.values.end());
+    for (const auto& row : src->rows)
+      values.insert(values.end(), row.values.begin(), row.values.end());
     at = SourceSpot{src->file, 0, 0};
   } else {
-    ctx.error(*node, name, "expected a number, an array of " + count_name + " numbers or { file = }, found " +
-                               type_name(*node) + " " + show(*node));
+    ctx.error(*node, name,
+              "expected a number, an array of " + count_name + " numbers or { file = }, found " +
+                  type_name(*node) + " " + show(*node));
     return std::nullopt;
   }
   if (static_cast<int>(values.size()) != count) {
-    ctx.error(at, name, "has " + std::to_string(values.size()) + " values, expected " + count_name + " = " + std::to_string(count));
+    ctx.error(at, name,
+              "has " + std::to_string(values.size()) + " values, expected " + count_name + " = " +
+                  std::to_string(count));
     return std::nullopt;
   }
   for (std::size_t i = 0; i < values.size(); ++i) {
     if (!(values[i] > 0.0)) {
-      ctx.error(at, name, "value " + show_number(values[i]) + " (entry " + std::to_string(i + 1) + ") must be > 0 " + ctx.length_unit);
+      ctx.error(at, name,
+                "value " + show_number(values[i]) + " (entry " + std::to_string(i + 1) +
+                    ") must be > 0 " + ctx.length_unit);
       return std::nullopt;
     }
   }

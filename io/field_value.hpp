@@ -1,12 +1,12 @@
 #pragma once
 // Field values: a cell property given as a number, { file = }, or { zones =, values = }
 // (io-internal header).
+#include <toml++/toml.h>
+
 #include <functional>
 #include <optional>
 #include <string>
 #include <vector>
-
-#include <toml++/toml.h>
 
 #include "io/reader_context.hpp"
 
@@ -25,9 +25,11 @@ struct CellField {
 bool is_field_node(const toml::node& node);
 
 /// Reads a field value; needs ctx.shape. Returns nullopt (after reporting) when invalid.
-std::optional<CellField> read_field(ReaderContext& ctx, const toml::node& node, const std::string& key);
-std::optional<CellField> read_field_key(ReaderContext& ctx, const toml::table& table, std::string_view key,
-                                        const std::string& path, bool required);
+std::optional<CellField> read_field(ReaderContext& ctx, const toml::node& node,
+                                    const std::string& key);
+std::optional<CellField> read_field_key(ReaderContext& ctx, const toml::table& table,
+                                        std::string_view key, const std::string& path,
+                                        bool required);
 
 /// Reports one error for the cells (active ones once the grid exists) where `ok` fails:
 /// the first offending value, its row and column, the number of such cells and what was
@@ -39,11 +41,12 @@ bool check_field(ReaderContext& ctx, const CellField& field, const std::string& 
 SourceSpot field_cell_spot(const CellField& field, int n_cols, int cell);
 
 /// Column widths or row heights: a number, an array of `count` numbers or { file = }.
-std::optional<std::vector<double>> read_spacing(ReaderContext& ctx, const toml::table& table, std::string_view key,
-                                                const std::string& path, int count, const std::string& count_name);
+std::optional<std::vector<double>> read_spacing(ReaderContext& ctx, const toml::table& table,
+                                                std::string_view key, const std::string& path,
+                                                int count, const std::string& count_name);
 
 /// Loads an array file through the context's cache; reports a missing file.
-const ArraySource* load_cached(ReaderContext& ctx, const std::filesystem::path& file, const SourceSpot& at,
-                               const std::string& key);
+const ArraySource* load_cached(ReaderContext& ctx, const std::filesystem::path& file,
+                               const SourceSpot& at, const std::string& key);
 
 }  // namespace aquiledger

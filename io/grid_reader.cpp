@@ -9,13 +9,15 @@
 
 namespace aquiledger {
 
-const toml::array* section_tables(ReaderContext& ctx, const toml::table& root, std::string_view name) {
+const toml::array* section_tables(ReaderContext& ctx, const toml::table& root,
+                                  std::string_view name) {
   const toml::node* node = root.get(name);
   if (!node) return nullptr;
   const toml::array* arr = node->as_array();
   if (!arr || !arr->is_array_of_tables()) {
     ctx.error(*node, "[[" + std::string(name) + "]]",
-              "expected an array of tables, written [[" + std::string(name) + "]] (double brackets), found " + type_name(*node));
+              "expected an array of tables, written [[" + std::string(name) +
+                  "]] (double brackets), found " + type_name(*node));
     return nullptr;
   }
   return arr;
@@ -49,7 +51,8 @@ void read_model_section(ReaderContext& ctx, const toml::table& root, Model& mode
   check_keys(ctx, *t, "[model]", {"title", "length_unit", "time_unit"});
   if (auto title = read_string(ctx, *t, "title", "[model]", false)) model.title = *title;
   if (auto u = read_choice(ctx, *t, "length_unit", "[model]", {"m", "ft"})) model.length_unit = *u;
-  if (auto u = read_choice(ctx, *t, "time_unit", "[model]", {"s", "min", "h", "d", "yr"})) model.time_unit = *u;
+  if (auto u = read_choice(ctx, *t, "time_unit", "[model]", {"s", "min", "h", "d", "yr"}))
+    model.time_unit = *u;
   ctx.length_unit = model.length_unit;
   ctx.time_unit = model.time_unit;
 }
@@ -71,14 +74,21 @@ bool read_grid_shape(ReaderContext& ctx, const toml::table& root) {
   auto ncol = read_integer(ctx, *t, "ncol", path, true);
   if (!nrow || !ncol) return false;
   bool ok = true;
-  if (*nrow < 1) ctx.error(*t->get("nrow"), path + ".nrow", "value " + std::to_string(*nrow) + "; expected >= 1"), ok = false;
-  if (*ncol < 1) ctx.error(*t->get("ncol"), path + ".ncol", "value " + std::to_string(*ncol) + "; expected >= 1"), ok = false;
+  if (*nrow < 1)
+    ctx.error(*t->get("nrow"), path + ".nrow",
+              "value " + std::to_string(*nrow) + "; expected >= 1"),
+        ok = false;
+  if (*ncol < 1)
+    ctx.error(*t->get("ncol"), path + ".ncol",
+              "value " + std::to_string(*ncol) + "; expected >= 1"),
+        ok = false;
   if (!ok) return false;
   const double n_cells = static_cast<double>(*nrow) * static_cast<double>(*ncol);
   // Cell numbers travel as 32-bit integers.
   if (n_cells > static_cast<double>(std::numeric_limits<std::int32_t>::max())) {
-    ctx.error(*t->get("nrow"), path + ".nrow",
-              "nrow x ncol = " + show_number(n_cells) + " cells; at most 2147483647 cells are supported");
+    ctx.error(
+        *t->get("nrow"), path + ".nrow",
+        "nrow x ncol = " + show_number(n_cells) + " cells; at most 2147483647 cells are supported");
     return false;
   }
   if (auto memory = physical_memory_bytes()) {
@@ -97,7 +107,9 @@ bool read_grid_shape(ReaderContext& ctx, const toml::table& root) {
     std::optional<double> x, y;
     if (arr && arr->size() == 2) x = number_of((*arr)[0]), y = number_of((*arr)[1]);
     if (!x || !y) {
-      ctx.error(*o, path + ".origin", "expected [x, y] of the south-west corner (" + ctx.length_unit + "), found " + show(*o));
+      ctx.error(
+          *o, path + ".origin",
+          "expected [x, y] of the south-west corner (" + ctx.length_unit + "), found " + show(*o));
       ok = false;
     } else {
       shape.x0 = *x;
@@ -117,7 +129,9 @@ void read_active_mask(ReaderContext& ctx, const toml::table& root, Model& model)
   if (const toml::node* node = t.get("active")) {
     auto field = read_field(ctx, *node, "[grid].active");
     if (!field) return;
-    if (!check_field(ctx, *field, "[grid].active", [](double v) { return v == 0.0 || v == 1.0; }, "1 (active) or 0 (outside the model)"))
+    if (!check_field(
+            ctx, *field, "[grid].active", [](double v) { return v == 0.0 || v == 1.0; },
+            "1 (active) or 0 (outside the model)"))
       return;
     active.resize(field->values.size());
     for (std::size_t c = 0; c < active.size(); ++c) active[c] = field->values[c] != 0.0 ? 1 : 0;

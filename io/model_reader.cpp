@@ -1,9 +1,9 @@
 #include "io/model_reader.hpp"
 
+#include <toml++/toml.h>
+
 #include <fstream>
 #include <sstream>
-
-#include <toml++/toml.h>
 
 #include "io/plausibility.hpp"
 #include "io/reader_context.hpp"
@@ -26,8 +26,9 @@ namespace {
 /// against them), the other stresses, observations and settings.
 void read_sections(ReaderContext& ctx, const toml::table& root, Model& model) {
   check_keys(ctx, root, "(top level)",
-             {"model", "grid", "aquifer", "initial", "period", "well", "fixed_head", "recharge", "river", "drain",
-              "external_head", "evapotranspiration", "leakage", "observation", "output", "solver"});
+             {"model", "grid", "aquifer", "initial", "period", "well", "fixed_head", "recharge",
+              "river", "drain", "external_head", "evapotranspiration", "leakage", "observation",
+              "output", "solver"});
   read_model_section(ctx, root, model);
   // Without a usable grid nothing per cell is read; the other sections are still checked for
   // keys and scalar values.
@@ -56,7 +57,8 @@ ReadResult read_parsed(ReaderContext& ctx, const toml::table& root) {
   if (!ctx.diagnostics.has_errors()) {
     for (auto& w : plausibility_warnings(model)) ctx.warning(ctx.file_spot(), w.key, w.message);
     for (const Diagnostic& d : ctx.diagnostics.items())
-      if (d.severity == Severity::warning) model.warnings.push_back((d.key.empty() ? "" : d.key + ": ") + d.message);
+      if (d.severity == Severity::warning)
+        model.warnings.push_back((d.key.empty() ? "" : d.key + ": ") + d.message);
     result.model = std::move(model);
   }
   result.diagnostics = ctx.diagnostics.take();

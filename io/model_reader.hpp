@@ -13,8 +13,8 @@
 namespace aquiledger {
 
 struct ReadResult {
-  std::optional<Model> model;            ///< set when there were no errors
-  std::vector<Diagnostic> diagnostics;   ///< errors and warnings, in the order found
+  std::optional<Model> model;           ///< set when there were no errors
+  std::vector<Diagnostic> diagnostics;  ///< errors and warnings, in the order found
   bool ok() const;
 };
 

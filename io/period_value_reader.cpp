@@ -11,8 +11,10 @@ namespace aquiledger {
 namespace {
 
 /// The table of one period's entry: one number, or the field sampled at the cells.
-std::optional<std::vector<double>> entry_table(ReaderContext& ctx, const toml::node& node, const std::string& key,
-                                               const std::vector<CellIndex>& cells, const ValueRule& rule) {
+std::optional<std::vector<double>> entry_table(ReaderContext& ctx, const toml::node& node,
+                                               const std::string& key,
+                                               const std::vector<CellIndex>& cells,
+                                               const ValueRule& rule) {
   if (auto v = number_of(node)) {
     if (!rule.ok(*v)) {
       ctx.error(node, key, "value " + show_number(*v) + "; expected " + rule.expected);
@@ -28,7 +30,8 @@ std::optional<std::vector<double>> entry_table(ReaderContext& ctx, const toml::n
     const double v = field->values[std::size_t(c.value)];
     if (!rule.ok(v)) {
       ctx.error(field_cell_spot(*field, ctx.shape->ncol, c.value), key,
-                "value " + show_number(v) + " at " + describe_cell(ctx.shape->ncol, c.value) + "; expected " + rule.expected);
+                "value " + show_number(v) + " at " + describe_cell(ctx.shape->ncol, c.value) +
+                    "; expected " + rule.expected);
       return std::nullopt;
     }
     table.push_back(v);
@@ -45,14 +48,18 @@ std::uint32_t table_slot(std::vector<std::vector<double>>& tables, std::vector<d
 
 }  // namespace
 
-std::optional<PeriodValues> read_period_values(ReaderContext& ctx, const toml::table& table, std::string_view key,
-                                               const std::string& path, const std::vector<CellIndex>& cells,
-                                               std::optional<double> fallback, const ValueRule& rule) {
+std::optional<PeriodValues> read_period_values(ReaderContext& ctx, const toml::table& table,
+                                               std::string_view key, const std::string& path,
+                                               const std::vector<CellIndex>& cells,
+                                               std::optional<double> fallback,
+                                               const ValueRule& rule) {
   const std::string name = key_path(path, key);
   const toml::node* node = table.get(key);
   if (!node) {
     if (fallback) return PeriodValues(*fallback);
-    ctx.error(table, name, "missing required key (expected one value, one per period, or a field value; " + rule.expected + ")");
+    ctx.error(table, name,
+              "missing required key (expected one value, one per period, or a field value; " +
+                  rule.expected + ")");
     return std::nullopt;
   }
   const toml::array* arr = node->as_array();
@@ -63,8 +70,9 @@ std::optional<PeriodValues> read_period_values(ReaderContext& ctx, const toml::t
   }
   if (ctx.n_periods == 0) return std::nullopt;  // periods invalid: already reported
   if (static_cast<int>(arr->size()) != ctx.n_periods) {
-    ctx.error(*node, name, "has " + std::to_string(arr->size()) + " entries, expected one per period (" +
-                               std::to_string(ctx.n_periods) + " periods) or a single value");
+    ctx.error(*node, name,
+              "has " + std::to_string(arr->size()) + " entries, expected one per period (" +
+                  std::to_string(ctx.n_periods) + " periods) or a single value");
     return std::nullopt;
   }
   std::vector<std::vector<double>> tables;
@@ -86,7 +94,8 @@ PeriodValues scale_by_cell(const PeriodValues& values, const std::vector<double>
   std::vector<std::vector<double>> tables;
   for (const auto& t : values.tables()) {
     std::vector<double> scaled(factor.size());
-    for (std::size_t i = 0; i < factor.size(); ++i) scaled[i] = (t.size() == 1 ? t[0] : t[i]) * factor[i];
+    for (std::size_t i = 0; i < factor.size(); ++i)
+      scaled[i] = (t.size() == 1 ? t[0] : t[i]) * factor[i];
     tables.push_back(std::move(scaled));
   }
   return PeriodValues(std::move(tables), values.table_of_period());

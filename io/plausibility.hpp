@@ -9,7 +9,7 @@
 namespace aquiledger {
 
 struct PlausibilityWarning {
-  std::string key;      ///< e.g. "[aquifer].k"
+  std::string key;  ///< e.g. "[aquifer].k"
   std::string message;
 };
 
@@ -18,6 +18,7 @@ struct PlausibilityWarning {
 std::vector<PlausibilityWarning> plausibility_warnings(const Model& model);
 
 /// Minimum and maximum over the active cells (NaN, NaN when there are none).
-std::pair<double, double> active_range(const RectilinearGrid& grid, const std::vector<double>& values);
+std::pair<double, double> active_range(const RectilinearGrid& grid,
+                                       const std::vector<double>& values);
 
 }  // namespace aquiledger

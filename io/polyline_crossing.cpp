@@ -18,7 +18,8 @@ void add_crossings(double a, double b, std::span<const double> edges, std::vecto
 
 }  // namespace
 
-PolylineCrossing cross_polyline(const RectilinearGrid& grid, std::span<const std::array<double, 2>> points) {
+PolylineCrossing cross_polyline(const RectilinearGrid& grid,
+                                std::span<const std::array<double, 2>> points) {
   PolylineCrossing out;
   std::unordered_map<std::int32_t, std::size_t> slot;  // cell -> position in out.active
   std::vector<double> t;

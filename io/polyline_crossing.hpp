@@ -23,6 +23,7 @@ struct PolylineCrossing {
 };
 
 /// points: vertices (x, y) in L, at least two.
-PolylineCrossing cross_polyline(const RectilinearGrid& grid, std::span<const std::array<double, 2>> points);
+PolylineCrossing cross_polyline(const RectilinearGrid& grid,
+                                std::span<const std::array<double, 2>> points);
 
 }  // namespace aquiledger

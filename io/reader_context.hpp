@@ -1,12 +1,12 @@
 #pragma once
 // State shared by the section readers while one model file is read (io-internal header).
+#include <toml++/toml.h>
+
 #include <filesystem>
 #include <map>
 #include <optional>
 #include <string>
 #include <vector>
-
-#include <toml++/toml.h>
 
 #include "io/array_source.hpp"
 #include "io/diagnostics.hpp"
@@ -31,10 +31,10 @@ struct ReaderContext {
   Diagnostics diagnostics;
   std::string length_unit = "m";
   std::string time_unit = "d";
-  std::optional<GridShape> shape;      ///< set when [grid] read without errors
-  std::optional<RectilinearGrid> grid; ///< set once the active mask is known too
-  int n_periods = 0;                   ///< 0 while [[period]] is unknown or invalid
-  std::vector<std::uint8_t> fixed;     ///< per cell: 1 when a fixed_head holds it
+  std::optional<GridShape> shape;       ///< set when [grid] read without errors
+  std::optional<RectilinearGrid> grid;  ///< set once the active mask is known too
+  int n_periods = 0;                    ///< 0 while [[period]] is unknown or invalid
+  std::vector<std::uint8_t> fixed;      ///< per cell: 1 when a fixed_head holds it
   std::map<std::filesystem::path, ArraySource> array_cache;
 
   SourceSpot spot(const toml::node& node) const;

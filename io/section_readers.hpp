@@ -1,9 +1,9 @@
 #pragma once
 // The readers of the model file's sections, in the order io/model_reader.cpp calls them
 // (io-internal header). Each reports into ctx and fills its part of the model.
-#include <string>
-
 #include <toml++/toml.h>
+
+#include <string>
 
 #include "io/reader_context.hpp"
 #include "solver/model.hpp"
@@ -32,7 +32,8 @@ void read_output(ReaderContext& ctx, const toml::table& root, Model& model);
 void read_solver(ReaderContext& ctx, const toml::table& root, Model& model);
 
 /// The tables of an array-of-tables section ([[well]] ...); reports a plain [well] table.
-const toml::array* section_tables(ReaderContext& ctx, const toml::table& root, std::string_view name);
+const toml::array* section_tables(ReaderContext& ctx, const toml::table& root,
+                                  std::string_view name);
 /// "[[well]] \"north well\"" or "[[well]] #2" for messages.
 std::string feature_path(std::string_view section, const toml::table& table, std::size_t index);
 /// Warns when an explicitly placed stress lands on fixed-head cells (it is not applied there).

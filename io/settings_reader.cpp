@@ -15,10 +15,15 @@ constexpr long long max_periods = 100000;
 constexpr long long max_steps_per_period = 1000000;
 constexpr long long max_total_steps = 10000000;
 
-const toml::table* optional_table(ReaderContext& ctx, const toml::table& root, std::string_view name) {
+const toml::table* optional_table(ReaderContext& ctx, const toml::table& root,
+                                  std::string_view name) {
   const toml::node* node = root.get(name);
   if (!node) return nullptr;
-  if (!node->as_table()) ctx.error(*node, "[" + std::string(name) + "]", "expected a table, found " + type_name(*node));
+  if (!node->as_table()) {
+    std::string section = "[";
+    section.append(name).append("]");
+    ctx.error(*node, section, "expected a table, found " + type_name(*node));
+  }
   return node->as_table();
 }
 }  // namespace
@@ -26,11 +31,14 @@ const toml::table* optional_table(ReaderContext& ctx, const toml::table& root, s
 void read_periods(ReaderContext& ctx, const toml::table& root, Model& model) {
   const toml::array* periods = section_tables(ctx, root, "period");
   if (!periods) {
-    if (!root.contains("period")) ctx.error(ctx.file_spot(), "[[period]]", "missing required section: at least one [[period]]");
+    if (!root.contains("period"))
+      ctx.error(ctx.file_spot(), "[[period]]", "missing required section: at least one [[period]]");
     return;
   }
   if (static_cast<long long>(periods->size()) > max_periods) {
-    ctx.error(*periods, "[[period]]", std::to_string(periods->size()) + " periods; at most " + std::to_string(max_periods) + " are supported");
+    ctx.error(*periods, "[[period]]",
+              std::to_string(periods->size()) + " periods; at most " + std::to_string(max_periods) +
+                  " are supported");
     return;
   }
   std::vector<std::string> names;
@@ -45,39 +53,53 @@ void read_periods(ReaderContext& ctx, const toml::table& root, Model& model) {
     check_unique_name(ctx, t, path, p.name, names);
     const std::string T = ctx.time_unit;
     if (auto length = read_number(ctx, t, "length", path, true)) {
-      if (!(*length > 0.0)) ctx.error(*t.get("length"), path + ".length", "value " + show_number(*length) + "; expected > 0 " + T);
+      if (!(*length > 0.0))
+        ctx.error(*t.get("length"), path + ".length",
+                  "value " + show_number(*length) + "; expected > 0 " + T);
       p.length = *length;
     }
     if (auto steps = read_integer(ctx, t, "steps", path, false)) {
       if (*steps < 1 || *steps > max_steps_per_period)
         ctx.error(*t.get("steps"), path + ".steps",
-                  "value " + std::to_string(*steps) + "; expected an integer from 1 to " + std::to_string(max_steps_per_period));
-      else p.steps = static_cast<int>(*steps);
+                  "value " + std::to_string(*steps) + "; expected an integer from 1 to " +
+                      std::to_string(max_steps_per_period));
+      else
+        p.steps = static_cast<int>(*steps);
     }
     if (auto growth = read_number(ctx, t, "growth", path, false)) {
-      if (!(*growth > 0.0)) ctx.error(*t.get("growth"), path + ".growth", "value " + show_number(*growth) + "; expected > 0 (ratio of consecutive step lengths)");
+      if (!(*growth > 0.0))
+        ctx.error(
+            *t.get("growth"), path + ".growth",
+            "value " + show_number(*growth) + "; expected > 0 (ratio of consecutive step lengths)");
       p.growth = *growth;
     }
     p.steady = read_bool(ctx, t, "steady", path).value_or(false);
     if (p.steady && p.steps != 1)
-      ctx.warning(ctx.spot(t), path + ".steps", "a steady period is solved once; steps = " + std::to_string(p.steps) + " only divides its time");
+      ctx.warning(ctx.spot(t), path + ".steps",
+                  "a steady period is solved once; steps = " + std::to_string(p.steps) +
+                      " only divides its time");
     total_steps += p.steps;
     model.periods.push_back(p);
   }
   if (total_steps > max_total_steps)
-    ctx.error(*periods, "[[period]]", std::to_string(total_steps) + " time steps in all; at most " + std::to_string(max_total_steps) + " are supported");
-  if (ctx.diagnostics.n_errors() == errors_before) ctx.n_periods = static_cast<int>(model.periods.size());
+    ctx.error(*periods, "[[period]]",
+              std::to_string(total_steps) + " time steps in all; at most " +
+                  std::to_string(max_total_steps) + " are supported");
+  if (ctx.diagnostics.n_errors() == errors_before)
+    ctx.n_periods = static_cast<int>(model.periods.size());
 }
 
 namespace {
 
 /// time,head rows; a first line that is not numbers is a header.
-std::vector<MeasuredHead> read_measured(ReaderContext& ctx, const std::filesystem::path& file, const SourceSpot& at,
-                                        const std::string& key) {
+std::vector<MeasuredHead> read_measured(ReaderContext& ctx, const std::filesystem::path& file,
+                                        const SourceSpot& at, const std::string& key) {
   std::vector<MeasuredHead> rows;
   std::ifstream in(file);
   if (!in) {
-    ctx.error(at, key, "cannot open measured-head file '" + file.string() + "' (expected a CSV with columns time,head)");
+    ctx.error(at, key,
+              "cannot open measured-head file '" + file.string() +
+                  "' (expected a CSV with columns time,head)");
     return rows;
   }
   std::string line;
@@ -101,8 +123,9 @@ std::vector<MeasuredHead> read_measured(ReaderContext& ctx, const std::filesyste
     std::optional<double> head = cells.size() >= 2 ? parse_value(cells[1]) : std::nullopt;
     if (!time || !head || cells.size() != 2) {
       if (rows.empty() && line_no == 1 && cells.size() == 2) continue;  // header line
-      ctx.error(SourceSpot{file, line_no, 0}, key, "expected two numbers time,head (" + ctx.time_unit + ", " +
-                                                       ctx.length_unit + "), found '" + line + "'");
+      ctx.error(SourceSpot{file, line_no, 0}, key,
+                "expected two numbers time,head (" + ctx.time_unit + ", " + ctx.length_unit +
+                    "), found '" + line + "'");
       continue;
     }
     rows.push_back({*time, *head});
@@ -122,7 +145,8 @@ void read_observations(ReaderContext& ctx, const toml::table& root, Model& model
     const std::string path = feature_path("observation", t, i);
     check_keys(ctx, t, path, {"name", "x", "y", "measured"});
     Observation o;
-    o.name = read_string(ctx, t, "name", path, false).value_or("observation " + std::to_string(i + 1));
+    o.name =
+        read_string(ctx, t, "name", path, false).value_or("observation " + std::to_string(i + 1));
     check_unique_name(ctx, t, path, o.name, names);
     auto x = read_number(ctx, t, "x", path, true);
     auto y = read_number(ctx, t, "y", path, true);
@@ -133,19 +157,23 @@ void read_observations(ReaderContext& ctx, const toml::table& root, Model& model
     const auto cell = ctx.grid->locate(*x, *y);
     const std::string where = "point (" + show_number(*x) + ", " + show_number(*y) + ")";
     if (!cell) {
-      ctx.error(*t.get("x"), path + ".x", where + " lies outside the grid (x " + show_number(ctx.grid->x_min()) + ".." +
-                                              show_number(ctx.grid->x_max()) + ", y " + show_number(ctx.grid->y_min()) + ".." +
-                                              show_number(ctx.grid->y_max()) + " " + ctx.length_unit + ")");
+      ctx.error(*t.get("x"), path + ".x",
+                where + " lies outside the grid (x " + show_number(ctx.grid->x_min()) + ".." +
+                    show_number(ctx.grid->x_max()) + ", y " + show_number(ctx.grid->y_min()) +
+                    ".." + show_number(ctx.grid->y_max()) + " " + ctx.length_unit + ")");
       continue;
     }
     if (!ctx.grid->is_active(*cell)) {
-      ctx.error(*t.get("x"), path + ".x", where + " lies in an inactive cell (" + describe_cell(ctx.grid->n_cols(), cell->value) + ")");
+      ctx.error(*t.get("x"), path + ".x",
+                where + " lies in an inactive cell (" +
+                    describe_cell(ctx.grid->n_cols(), cell->value) + ")");
       continue;
     }
     o.cell = *cell;
     if (measured) {
       o.measured_file = ctx.resolve(*measured);
-      o.measured = read_measured(ctx, o.measured_file, ctx.spot(*t.get("measured")), path + ".measured");
+      o.measured =
+          read_measured(ctx, o.measured_file, ctx.spot(*t.get("measured")), path + ".measured");
     }
     model.observations.push_back(std::move(o));
   }
@@ -158,11 +186,16 @@ void read_output(ReaderContext& ctx, const toml::table& root, Model& model) {
   const std::string path = "[output]";
   check_keys(ctx, *t, path, {"folder", "fields", "budget"});
   if (auto folder = read_string(ctx, *t, "folder", path, false)) {
-    if (folder->empty()) ctx.error(*t->get("folder"), path + ".folder", "expected a folder name, found an empty string");
-    else model.output.folder = ctx.resolve(*folder);
+    if (folder->empty())
+      ctx.error(*t->get("folder"), path + ".folder",
+                "expected a folder name, found an empty string");
+    else
+      model.output.folder = ctx.resolve(*folder);
   }
   if (auto f = read_choice(ctx, *t, "fields", path, {"every_step", "period_end", "none"}))
-    model.output.fields = *f == "every_step" ? FieldCadence::every_step : *f == "none" ? FieldCadence::none : FieldCadence::period_end;
+    model.output.fields = *f == "every_step" ? FieldCadence::every_step
+                          : *f == "none"     ? FieldCadence::none
+                                             : FieldCadence::period_end;
   if (auto b = read_bool(ctx, *t, "budget", path)) model.output.budget = *b;
 }
 
@@ -170,24 +203,34 @@ void read_solver(ReaderContext& ctx, const toml::table& root, Model& model) {
   const toml::table* t = optional_table(ctx, root, "solver");
   if (!t) return;
   const std::string path = "[solver]";
-  check_keys(ctx, *t, path, {"linear", "head_tolerance", "flow_tolerance", "max_iterations", "max_cutbacks", "threads"});
+  check_keys(
+      ctx, *t, path,
+      {"linear", "head_tolerance", "flow_tolerance", "max_iterations", "max_cutbacks", "threads"});
   SolverSettings& s = model.solver;
   if (auto l = read_choice(ctx, *t, "linear", path, {"auto", "direct", "pcg", "bicgstab"}))
-    s.linear = *l == "direct" ? LinearChoice::direct : *l == "pcg" ? LinearChoice::pcg
-             : *l == "bicgstab" ? LinearChoice::bicgstab : LinearChoice::automatic;
+    s.linear = *l == "direct"     ? LinearChoice::direct
+               : *l == "pcg"      ? LinearChoice::pcg
+               : *l == "bicgstab" ? LinearChoice::bicgstab
+                                  : LinearChoice::automatic;
   auto positive = [&](std::string_view key, double& into, const std::string& unit) {
     if (auto v = read_number(ctx, *t, key, path, false)) {
-      if (*v > 0.0) into = *v;
-      else ctx.error(*t->get(key), key_path(path, key), "value " + show_number(*v) + "; expected > 0" + unit);
+      if (*v > 0.0)
+        into = *v;
+      else
+        ctx.error(*t->get(key), key_path(path, key),
+                  "value " + show_number(*v) + "; expected > 0" + unit);
     }
   };
   positive("head_tolerance", s.head_tolerance, " " + ctx.length_unit);
   positive("flow_tolerance", s.flow_tolerance, " (relative to the throughflow)");
   auto count = [&](std::string_view key, int& into, long long lowest) {
     if (auto v = read_integer(ctx, *t, key, path, false)) {
-      if (*v >= lowest && *v <= 1000000) into = static_cast<int>(*v);
-      else ctx.error(*t->get(key), key_path(path, key), "value " + std::to_string(*v) + "; expected an integer from " +
-                                                           std::to_string(lowest) + " to 1000000");
+      if (*v >= lowest && *v <= 1000000)
+        into = static_cast<int>(*v);
+      else
+        ctx.error(*t->get(key), key_path(path, key),
+                  "value " + std::to_string(*v) + "; expected an integer from " +
+                      std::to_string(lowest) + " to 1000000");
     }
   };
   count("max_iterations", s.max_iterations, 1);

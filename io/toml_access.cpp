@@ -19,7 +19,8 @@ std::filesystem::path ReaderContext::resolve(const std::string& relative) const 
 }
 
 std::string describe_cell(int n_cols, int cell) {
-  return "row " + std::to_string(cell / n_cols + 1) + ", column " + std::to_string(cell % n_cols + 1);
+  return "row " + std::to_string(cell / n_cols + 1) + ", column " +
+         std::to_string(cell % n_cols + 1);
 }
 
 int edit_distance(std::string_view a, std::string_view b) {
@@ -36,7 +37,8 @@ int edit_distance(std::string_view a, std::string_view b) {
   return prev[b.size()];
 }
 
-std::optional<std::string> closest_word(std::string_view word, std::initializer_list<std::string_view> allowed) {
+std::optional<std::string> closest_word(std::string_view word,
+                                        std::initializer_list<std::string_view> allowed) {
   // A cut-short word ("switch" for "switching") is as likely a slip as a typo.
   if (word.size() >= 3)
     for (std::string_view candidate : allowed)
@@ -83,16 +85,26 @@ void check_keys(ReaderContext& ctx, const toml::table& table, const std::string&
 
 std::string type_name(const toml::node& node) {
   switch (node.type()) {
-    case toml::node_type::table: return "table";
-    case toml::node_type::array: return "array";
-    case toml::node_type::string: return "string";
-    case toml::node_type::integer: return "integer";
-    case toml::node_type::floating_point: return "number";
-    case toml::node_type::boolean: return "boolean";
-    case toml::node_type::date: return "date";
-    case toml::node_type::time: return "time";
-    case toml::node_type::date_time: return "date-time";
-    default: return "nothing";
+    case toml::node_type::table:
+      return "table";
+    case toml::node_type::array:
+      return "array";
+    case toml::node_type::string:
+      return "string";
+    case toml::node_type::integer:
+      return "integer";
+    case toml::node_type::floating_point:
+      return "number";
+    case toml::node_type::boolean:
+      return "boolean";
+    case toml::node_type::date:
+      return "date";
+    case toml::node_type::time:
+      return "time";
+    case toml::node_type::date_time:
+      return "date-time";
+    default:
+      return "nothing";
   }
 }
 
@@ -127,19 +139,20 @@ std::optional<double> number_of(const toml::node& node) {
 }
 
 namespace {
-void missing(ReaderContext& ctx, const toml::table& table, std::string_view key, const std::string& path,
-             const std::string& expected) {
-  ctx.error(ctx.spot(table), key_path(path, key), "missing required key (expected " + expected + ")");
+void missing(ReaderContext& ctx, const toml::table& table, std::string_view key,
+             const std::string& path, const std::string& expected) {
+  ctx.error(ctx.spot(table), key_path(path, key),
+            "missing required key (expected " + expected + ")");
 }
-void wrong_type(ReaderContext& ctx, const toml::node& node, std::string_view key, const std::string& path,
-                const std::string& expected) {
+void wrong_type(ReaderContext& ctx, const toml::node& node, std::string_view key,
+                const std::string& path, const std::string& expected) {
   ctx.error(node, key_path(path, key),
             "expected " + expected + ", found " + type_name(node) + " " + show(node));
 }
 }  // namespace
 
-std::optional<double> read_number(ReaderContext& ctx, const toml::table& table, std::string_view key,
-                                  const std::string& path, bool required) {
+std::optional<double> read_number(ReaderContext& ctx, const toml::table& table,
+                                  std::string_view key, const std::string& path, bool required) {
   const toml::node* node = table.get(key);
   if (!node) {
     if (required) missing(ctx, table, key, path, "a number");
@@ -150,8 +163,9 @@ std::optional<double> read_number(ReaderContext& ctx, const toml::table& table, 
   return value;
 }
 
-std::optional<long long> read_integer(ReaderContext& ctx, const toml::table& table, std::string_view key,
-                                      const std::string& path, bool required) {
+std::optional<long long> read_integer(ReaderContext& ctx, const toml::table& table,
+                                      std::string_view key, const std::string& path,
+                                      bool required) {
   const toml::node* node = table.get(key);
   if (!node) {
     if (required) missing(ctx, table, key, path, "an integer");
@@ -171,8 +185,9 @@ std::optional<bool> read_bool(ReaderContext& ctx, const toml::table& table, std:
   return std::nullopt;
 }
 
-std::optional<std::string> read_string(ReaderContext& ctx, const toml::table& table, std::string_view key,
-                                       const std::string& path, bool required) {
+std::optional<std::string> read_string(ReaderContext& ctx, const toml::table& table,
+                                       std::string_view key, const std::string& path,
+                                       bool required) {
   const toml::node* node = table.get(key);
   if (!node) {
     if (required) missing(ctx, table, key, path, "a string");
@@ -183,8 +198,9 @@ std::optional<std::string> read_string(ReaderContext& ctx, const toml::table& ta
   return std::nullopt;
 }
 
-std::optional<std::string> read_choice(ReaderContext& ctx, const toml::table& table, std::string_view key,
-                                       const std::string& path, std::initializer_list<std::string_view> allowed) {
+std::optional<std::string> read_choice(ReaderContext& ctx, const toml::table& table,
+                                       std::string_view key, const std::string& path,
+                                       std::initializer_list<std::string_view> allowed) {
   auto value = read_string(ctx, table, key, path, false);
   if (!value) return std::nullopt;
   if (std::find(allowed.begin(), allowed.end(), *value) != allowed.end()) return value;

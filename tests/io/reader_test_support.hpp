@@ -2,7 +2,6 @@
 // Helpers for the reader tests: a small valid model (3 rows x 4 columns of 10 m cells, origin
 // at (0, 0), so x runs 0..40 m and y 0..30 m) and edits of its text.
 #include <catch2/catch.hpp>
-
 #include <string>
 
 #include "io/model_reader.hpp"
@@ -59,7 +58,8 @@ inline std::string edit(std::string text, const std::string& from, const std::st
 inline int line_of(const std::string& text, const std::string& what) {
   const auto pos = text.find(what);
   REQUIRE(pos != std::string::npos);
-  return 1 + static_cast<int>(std::count(text.begin(), text.begin() + static_cast<std::ptrdiff_t>(pos), '\n'));
+  return 1 + static_cast<int>(
+                 std::count(text.begin(), text.begin() + static_cast<std::ptrdiff_t>(pos), '\n'));
 }
 
 inline aquiledger::ReadResult read(const std::string& text) {
@@ -74,8 +74,8 @@ inline std::string all_messages(const aquiledger::ReadResult& r) {
 
 /// True when an error names `key` (exactly) and its message contains every fragment; when
 /// line > 0 the error must also be on that line.
-inline bool has_error(const aquiledger::ReadResult& r, const std::string& key, std::initializer_list<std::string> fragments,
-                      int line = 0) {
+inline bool has_error(const aquiledger::ReadResult& r, const std::string& key,
+                      std::initializer_list<std::string> fragments, int line = 0) {
   for (const auto& d : r.diagnostics) {
     if (d.severity != aquiledger::Severity::error || d.key != key) continue;
     if (line > 0 && d.line != line) continue;
@@ -86,9 +86,11 @@ inline bool has_error(const aquiledger::ReadResult& r, const std::string& key, s
   return false;
 }
 
-inline bool has_warning(const aquiledger::ReadResult& r, const std::string& key, const std::string& fragment) {
+inline bool has_warning(const aquiledger::ReadResult& r, const std::string& key,
+                        const std::string& fragment) {
   for (const auto& d : r.diagnostics)
-    if (d.severity == aquiledger::Severity::warning && d.key == key && d.message.find(fragment) != std::string::npos)
+    if (d.severity == aquiledger::Severity::warning && d.key == key &&
+        d.message.find(fragment) != std::string::npos)
       return true;
   return false;
 }
