@@ -162,6 +162,9 @@ struct Model {
   OutputSettings output;
   SolverSettings solver;
   std::vector<std::string> warnings;  ///< from the reader's plausibility checks
+  /// Every other file the model was read from (array, zone and measured-head files), sorted;
+  /// checkpoints fingerprint them with the model file.
+  std::vector<std::filesystem::path> input_files;
 };
 
 }  // namespace aquiledger

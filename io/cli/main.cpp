@@ -13,7 +13,8 @@ int main(int argc, char** argv) {
   app.require_subcommand(1);
   app.footer(
       "Exit status: 0 success; 1 invalid model file (nothing run); 2 the run did not converge "
-      "(results up to the last converged step are kept); 3 results could not be written.");
+      "(results up to the last converged step are kept); 3 results could not be written; 4 --resume "
+      "found no checkpoint it could use.");
 
   CheckOptions check_options;
   auto* check = app.add_subcommand("check", "Validate a model file and print what it describes.");
@@ -27,6 +28,12 @@ int main(int argc, char** argv) {
   run->add_option("-t,--threads", run_options.threads, "Threads (default: [solver].threads)")
       ->check(CLI::NonNegativeNumber);
   run->add_flag("-q,--quiet", run_options.quiet, "Print only errors and the final status line");
+  run->add_option("--checkpoint-every", run_options.checkpoint_every,
+                  "Write a checkpoint (checkpoint.aqck in the results folder) every N accepted steps")
+      ->check(CLI::NonNegativeNumber);
+  run->add_flag("--resume", run_options.resume,
+                "Continue from the checkpoint in the results folder; the results equal those of an "
+                "uninterrupted run");
 
   try {
     app.parse(argc, argv);
