@@ -108,6 +108,11 @@ int run_run_command(const RunOptions& options) {
     std::fflush(stdout);
   }
 
+  // summary.json is written last: a folder without one holds a run that did not finish
+  // (rather than the summary of an earlier run beside newer tables).
+  std::error_code ignored;
+  std::filesystem::remove(folder / "summary.json", ignored);
+
   RunResult run;
   std::optional<ResultRecorder> recorder;
   try {

@@ -1,4 +1,6 @@
 // aquiledger: the command line. Subcommands read a model, check it, or run it.
+#include <csignal>
+
 #include <CLI/CLI.hpp>
 #include <fmt/format.h>
 
@@ -7,6 +9,9 @@
 
 int main(int argc, char** argv) {
   using namespace aquiledger;
+  // Past a file-size limit (ulimit -f) a write then fails with EFBIG, reported like a full
+  // disk, instead of the signal killing the program mid-file.
+  std::signal(SIGXFSZ, SIG_IGN);
   CLI::App app{"aquiledger: transient 2D groundwater flow with exact confined / water-table storage "
                "switching and closed water budgets."};
   app.set_version_flag("--version", fmt::format("aquiledger {}", version_string));
