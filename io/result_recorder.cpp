@@ -104,6 +104,26 @@ void ResultRecorder::write_fields(double time) {
   stats_.field_files = static_cast<int>(field_entries_.size());
 }
 
+RecorderState ResultRecorder::state() const {
+  return {initial_head_, initial_observed_, fields_,        step_rows_, period_rows_,
+          observation_rows_, field_entries_, current_period_, period_open_, time_,
+          stats_};
+}
+
+void ResultRecorder::restore(RecorderState s) {
+  initial_head_ = std::move(s.initial_head);
+  initial_observed_ = std::move(s.initial_observed);
+  fields_ = std::move(s.fields);
+  step_rows_ = std::move(s.step_rows);
+  period_rows_ = std::move(s.period_rows);
+  observation_rows_ = std::move(s.observation_rows);
+  field_entries_ = std::move(s.field_entries);
+  current_period_ = s.current_period;
+  period_open_ = s.period_open;
+  time_ = s.time;
+  stats_ = std::move(s.stats);
+}
+
 void ResultRecorder::flush() {
   if (model_.output.budget) {
     write_budget_steps_csv(folder_ / "budget_steps.csv", step_rows_);

@@ -28,6 +28,22 @@ struct RecorderStatistics {
   double output_seconds = 0.0;  ///< wall time spent computing and writing results
 };
 
+/// Everything the recorder has accumulated: enough to continue its tables after a restart
+/// (io/checkpoint.hpp stores it).
+struct RecorderState {
+  std::vector<double> initial_head;      ///< L, per grid cell
+  std::vector<double> initial_observed;  ///< L, per observation
+  CellFields fields;
+  std::vector<BudgetStepRow> step_rows;
+  std::vector<BudgetPeriodRow> period_rows;
+  std::vector<ObservationRow> observation_rows;
+  std::vector<FieldFileEntry> field_entries;
+  std::size_t current_period = 0;
+  bool period_open = false;
+  double time = 0.0;  ///< T
+  RecorderStatistics stats;
+};
+
 class ResultRecorder final : public SimulationObserver {
  public:
   /// folder: where results go (must exist and be writable).
@@ -49,6 +65,10 @@ class ResultRecorder final : public SimulationObserver {
   const std::vector<FeatureRef>& features() const { return features_; }
   const RecorderStatistics& statistics() const { return stats_; }
   const std::filesystem::path& folder() const { return folder_; }
+  /// A copy of what has been recorded so far.
+  RecorderState state() const;
+  /// Continues from a saved state instead of initial_state (nothing is written).
+  void restore(RecorderState state);
   const SystemLayout& layout() const { return layout_; }
 
  private:

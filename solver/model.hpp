@@ -169,6 +169,9 @@ struct Model {
   SolverSettings solver;
   std::vector<ZoneMap> zone_maps;     ///< aquifer properties given by zones (reports only)
   std::vector<std::string> warnings;  ///< from the reader's plausibility checks
+  /// Every other file the model was read from (array, zone and measured-head files), sorted;
+  /// checkpoints fingerprint them with the model file.
+  std::vector<std::filesystem::path> input_files;
 };
 
 }  // namespace aquiledger

@@ -65,21 +65,31 @@ std::string describe_failure(const Model& model, std::size_t period, int step, d
 }  // namespace
 
 RunResult run_simulation(const Model& model, SimulationObserver& observer) {
+  return run_simulation(model, observer, SimulationOptions{});
+}
+
+RunResult run_simulation(const Model& model, SimulationObserver& observer,
+                         const SimulationOptions& options) {
   omp_set_num_threads(model.solver.threads > 0 ? model.solver.threads : omp_get_num_procs());
   const SystemLayout layout = make_system_layout(model);
   FlowSystem system(model, layout);
   LinearSolverChoice choice =
       choose_linear_solver(model.solver.linear, system.symmetric(), system.n_unknowns());
   LinearSolver& linear = *choice.solver;
+  const StartState* start = options.start ? &*options.start : nullptr;
   RunResult result;
+  if (start) result = start->so_far;
+  result.converged = true;
+  result.failure.clear();
   result.linear_solver = linear.name();
   result.linear_reason = choice.reason;
+  const RunResult base = result;  // counters before this call
   const NewtonSettings settings{model.solver.head_tolerance, model.solver.flow_tolerance,
                                 model.solver.max_iterations};
   auto finish = [&](RunResult& r) {
-    r.linear_iterations = linear.total_iterations();
-    r.factorizations = linear.factorizations();
-    r.factorization_reuses = linear.reuses();
+    r.linear_iterations = base.linear_iterations + linear.total_iterations();
+    r.factorizations = base.factorizations + linear.factorizations();
+    r.factorization_reuses = base.factorization_reuses + linear.reuses();
     return r;
   };
   auto fail = [&](std::size_t period, int step, double time, std::string text) {
@@ -94,7 +104,17 @@ RunResult run_simulation(const Model& model, SimulationObserver& observer) {
   NewtonWorkspace work;
   const auto n = static_cast<std::size_t>(model.grid.n_cells());
   std::vector<double> head(n, std::nan(""));
-  if (model.initial.steady) {
+  std::size_t first_period = 0;
+  int first_step = 0;
+  if (start) {
+    if (start->head.size() != n) return fail(start->period, 0, start->time, "start state does not fit the grid");
+    head = start->head;
+    if (start->linear_start.size() == static_cast<std::size_t>(system.n_unknowns()))
+      work.update = Eigen::Map<const Eigen::VectorXd>(start->linear_start.data(),
+                                                      static_cast<Eigen::Index>(start->linear_start.size()));
+    first_period = start->period;
+    first_step = start->step_in_period;
+  } else if (model.initial.steady) {
     head = steady_guess(model, layout);
     apply_fixed_heads(model, 0, head);
     system.set_step(0, true, 1.0, head);
@@ -108,15 +128,41 @@ RunResult run_simulation(const Model& model, SimulationObserver& observer) {
       if (model.grid.is_active(CellIndex{static_cast<std::int32_t>(i)}))
         head[i] = model.initial.head[i];
   }
-  observer.initial_state(head);
+  if (!start) observer.initial_state(head);
+
+  int since_checkpoint = 0;
+  auto take_checkpoint = [&](std::size_t period, int step_in_period, double time) {
+    if (!options.checkpoint || options.checkpoint_every <= 0 ||
+        since_checkpoint < options.checkpoint_every)
+      return;
+    since_checkpoint = 0;
+    StartState state;
+    state.period = period;
+    state.step_in_period = step_in_period;
+    state.time = time;
+    state.head = head;
+    state.linear_start.assign(work.update.data(), work.update.data() + work.update.size());
+    RunResult so_far = result;
+    state.so_far = finish(so_far);
+    options.checkpoint(state);
+  };
 
   std::vector<double> head_old(head), trial(head);
+  // Period start times are summed from time 0 on every run, resumed or not, so that the
+  // step end times are bit for bit those of the uninterrupted run.
   double time = 0.0;
-  for (std::size_t p = 0; p < model.periods.size(); ++p) {
+  for (std::size_t p = 0; p < first_period && p < model.periods.size(); ++p)
+    time = step_end_times(model.periods[p], time).back();
+  for (std::size_t p = first_period; p < model.periods.size(); ++p) {
     const Period& period = model.periods[p];
     apply_fixed_heads(model, p, head);
     const std::vector<double> ends = step_end_times(period, time);
-    for (std::size_t k = 0; k < ends.size(); ++k) {
+    std::size_t k = 0;
+    if (p == first_period && first_step > 0) {
+      k = std::min(static_cast<std::size_t>(first_step), ends.size());
+      time = ends[k - 1];
+    }
+    for (; k < ends.size(); ++k) {
       const int step = static_cast<int>(k) + 1;
       const double target = ends[k];
       double dt_try = target - time;
@@ -143,6 +189,7 @@ RunResult run_simulation(const Model& model, SimulationObserver& observer) {
         std::swap(head, trial);
         time = last_piece ? target : time + dt;
         ++result.steps;
+        ++since_checkpoint;
         StepInfo info;
         info.period = p;
         info.step = step;
@@ -156,8 +203,10 @@ RunResult run_simulation(const Model& model, SimulationObserver& observer) {
         info.max_imbalance = nr.max_imbalance;
         observer.step_done(info, head_old, head);
       }
+      if (k + 1 < ends.size()) take_checkpoint(p, step, time);
     }
     observer.period_done(p);
+    take_checkpoint(p + 1, 0, time);
   }
   return finish(result);
 }

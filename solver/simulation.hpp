@@ -1,7 +1,10 @@
 #pragma once
 #include <cstddef>
+#include <functional>
+#include <optional>
 #include <span>
 #include <string>
+#include <vector>
 
 #include "solver/model.hpp"
 
@@ -50,5 +53,34 @@ struct RunResult {
 
 /// Runs every period of the model, reporting each accepted step to the observer.
 RunResult run_simulation(const Model& model, SimulationObserver& observer);
+
+/// Where a run continues: after `step_in_period` planned steps of `period` (0 = at the start
+/// of the period; a finished period is written as the next period with step 0). Taken at the
+/// end of a planned step, never inside one, so the resumed run repeats the uninterrupted one
+/// exactly: the same step end times (recomputed from time 0 as the uninterrupted run does),
+/// the same heads, the same start of the iterative linear solver.
+struct StartState {
+  std::size_t period = 0;        ///< 0-based
+  int step_in_period = 0;        ///< planned steps of that period already done
+  double time = 0.0;             ///< T, end of the last step done
+  std::vector<double> head;      ///< L, per grid cell (NaN where inactive)
+  std::vector<double> linear_start;  ///< L per unknown: start of the next iterative solve
+  RunResult so_far;              ///< counters of the run up to this point
+};
+
+struct SimulationOptions {
+  /// Continue from here instead of the initial state (observer.initial_state is not called:
+  /// the observer must have been restored to the same point).
+  std::optional<StartState> start;
+  /// Called with the state once at least `checkpoint_every` steps were accepted since the
+  /// last call, at the end of a planned step (after period_done at a period's end).
+  int checkpoint_every = 0;
+  std::function<void(const StartState&)> checkpoint;
+};
+
+/// As above, optionally starting from a saved state and taking checkpoints. Counters in the
+/// result include those of options.start->so_far.
+RunResult run_simulation(const Model& model, SimulationObserver& observer,
+                         const SimulationOptions& options);
 
 }  // namespace aquiledger

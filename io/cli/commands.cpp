@@ -12,6 +12,7 @@
 #include "aquiledger_version.hpp"
 #include "io/atomic_file.hpp"
 #include "io/check_report.hpp"
+#include "io/checkpoint.hpp"
 #include "io/model_reader.hpp"
 #include "io/result_recorder.hpp"
 #include "io/run_report.hpp"
@@ -72,6 +73,25 @@ int run_run_command(const RunOptions& options) {
     return exit_output_failure;
   }
 
+  // Checkpoints fingerprint the input files; a resumed run must read the same ones.
+  std::optional<InputFingerprint> fingerprint;
+  std::optional<Checkpoint> resume_from;
+  try {
+    if (options.resume || options.checkpoint_every > 0) fingerprint = fingerprint_inputs(model);
+    if (options.resume) {
+      resume_from = read_checkpoint(folder);
+      if (auto why = checkpoint_mismatch(resume_from->inputs, *fingerprint, options.model_file))
+        throw CheckpointError(fmt::format("cannot resume: {}; the checkpoint in '{}' belongs to another "
+                                          "model (run without --resume to start over)",
+                                          *why, folder.string()));
+      if (resume_from->state.head.size() != static_cast<std::size_t>(model.grid.n_cells()))
+        throw CheckpointError("cannot resume: the checkpoint's heads do not fit the grid");
+    }
+  } catch (const CheckpointError& e) {
+    std::fprintf(stderr, "error: %s\nNothing was run.\n", e.what());
+    return exit_bad_checkpoint;
+  }
+
   if (!options.quiet) {
     std::fputs(fmt::format("aquiledger {}: {}\n", version_string, model.title).c_str(), stdout);
     std::fputs(fmt::format("  model   {}\n  grid    {} x {} cells, {} active\n  results {}\n",
@@ -80,8 +100,18 @@ int run_run_command(const RunOptions& options) {
                    .c_str(),
                stdout);
     for (const auto& w : model.warnings) std::fprintf(stdout, "  warning: %s\n", w.c_str());
+    if (resume_from)
+      std::fputs(fmt::format("  resumed at period {}, step {}, t = {:g} {}\n", resume_from->state.period + 1,
+                             resume_from->state.step_in_period, resume_from->state.time, model.time_unit)
+                     .c_str(),
+                 stdout);
     std::fflush(stdout);
   }
+
+  // summary.json is written last: a folder without one holds a run that did not finish
+  // (rather than the summary of an earlier run beside newer tables).
+  std::error_code ignored;
+  std::filesystem::remove(folder / "summary.json", ignored);
 
   RunResult run;
   std::optional<ResultRecorder> recorder;
@@ -98,7 +128,21 @@ int run_run_command(const RunOptions& options) {
         std::fflush(stderr);
       });
     }
-    run = run_simulation(model, *recorder);
+    SimulationOptions sim;
+    if (resume_from) {
+      if (resume_from->threads != model.solver.threads)
+        std::fprintf(stderr, "warning: the checkpointed run used --threads %d, this one %d: results may "
+                             "differ in the last digits\n", resume_from->threads, model.solver.threads);
+      recorder->restore(std::move(resume_from->recorder));
+      sim.start = std::move(resume_from->state);
+    }
+    if (options.checkpoint_every > 0) {
+      sim.checkpoint_every = options.checkpoint_every;
+      sim.checkpoint = [&](const StartState& state) {
+        write_checkpoint(folder, Checkpoint{*fingerprint, model.solver.threads, state, recorder->state()});
+      };
+    }
+    run = run_simulation(model, *recorder, sim);
     if (terminal) std::fputs("\r\033[K", stderr);
     recorder->flush();
   } catch (const OutputError& e) {

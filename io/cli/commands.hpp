@@ -9,6 +9,7 @@ inline constexpr int exit_success = 0;
 inline constexpr int exit_invalid_model = 1;
 inline constexpr int exit_not_converged = 2;
 inline constexpr int exit_output_failure = 3;
+inline constexpr int exit_bad_checkpoint = 4;  ///< --resume without a usable checkpoint
 
 struct CheckOptions {
   std::filesystem::path model_file;
@@ -19,6 +20,8 @@ struct RunOptions {
   std::optional<std::filesystem::path> output_folder;
   std::optional<int> threads;
   bool quiet = false;
+  int checkpoint_every = 0;  ///< write a checkpoint every N accepted steps (0: never)
+  bool resume = false;       ///< continue from the output folder's checkpoint
 };
 
 int run_check_command(const CheckOptions& options);

@@ -1,4 +1,6 @@
 // aquiledger: the command line. Subcommands read a model, check it, or run it.
+#include <csignal>
+
 #include <CLI/CLI.hpp>
 #include <fmt/format.h>
 
@@ -7,13 +9,17 @@
 
 int main(int argc, char** argv) {
   using namespace aquiledger;
+  // Past a file-size limit (ulimit -f) a write then fails with EFBIG, reported like a full
+  // disk, instead of the signal killing the program mid-file.
+  std::signal(SIGXFSZ, SIG_IGN);
   CLI::App app{"aquiledger: transient 2D groundwater flow with exact confined / water-table storage "
                "switching and closed water budgets."};
   app.set_version_flag("--version", fmt::format("aquiledger {}", version_string));
   app.require_subcommand(1);
   app.footer(
       "Exit status: 0 success; 1 invalid model file (nothing run); 2 the run did not converge "
-      "(results up to the last converged step are kept); 3 results could not be written.");
+      "(results up to the last converged step are kept); 3 results could not be written; 4 --resume "
+      "found no checkpoint it could use.");
 
   CheckOptions check_options;
   auto* check = app.add_subcommand("check", "Validate a model file and print what it describes.");
@@ -27,6 +33,12 @@ int main(int argc, char** argv) {
   run->add_option("-t,--threads", run_options.threads, "Threads (default: [solver].threads)")
       ->check(CLI::NonNegativeNumber);
   run->add_flag("-q,--quiet", run_options.quiet, "Print only errors and the final status line");
+  run->add_option("--checkpoint-every", run_options.checkpoint_every,
+                  "Write a checkpoint (checkpoint.aqck in the results folder) every N accepted steps")
+      ->check(CLI::NonNegativeNumber);
+  run->add_flag("--resume", run_options.resume,
+                "Continue from the checkpoint in the results folder; the results equal those of an "
+                "uninterrupted run");
 
   try {
     app.parse(argc, argv);
