@@ -3,91 +3,92 @@
 // linear backend, next to a streaming floor measured on this machine in the same run.
 //
 //   basin_benchmark [--sizes 1e4,1e5,1e6,4e6] [--steps 30] [--variant both|confined|switching]
-//                   [--json FILE]
+//                   [--threads N] [--linear auto|direct|pcg|bicgstab] [--json FILE]
+// Each case runs in its own child process (own peak memory); --steps is per period.
 #include <sys/resource.h>
-#include <sys/wait.h>
-#include <unistd.h>
 
 #include <algorithm>
-#include <numeric>
-#include <chrono>
 #include <cmath>
 #include <cstdio>
 #include <cstring>
 #include <fstream>
+#include <numeric>
 #include <string>
 #include <vector>
 
 #include <fmt/format.h>
 
 #include "benchmarks/basin_generator.hpp"
+#include "benchmarks/bench_support.hpp"
 #include "solver/simulation.hpp"
 
 using namespace aquiledger;
-using Clock = std::chrono::steady_clock;
+using bench::Clock;
 
 namespace {
 
 struct CaseResult {
-  double cells = 0, steps = 0, median_step_seconds = 0, median_newton = 0;
-  double linear_iterations = 0, peak_rss_mib = 0;
+  double cells = 0, steps = 0, median_step_seconds = 0, first_step_seconds = 0, median_newton = 0;
+  double max_newton = 0, linear_iterations = 0, peak_rss_mib = 0;
+  double factorizations = 0, reuses = 0, cutbacks = 0;
+  double max_unconfined_fraction = 0;  ///< largest share of active cells with head below top
   char solver[96] = {0};
   int converged = 0;
 };
 
 class TimingObserver final : public SimulationObserver {
  public:
+  explicit TimingObserver(const Model& model) : model_(model) {}
   void initial_state(std::span<const double>) override { last_ = Clock::now(); }
-  void step_done(const StepInfo& info, std::span<const double>, std::span<const double>) override {
+  void step_done(const StepInfo& info, std::span<const double>, std::span<const double> head) override {
     const auto now = Clock::now();
     step_seconds.push_back(std::chrono::duration<double>(now - last_).count());
     newton.push_back(info.newton_iterations);
-    last_ = now;
+    if (model_.aquifer.condition == Condition::switching) {
+      std::size_t below = 0;
+      for (std::size_t i = 0; i < head.size(); ++i) below += head[i] < model_.aquifer.top[i];
+      max_unconfined = std::max(max_unconfined, static_cast<double>(below) / static_cast<double>(head.size()));
+    }
+    last_ = Clock::now();  // the counting above is not part of the step
   }
   void period_done(std::size_t) override {}
   std::vector<double> step_seconds;
   std::vector<double> newton;
+  double max_unconfined = 0.0;
 
  private:
+  const Model& model_;
   Clock::time_point last_;
 };
 
-double median(std::vector<double> v) {
-  if (v.empty()) return 0.0;
-  std::sort(v.begin(), v.end());
-  const std::size_t n = v.size();
-  return n % 2 ? v[n / 2] : 0.5 * (v[n / 2 - 1] + v[n / 2]);
-}
-
-/// STREAM-style triad a = b + s c, best of several passes (McCalpin, 1995): bytes per second.
-double triad_bandwidth() {
-  const std::size_t n = std::size_t{1} << 24;  // 128 MiB per array, well beyond the caches
-  std::vector<double> a(n, 0.0), b(n, 1.0), c(n, 2.0);
-  double best = 1e30;
-  for (int pass = 0; pass < 6; ++pass) {
-    const auto t0 = Clock::now();
-#pragma omp parallel for schedule(static)
-    for (std::size_t i = 0; i < n; ++i) a[i] = b[i] + 3.0 * c[i];
-    best = std::min(best, std::chrono::duration<double>(Clock::now() - t0).count());
-  }
-  if (a[n / 2] != 7.0) std::fprintf(stderr, "triad check failed\n");
-  return 3.0 * 8.0 * static_cast<double>(n) / best;
-}
-
-/// Bytes one linear solve must at least read: a 5-point matrix in compressed form (values and
-/// indices), its row pointers, and the right-hand side and solution vectors.
+/// Bytes one step must at least stream: a 5-point matrix in compressed form (values and
+/// indices), its row pointers, and the right-hand side and solution vectors. Any solver
+/// touches the matrix at least once per step, so this over the triad bandwidth is a floor.
 double floor_bytes(double unknowns) { return unknowns * (5 * (8 + 4) + 4 + 2 * 8); }
 
-CaseResult run_case(const bench::BasinSpec& spec) {
+struct CaseOptions {
+  int threads = 0;
+  LinearChoice linear = LinearChoice::automatic;
+};
+
+CaseResult run_case(const bench::BasinSpec& spec, const CaseOptions& opt) {
   CaseResult out;
   Model model = bench::make_basin(spec);
-  TimingObserver obs;
+  model.solver.threads = opt.threads;
+  model.solver.linear = opt.linear;
+  TimingObserver obs(model);
   const RunResult r = run_simulation(model, obs);
   out.cells = model.grid.n_cells();
   out.steps = static_cast<double>(obs.step_seconds.size());
-  out.median_step_seconds = median(obs.step_seconds);
-  out.median_newton = median(obs.newton);
+  if (!obs.step_seconds.empty()) out.first_step_seconds = obs.step_seconds.front();
+  out.median_step_seconds = bench::median(obs.step_seconds);
+  out.median_newton = bench::median(obs.newton);
+  out.max_newton = obs.newton.empty() ? 0.0 : *std::max_element(obs.newton.begin(), obs.newton.end());
   out.linear_iterations = static_cast<double>(r.linear_iterations);
+  out.factorizations = static_cast<double>(r.factorizations);
+  out.reuses = static_cast<double>(r.factorization_reuses);
+  out.cutbacks = r.cutbacks;
+  out.max_unconfined_fraction = obs.max_unconfined;
   std::snprintf(out.solver, sizeof out.solver, "%s", r.linear_solver.c_str());
   out.converged = r.converged ? 1 : 0;
   rusage ru{};
@@ -96,24 +97,24 @@ CaseResult run_case(const bench::BasinSpec& spec) {
   return out;
 }
 
-/// Runs one case in a child process so that each size reports its own peak memory.
-CaseResult run_isolated(const bench::BasinSpec& spec) {
-  int fd[2];
-  if (pipe(fd) != 0) return {};
-  const pid_t pid = fork();
-  if (pid == 0) {
-    close(fd[0]);
-    const CaseResult r = run_case(spec);
-    [[maybe_unused]] auto w = write(fd[1], &r, sizeof r);
-    _exit(0);
-  }
-  close(fd[1]);
-  CaseResult r;
-  if (read(fd[0], &r, sizeof r) != static_cast<ssize_t>(sizeof r)) r = {};
-  close(fd[0]);
-  int status = 0;
-  waitpid(pid, &status, 0);
-  return r;
+/// Least-squares slope of log y against log x.
+double log_log_slope(const std::vector<double>& x, const std::vector<double>& y) {
+  std::vector<double> lx, ly;
+  for (std::size_t k = 0; k < x.size(); ++k)
+    if (x[k] > 0 && y[k] > 0) lx.push_back(std::log(x[k])), ly.push_back(std::log(y[k]));
+  if (lx.size() < 2) return std::nan("");
+  const double mx = std::accumulate(lx.begin(), lx.end(), 0.0) / lx.size();
+  const double my = std::accumulate(ly.begin(), ly.end(), 0.0) / ly.size();
+  double sxy = 0, sxx = 0;
+  for (std::size_t k = 0; k < lx.size(); ++k) sxy += (lx[k] - mx) * (ly[k] - my), sxx += (lx[k] - mx) * (lx[k] - mx);
+  return sxy / sxx;
+}
+
+LinearChoice parse_linear(const std::string& v) {
+  if (v == "direct") return LinearChoice::direct;
+  if (v == "pcg") return LinearChoice::pcg;
+  if (v == "bicgstab") return LinearChoice::bicgstab;
+  return LinearChoice::automatic;
 }
 
 }  // namespace
@@ -121,6 +122,7 @@ CaseResult run_isolated(const bench::BasinSpec& spec) {
 int main(int argc, char** argv) {
   std::vector<double> sizes = {1e4, 1e5, 1e6, 4e6};
   int steps = 30;
+  CaseOptions options;
   std::string variant = "both", json_path;
   for (int i = 1; i + 1 < argc; i += 2) {
     const std::string key = argv[i], value = argv[i + 1];
@@ -135,56 +137,60 @@ int main(int argc, char** argv) {
     } else if (key == "--steps") steps = std::stoi(value);
     else if (key == "--variant") variant = value;
     else if (key == "--json") json_path = value;
+    else if (key == "--threads") options.threads = std::stoi(value);
+    else if (key == "--linear") options.linear = parse_linear(value);
     else { std::fprintf(stderr, "unknown option %s\n", key.c_str()); return 64; }
   }
+  if (argc % 2 == 0) { std::fprintf(stderr, "options come in pairs: --key value\n"); return 64; }
 
-  const double bandwidth = triad_bandwidth();
-  fmt::print("streaming triad bandwidth: {:.2f} GB/s\n\n", bandwidth / 1e9);
-  fmt::print("{:<10} {:>10} {:>6} {:>12} {:>10} {:>8} {:>10} {:>10} {:>9}  {}\n", "variant", "cells",
-             "steps", "s/step", "floor", "ratio", "Newton", "lin.it", "MiB", "linear solver");
-  std::string json = fmt::format("{{\n  \"triad_bandwidth_bytes_per_s\": {:.6g},\n  \"cases\": [\n", bandwidth);
+  struct Bandwidth { double bytes_per_s; };
+  const double bandwidth = bench::run_in_child([] { return Bandwidth{bench::triad_bandwidth()}; }).bytes_per_s;
+  fmt::print("streaming triad bandwidth: {:.2f} GB/s; {} steps per period, 2 periods\n\n", bandwidth / 1e9, steps);
+  fmt::print("{:<10} {:>8} {:>5} {:>9} {:>9} {:>9} {:>6} {:>6} {:>7} {:>9} {:>6} {:>6} {:>5}  {}\n", "variant",
+             "cells", "steps", "s/step", "1st step", "floor", "ratio", "Newton", "lin.it", "fact/reuse", "MiB",
+             "B/cell", "dewat", "linear solver");
+  std::string json = fmt::format("{{\n  \"triad_bandwidth_bytes_per_s\": {:.6g},\n  \"steps_per_period\": {},\n  \"cases\": [\n",
+                                 bandwidth, steps);
   bool first = true;
+  int failures = 0;
   for (const std::string v : {"confined", "switching"}) {
     if (variant != "both" && variant != v) continue;
-    std::vector<double> log_n, log_t;
+    std::vector<double> cells, seconds, rss;
     for (double size : sizes) {
       bench::BasinSpec spec;
       spec.n_rows = spec.n_cols = static_cast<int>(std::lround(std::sqrt(size)));
       spec.switching = v == std::string("switching");
       spec.steps_per_period = steps;
-      const CaseResult r = run_isolated(spec);
+      const CaseResult r = bench::run_in_child([&] { return run_case(spec, options); });
       const double floor = floor_bytes(r.cells) / bandwidth;
-      fmt::print("{:<10} {:>10.0f} {:>6.0f} {:>12.4g} {:>10.3g} {:>8.1f} {:>10.1f} {:>10.0f} {:>9.0f}  {}{}\n", v,
-                 r.cells, r.steps, r.median_step_seconds, floor, r.median_step_seconds / floor,
-                 r.median_newton, r.linear_iterations, r.peak_rss_mib, r.solver,
+      const double bytes_per_cell = r.peak_rss_mib * 1048576.0 / std::max(1.0, r.cells);
+      fmt::print("{:<10} {:>8.0f} {:>5.0f} {:>9.4g} {:>9.4g} {:>9.3g} {:>6.1f} {:>6.1f} {:>7.0f} {:>4.0f}/{:<5.0f} {:>6.0f} "
+                 "{:>6.0f} {:>5.2f}  {}{}\n",
+                 v, r.cells, r.steps, r.median_step_seconds, r.first_step_seconds, floor,
+                 r.median_step_seconds / floor, r.median_newton, r.linear_iterations, r.factorizations, r.reuses,
+                 r.peak_rss_mib, bytes_per_cell, r.max_unconfined_fraction, r.solver,
                  r.converged ? "" : "  (NOT CONVERGED)");
       std::fflush(stdout);
+      if (!r.converged) ++failures;
       json += fmt::format(
           "{}    {{\"variant\": \"{}\", \"cells\": {:.0f}, \"steps\": {:.0f}, \"median_step_seconds\": {:.6g}, "
-          "\"floor_seconds\": {:.6g}, \"median_newton\": {:.3g}, \"linear_iterations\": {:.0f}, "
-          "\"peak_rss_mib\": {:.1f}, \"bytes_per_cell\": {:.0f}, \"linear_solver\": \"{}\", \"converged\": {}}}",
-          first ? "" : ",\n", v, r.cells, r.steps, r.median_step_seconds, floor, r.median_newton,
-          r.linear_iterations, r.peak_rss_mib, r.peak_rss_mib * 1048576.0 / std::max(1.0, r.cells), r.solver,
-          r.converged ? "true" : "false");
+          "\"first_step_seconds\": {:.6g}, \"floor_seconds\": {:.6g}, \"median_newton\": {:.3g}, \"max_newton\": {:.0f}, "
+          "\"linear_iterations\": {:.0f}, \"factorizations\": {:.0f}, \"factorization_reuses\": {:.0f}, "
+          "\"cutbacks\": {:.0f}, \"peak_rss_mib\": {:.1f}, \"bytes_per_cell\": {:.0f}, "
+          "\"max_unconfined_fraction\": {:.4f}, \"linear_solver\": \"{}\", \"converged\": {}}}",
+          first ? "" : ",\n", v, r.cells, r.steps, r.median_step_seconds, r.first_step_seconds, floor, r.median_newton,
+          r.max_newton, r.linear_iterations, r.factorizations, r.reuses, r.cutbacks, r.peak_rss_mib, bytes_per_cell,
+          r.max_unconfined_fraction, r.solver, r.converged ? "true" : "false");
       first = false;
-      if (r.median_step_seconds > 0) {
-        log_n.push_back(std::log(r.cells));
-        log_t.push_back(std::log(r.median_step_seconds));
-      }
+      cells.push_back(r.cells);
+      seconds.push_back(r.median_step_seconds);
+      rss.push_back(r.peak_rss_mib);
     }
-    if (log_n.size() >= 2) {
-      // Least-squares slope of log(time per step) against log(cells).
-      const double mn = std::accumulate(log_n.begin(), log_n.end(), 0.0) / log_n.size();
-      const double mt = std::accumulate(log_t.begin(), log_t.end(), 0.0) / log_t.size();
-      double sxy = 0, sxx = 0;
-      for (std::size_t k = 0; k < log_n.size(); ++k) {
-        sxy += (log_n[k] - mn) * (log_t[k] - mt);
-        sxx += (log_n[k] - mn) * (log_n[k] - mn);
-      }
-      fmt::print("{:<10} growth exponent of time per step with cells: {:.3f}\n", v, sxy / sxx);
-    }
+    if (cells.size() >= 2)
+      fmt::print("{:<10} growth exponent (least squares, log-log) of time per step: {:.3f}; of peak memory: {:.3f}\n", v,
+                 log_log_slope(cells, seconds), log_log_slope(cells, rss));
   }
   json += "\n  ]\n}\n";
   if (!json_path.empty()) std::ofstream(json_path) << json;
-  return 0;
+  return failures == 0 ? 0 : 1;
 }

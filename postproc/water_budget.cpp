@@ -131,21 +131,33 @@ WaterBudget step_budget(const Model& model, const SystemLayout& layout, std::siz
   // Storage: released (positive) or taken (negative) in each unknown cell, by mechanism.
   if (!steady) {
     const bool split = model.aquifer.elastic_split();
-    for (CellIndex c : layout.cell_of_unknown) {
+    const auto n = static_cast<std::ptrdiff_t>(layout.cell_of_unknown.size());
+    // In and out of each storage mechanism as plain scalars so that OpenMP can reduce them.
+    double skel_in = 0, skel_out = 0, water_in = 0, water_out = 0, el_in = 0, el_out = 0;
+    double dr_in = 0, dr_out = 0;
+#pragma omp parallel for schedule(static) \
+    reduction(+ : skel_in, skel_out, water_in, water_out, el_in, el_out, dr_in, dr_out)
+    for (std::ptrdiff_t u = 0; u < n; ++u) {
+      const CellIndex c = layout.cell_of_unknown[static_cast<std::size_t>(u)];
       const std::size_t i = at(c);
       const StoredWater change =
           stored_water_change(cell_storage(model, c), head_old[i], head_new[i]);
       const double elastic = -layout.area[i] * change.elastic / dt;
       const double drainage = -layout.area[i] * change.drainage / dt;
+      auto add = [](double& in, double& out, double q) { q > 0.0 ? in += q : out -= q; };
       if (split) {
         const double share = model.aquifer.skeleton_share[i];
-        add_signed(budget[BudgetComponent::storage_skeleton], share * elastic);
-        add_signed(budget[BudgetComponent::storage_water], (1.0 - share) * elastic);
+        add(skel_in, skel_out, share * elastic);
+        add(water_in, water_out, (1.0 - share) * elastic);
       } else {
-        add_signed(budget[BudgetComponent::storage_elastic], elastic);
+        add(el_in, el_out, elastic);
       }
-      add_signed(budget[BudgetComponent::storage_drainage], drainage);
+      add(dr_in, dr_out, drainage);
     }
+    budget[BudgetComponent::storage_skeleton] = {skel_in, skel_out};
+    budget[BudgetComponent::storage_water] = {water_in, water_out};
+    budget[BudgetComponent::storage_elastic] = {el_in, el_out};
+    budget[BudgetComponent::storage_drainage] = {dr_in, dr_out};
   }
 
   const std::vector<FeatureRef> features = list_features(model);

@@ -3,6 +3,7 @@
 // (5-point stencil over the unknowns) is built once; each assembly only rewrites values.
 #include <Eigen/SparseCore>
 #include <cstddef>
+#include <cstdint>
 #include <span>
 #include <vector>
 
@@ -58,6 +59,12 @@ class FlowSystem {
   std::vector<int> diagonal_;          ///< position of each diagonal entry in the matrix values
   std::vector<CellStorage> storage_;   ///< per unknown
   std::vector<double> stress_q_, stress_dq_;  ///< per grid cell
+  std::vector<std::uint8_t> parallel_recharge_;  ///< per recharge: cells distinct
+  std::vector<ValueSlope> thickness_;  ///< L and -, per grid cell at the assembled heads
+  double abs_sum_ = 0.0, face_sum_ = 0.0;  ///< L3/T, partial sums of the cell loop
+  /// The loop over unknowns: residual, matrix values, budget sums.
+  template <bool Confined>
+  void assemble_cells(std::span<const double> head);
   /// Fixed cells with their active non-fixed neighbours, for the fixed-head throughflow.
   std::vector<CellIndex> fixed_cells_;
   std::vector<Neighbour> fixed_neighbours_;

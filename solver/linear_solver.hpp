@@ -51,6 +51,9 @@ inline constexpr int cholmod_auto_limit = 5'000'000;
 inline constexpr int umfpack_auto_limit = 300'000;
 
 std::unique_ptr<LinearSolver> make_cholmod_solver();
+/// Fill-reducing ordering of the Cholesky factorisation: CHOLMOD's own choice, or forced.
+enum class CholmodOrdering { automatic, amd, metis };
+std::unique_ptr<LinearSolver> make_cholmod_solver(CholmodOrdering ordering);
 std::unique_ptr<LinearSolver> make_umfpack_solver();
 std::unique_ptr<LinearSolver> make_pcg_solver();
 std::unique_ptr<LinearSolver> make_bicgstab_solver();

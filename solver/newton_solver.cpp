@@ -14,12 +14,11 @@ struct ResidualCheck {
   bool ok = false;
 };
 
-ResidualCheck check_residual(const FlowSystem& system, const NewtonSettings& s) {
+ResidualCheck check_residual(const FlowSystem& system, const ResidualNorms& norms,
+                             const NewtonSettings& s) {
   ResidualCheck c;
-  const Eigen::VectorXd& r = system.residual();
-  double worst = -1.0;
-  for (Eigen::Index i = 0; i < r.size(); ++i)
-    if (std::abs(r[i]) > worst) worst = std::abs(r[i]), c.worst = static_cast<int>(i);
+  const double worst = norms.worst >= 0 ? norms.max_abs : -1.0;
+  c.worst = norms.worst;
   const double scale = system.throughflow();
   // No budget term at all: only rounding of internal flows may remain.
   if (!(scale > 0.0)) {
@@ -37,6 +36,28 @@ ResidualCheck check_residual(const FlowSystem& system, const NewtonSettings& s) 
 
 }  // namespace
 
+ResidualNorms residual_norms(const Eigen::VectorXd& r) {
+  const auto n = static_cast<int>(r.size());
+  double sum_sq = 0.0, largest = -1.0;
+  int worst = -1;
+#pragma omp parallel
+  {
+    double local = -1.0;
+    int local_worst = -1;
+#pragma omp for schedule(static) reduction(+ : sum_sq) nowait
+    for (int i = 0; i < n; ++i) {
+      const double a = std::abs(r[i]);
+      sum_sq += a * a;
+      if (a > local) local = a, local_worst = i;
+    }
+    // Ties go to the lowest index, as in a serial scan, so the report does not depend on threads.
+#pragma omp critical
+    if (local > largest || (local == largest && local_worst >= 0 && local_worst < worst))
+      largest = local, worst = local_worst;
+  }
+  return {std::max(largest, 0.0), std::sqrt(sum_sq), worst};
+}
+
 NewtonResult solve_newton(FlowSystem& system, LinearSolver& linear, const NewtonSettings& settings,
                           std::span<double> head, NewtonWorkspace& work) {
   const SystemLayout& layout = system.layout();
@@ -48,6 +69,7 @@ NewtonResult solve_newton(FlowSystem& system, LinearSolver& linear, const Newton
   std::vector<double>& base = work.base;
   auto apply = [&](double step) {
     double largest = 0.0;
+#pragma omp parallel for schedule(static) reduction(max : largest)
     for (int u = 0; u < n; ++u) {
       const auto i =
           static_cast<std::size_t>(layout.cell_of_unknown[static_cast<std::size_t>(u)].value);
@@ -64,9 +86,10 @@ NewtonResult solve_newton(FlowSystem& system, LinearSolver& linear, const Newton
   };
 
   system.assemble(head);
-  ResidualCheck check = check_residual(system, settings);
+  ResidualNorms norms = residual_norms(system.residual());
+  ResidualCheck check = check_residual(system, norms, settings);
   record(check);
-  double norm = system.residual().norm();
+  double norm = norms.norm;
   while (result.iterations < settings.max_iterations) {
     if (!linear.solve(system.matrix(), system.residual(), dh)) {
       result.linear_failure = true;
@@ -74,6 +97,7 @@ NewtonResult solve_newton(FlowSystem& system, LinearSolver& linear, const Newton
     }
     ++result.iterations;
     result.linear_iterations += linear.last_iterations();
+#pragma omp parallel for schedule(static)
     for (int u = 0; u < n; ++u)
       base[static_cast<std::size_t>(u)] =
           head[static_cast<std::size_t>(layout.cell_of_unknown[static_cast<std::size_t>(u)].value)];
@@ -84,7 +108,8 @@ NewtonResult solve_newton(FlowSystem& system, LinearSolver& linear, const Newton
     for (int cut = 0;; ++cut) {
       result.max_head_change = apply(step);
       system.assemble(head);
-      const double trial = system.residual().norm();
+      norms = residual_norms(system.residual());
+      const double trial = norms.norm;
       const bool finite = std::isfinite(trial);
       if ((finite && (check.ok || trial <= (1.0 - 1.0e-4 * step) * norm)) || cut == 4) {
         norm = trial;
@@ -92,7 +117,7 @@ NewtonResult solve_newton(FlowSystem& system, LinearSolver& linear, const Newton
       }
       step *= 0.5;
     }
-    check = check_residual(system, settings);
+    check = check_residual(system, norms, settings);
     record(check);
     if (check.ok && result.max_head_change < settings.head_tolerance) {
       result.converged = true;

@@ -33,6 +33,14 @@ struct NewtonWorkspace {
   std::vector<double> base;  ///< L per unknown, heads before the update
 };
 
+/// The residual's largest magnitude (at `worst`) and its Euclidean norm, in one parallel pass.
+struct ResidualNorms {
+  double max_abs = 0.0;  ///< L3/T
+  double norm = 0.0;     ///< L3/T
+  int worst = -1;        ///< unknown of the largest |R_i|
+};
+ResidualNorms residual_norms(const Eigen::VectorXd& r);
+
 /// Converged when max |dh| < head_tolerance, max |R_i| <= flow_tolerance * throughflow and
 /// |sum R_i| <= 0.01 flow_tolerance * throughflow (the last closes the step's budget to
 /// 1e-6 percent with the default tolerance). head (per grid cell) holds the start on entry

@@ -1,6 +1,7 @@
 #include "solver/stress_flows.hpp"
 
 #include <cmath>
+#include <cstdint>
 
 #include "solver/stress_kernels.hpp"
 
@@ -12,9 +13,12 @@ std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
 
 /// Calls visit(k, cell, flow) for every cell of every stress feature, k being the feature's
 /// position in list_features(model). Inactive and fixed-head cells carry no stress.
+/// Recharges flagged in parallel_recharge (cells known distinct, and visit safe to call
+/// concurrently for distinct cells) loop over their cells with OpenMP.
 template <class Visit>
 void visit_stress_flows(const Model& model, const SystemLayout& layout, std::size_t period,
-                        std::span<const double> head, Visit&& visit) {
+                        std::span<const double> head, Visit&& visit,
+                        std::span<const std::uint8_t> parallel_recharge = {}) {
   const RectilinearGrid& grid = model.grid;
   const bool reducible = model.aquifer.condition != Condition::confined;
   auto carries_stress = [&](CellIndex c) { return grid.is_active(c) && layout.fixed[at(c)] == 0; };
@@ -30,14 +34,20 @@ void visit_stress_flows(const Model& model, const SystemLayout& layout, std::siz
   }
   k += model.fixed_heads.size();
 
-  for (const Recharge& recharge : model.recharges) {
-    for (std::size_t j = 0; j < recharge.cells.size(); ++j) {
+  for (std::size_t f = 0; f < model.recharges.size(); ++f) {
+    const Recharge& recharge = model.recharges[f];
+    const auto n_cells = static_cast<std::ptrdiff_t>(recharge.cells.size());
+    const bool parallel = f < parallel_recharge.size() && parallel_recharge[f] != 0;
+    const std::vector<double>& rates = recharge.rate.table(period);
+#pragma omp parallel for schedule(static) if (parallel)
+    for (std::ptrdiff_t jj = 0; jj < n_cells; ++jj) {
+      const auto j = static_cast<std::size_t>(jj);
       const CellIndex c = recharge.cells[j];
       if (!carries_stress(c)) continue;
       const ValueSlope b = saturated_thickness(model, layout, c, head[at(c)]);
+      const double rate = rates.size() == 1 ? rates[0] : rates[j];
       visit(k, c,
-            recharge_flow(recharge.rate.at(period, j), layout.area[at(c)], b,
-                          layout.reduction_length[at(c)], reducible));
+            recharge_flow(rate, layout.area[at(c)], b, layout.reduction_length[at(c)], reducible));
     }
     ++k;
   }
@@ -147,11 +157,36 @@ std::vector<FeatureRef> list_features(const Model& model) {
 
 void add_stress_flows(const Model& model, const SystemLayout& layout, std::size_t period,
                       std::span<const double> head, std::span<double> q, std::span<double> dq_dh) {
-  visit_stress_flows(model, layout, period, head,
-                     [&](std::size_t, CellIndex c, const WithdrawalFlow& flow) {
-                       q[at(c)] += flow.q.value;
-                       dq_dh[at(c)] += flow.q.slope;
-                     });
+  add_stress_flows(model, layout, period, head, q, dq_dh, {});
+}
+
+void add_stress_flows(const Model& model, const SystemLayout& layout, std::size_t period,
+                      std::span<const double> head, std::span<double> q, std::span<double> dq_dh,
+                      std::span<const std::uint8_t> parallel_recharge) {
+  visit_stress_flows(
+      model, layout, period, head,
+      [&](std::size_t, CellIndex c, const WithdrawalFlow& flow) {
+        q[at(c)] += flow.q.value;
+        dq_dh[at(c)] += flow.q.slope;
+      },
+      parallel_recharge);
+}
+
+std::vector<std::uint8_t> recharges_with_distinct_cells(const Model& model) {
+  std::vector<std::uint8_t> flags(model.recharges.size(), 0);
+  std::vector<std::uint8_t> seen(static_cast<std::size_t>(model.grid.n_cells()), 0);
+  for (std::size_t f = 0; f < model.recharges.size(); ++f) {
+    bool distinct = true;
+    for (CellIndex c : model.recharges[f].cells) {
+      if (!c.valid() || c.value >= model.grid.n_cells() || seen[at(c)]) distinct = false;
+      if (!distinct) break;
+      seen[at(c)] = 1;
+    }
+    for (CellIndex c : model.recharges[f].cells)
+      if (c.valid() && c.value < model.grid.n_cells()) seen[at(c)] = 0;
+    flags[f] = distinct ? 1 : 0;
+  }
+  return flags;
 }
 
 void stress_flows_by_feature(const Model& model, const SystemLayout& layout, std::size_t period,

@@ -3,6 +3,7 @@
 // heads, evapotranspiration and leakage. One place evaluates them, for the Newton system
 // (flow and derivative per cell) and for the budget (in, out per feature).
 #include <cstddef>
+#include <cstdint>
 #include <span>
 #include <string>
 #include <vector>
@@ -41,6 +42,16 @@ struct FeatureFlow {
 /// dq_dh, both indexed by grid cell. Fixed-head and inactive cells are skipped.
 void add_stress_flows(const Model& model, const SystemLayout& layout, std::size_t period,
                       std::span<const double> head, std::span<double> q, std::span<double> dq_dh);
+
+/// As above; the cell loop of every recharge flagged in parallel_recharge (one flag per
+/// model.recharges entry, from recharges_with_distinct_cells) runs with OpenMP threads.
+void add_stress_flows(const Model& model, const SystemLayout& layout, std::size_t period,
+                      std::span<const double> head, std::span<double> q, std::span<double> dq_dh,
+                      std::span<const std::uint8_t> parallel_recharge);
+
+/// 1 for each recharge whose cells are all distinct (so that its cells can be updated
+/// concurrently), else 0.
+std::vector<std::uint8_t> recharges_with_distinct_cells(const Model& model);
 
 /// Fills flows[k] for every entry k of list_features(model) that is not a fixed head
 /// (fixed-head entries are left untouched).
