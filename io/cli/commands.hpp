@@ -9,6 +9,8 @@ inline constexpr int exit_success = 0;
 inline constexpr int exit_invalid_model = 1;
 inline constexpr int exit_not_converged = 2;
 inline constexpr int exit_output_failure = 3;
+/// `verify`: a benchmark fell outside its tolerance.
+inline constexpr int exit_verification_failed = 4;
 
 struct CheckOptions {
   std::filesystem::path model_file;
@@ -21,7 +23,19 @@ struct RunOptions {
   bool quiet = false;
 };
 
+struct VerifyOptions {
+  std::filesystem::path output_folder = "verify-results";
+};
+
+struct ReportOptions {
+  std::filesystem::path results_folder;
+  std::optional<std::filesystem::path> output_file;  ///< default RESULTS/report.html
+  std::optional<std::filesystem::path> model_file;   ///< default: summary.json's model_file
+};
+
 int run_check_command(const CheckOptions& options);
 int run_run_command(const RunOptions& options);
+int run_verify_command(const VerifyOptions& options);
+int run_report_command(const ReportOptions& options);
 
 }  // namespace aquiledger
