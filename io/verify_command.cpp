@@ -27,7 +27,7 @@ std::string verification_table_header() {
 
 std::string verification_table_row(const VerificationResult& r) {
   const std::string unit = r.unit == "-" ? "" : " " + r.unit;
-  return fmt::format("{:<16} {:<34} {:<66} {:>11} {:>11} {:>9.3f} {:>6}  {:.1f} s\n", r.name, r.source,
+  return fmt::format("{:<16} {:<34} {:<66} {:>11} {:>11} {:>9.4f} {:>6}  {:.1f} s\n", r.name, r.source,
                      r.quantity, number(r.largest_error) + unit, number(r.tolerance) + unit,
                      r.tolerance > 0 ? r.largest_error / r.tolerance : 0.0, r.passed ? "pass" : "FAIL",
                      r.seconds);
