@@ -10,6 +10,7 @@
 #include <vtkRectilinearGrid.h>
 #include <vtkStringArray.h>
 #include <vtkUnsignedCharArray.h>
+#include <vtkXMLRectilinearGridReader.h>
 #include <vtkXMLRectilinearGridWriter.h>
 
 #include <cmath>
@@ -215,5 +216,33 @@ void write_pvd(const std::filesystem::path& path, const std::vector<FieldFileEnt
 }
 
 std::string field_file_name(std::size_t n) { return fmt::format("fields_{:04d}.vtr", n); }
+
+FieldMap read_field_vtr(const std::filesystem::path& path, const std::string& array) {
+  if (!std::filesystem::is_regular_file(path)) throw OutputError("cannot read " + path.string());
+  vtkNew<vtkXMLRectilinearGridReader> reader;
+  reader->SetFileName(path.string().c_str());
+  reader->Update();
+  vtkRectilinearGrid* grid = reader->GetOutput();
+  if (reader->GetErrorCode() != 0 || grid == nullptr || grid->GetNumberOfCells() == 0)
+    throw OutputError("cannot read " + path.string() + " as a VTK rectilinear grid");
+  vtkDataArray* values = grid->GetCellData()->GetArray(array.c_str());
+  if (values == nullptr) throw OutputError(path.string() + " has no cell array '" + array + "'");
+  int dims[3];
+  grid->GetDimensions(dims);
+  const int n_cols = dims[0] - 1, n_rows = dims[1] - 1;
+  FieldMap map;
+  map.time = nan_value;
+  if (vtkDataArray* t = grid->GetFieldData()->GetArray("TIME"); t && t->GetNumberOfTuples() > 0)
+    map.time = t->GetTuple1(0);
+  for (int i = 0; i <= n_cols; ++i) map.x_edges.push_back(grid->GetXCoordinates()->GetTuple1(i));
+  for (int j = n_rows; j >= 0; --j) map.y_edges.push_back(grid->GetYCoordinates()->GetTuple1(j));
+  map.values.resize(static_cast<std::size_t>(n_rows) * static_cast<std::size_t>(n_cols));
+  for (int j = 0; j < n_rows; ++j)
+    for (int i = 0; i < n_cols; ++i) {
+      const int row = n_rows - 1 - j;  // VTK's j grows northward
+      map.values[static_cast<std::size_t>(row * n_cols + i)] = values->GetTuple1(j * n_cols + i);
+    }
+  return map;
+}
 
 }  // namespace aquiledger

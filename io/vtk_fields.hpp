@@ -35,6 +35,18 @@ void write_static_vtr(const std::filesystem::path& path, const Model& model);
 /// Writes the collection file by hand (VTK 9.1 has no writer for it), atomically.
 void write_pvd(const std::filesystem::path& path, const std::vector<FieldFileEntry>& entries);
 
+/// One cell array read back from a field file (for the HTML report's maps).
+struct FieldMap {
+  double time = 0.0;            ///< T; NaN when the file has no TIME
+  std::vector<double> x_edges;  ///< L, west to east
+  std::vector<double> y_edges;  ///< L, north to south
+  std::vector<double> values;   ///< per cell in raster order (row 0 north); NaN where inactive
+};
+
+/// Reads the named cell array of a .vtr written by write_fields_vtr; throws OutputError
+/// naming the path when the file or the array cannot be read.
+FieldMap read_field_vtr(const std::filesystem::path& path, const std::string& array);
+
 /// "fields_0007.vtr": the name of the n-th field file (0 for time 0).
 std::string field_file_name(std::size_t n);
 

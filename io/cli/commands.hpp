@@ -10,6 +10,8 @@ inline constexpr int exit_invalid_model = 1;
 inline constexpr int exit_not_converged = 2;
 inline constexpr int exit_output_failure = 3;
 inline constexpr int exit_bad_checkpoint = 4;  ///< --resume without a usable checkpoint
+/// `verify`: a benchmark fell outside its tolerance.
+inline constexpr int exit_verification_failed = 5;
 
 struct CheckOptions {
   std::filesystem::path model_file;
@@ -24,7 +26,19 @@ struct RunOptions {
   bool resume = false;       ///< continue from the output folder's checkpoint
 };
 
+struct VerifyOptions {
+  std::filesystem::path output_folder = "verify-results";
+};
+
+struct ReportOptions {
+  std::filesystem::path results_folder;
+  std::optional<std::filesystem::path> output_file;  ///< default RESULTS/report.html
+  std::optional<std::filesystem::path> model_file;   ///< default: summary.json's model_file
+};
+
 int run_check_command(const CheckOptions& options);
 int run_run_command(const RunOptions& options);
+int run_verify_command(const VerifyOptions& options);
+int run_report_command(const ReportOptions& options);
 
 }  // namespace aquiledger

@@ -19,7 +19,7 @@ int main(int argc, char** argv) {
   app.footer(
       "Exit status: 0 success; 1 invalid model file (nothing run); 2 the run did not converge "
       "(results up to the last converged step are kept); 3 results could not be written; 4 --resume "
-      "found no checkpoint it could use.");
+      "found no checkpoint it could use; 5 verify: a benchmark fell outside its tolerance.");
 
   CheckOptions check_options;
   auto* check = app.add_subcommand("check", "Validate a model file and print what it describes.");
@@ -40,11 +40,27 @@ int main(int argc, char** argv) {
                 "Continue from the checkpoint in the results folder; the results equal those of an "
                 "uninterrupted run");
 
+  VerifyOptions verify_options;
+  auto* verify = app.add_subcommand(
+      "verify", "Run the analytical benchmark suite on built-in grids and compare with the "
+                "published solutions.");
+  verify->add_option("-o,--out", verify_options.output_folder,
+                     "Folder for the comparison CSV files and verify.html (default: verify-results)");
+
+  ReportOptions report_options;
+  auto* report = app.add_subcommand("report", "Write a self-contained HTML report of a results folder.");
+  report->add_option("RESULTS", report_options.results_folder, "Results folder of a run")->required();
+  report->add_option("-o,--out", report_options.output_file, "HTML file (default: RESULTS/report.html)");
+  report->add_option("-m,--model", report_options.model_file,
+                     "Model file, for measured heads (default: model_file in RESULTS/summary.json)");
+
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
     return app.exit(e) == 0 ? 0 : 64;
   }
   if (*check) return run_check_command(check_options);
+  if (*verify) return run_verify_command(verify_options);
+  if (*report) return run_report_command(report_options);
   return run_run_command(run_options);
 }

@@ -1,0 +1,30 @@
+#pragma once
+// A small reader for the result tables (RFC 4180 quoting), for the HTML report.
+#include <filesystem>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace aquiledger {
+
+struct CsvTable {
+  std::vector<std::string> header;
+  std::vector<std::vector<std::string>> rows;
+  /// Index of a column, if present.
+  std::optional<std::size_t> column(const std::string& name) const;
+  /// The column as numbers ("nan" and unparsable cells read NaN); empty when absent.
+  std::vector<double> numbers(const std::string& name) const;
+  /// The column as text; empty when absent.
+  std::vector<std::string> texts(const std::string& name) const;
+};
+
+/// Parses CSV text whose first line is the header.
+CsvTable parse_csv(const std::string& text);
+
+/// Reads and parses a file; throws OutputError naming the path when it cannot be read.
+CsvTable read_csv_file(const std::filesystem::path& path);
+
+/// Whole file as text; throws OutputError naming the path.
+std::string read_text_file(const std::filesystem::path& path);
+
+}  // namespace aquiledger
