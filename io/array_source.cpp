@@ -1,5 +1,7 @@
 #include "io/array_source.hpp"
 
+#include "io/input_file_guard.hpp"
+
 #include <algorithm>
 #include <cctype>
 #include <charconv>
@@ -113,9 +115,14 @@ void read_data_line(const std::string& line, int line_no, ArraySource& out) {
 
 }  // namespace
 
-ArraySource load_array_source(const std::filesystem::path& file) {
+ArraySource load_array_source(const std::filesystem::path& file, std::uintmax_t max_bytes) {
   ArraySource out;
   out.file = file;
+  if (auto refusal = input_file_refusal(file, max_bytes)) {
+    out.readable = true;  // it exists; the refusal is the message
+    out.refusal = std::move(*refusal);
+    return out;
+  }
   std::ifstream in(file);
   if (!in) return out;
   out.readable = true;

@@ -2,6 +2,7 @@
 // Array files as written by users: plain text (one grid row per line, the northern row
 // first, values split by white space or commas, '#' starts a comment) or ESRI ASCII
 // rasters (.asc). This layer only parses; io/field_value checks the shape against the grid.
+#include <cstdint>
 #include <filesystem>
 #include <optional>
 #include <string>
@@ -36,11 +37,14 @@ struct ArraySource {
   std::vector<ArrayRow> rows;          ///< data rows; NODATA cells of a raster hold NaN
   std::optional<RasterHeader> raster;  ///< set for .asc files
   std::vector<ArrayProblem> problems;  ///< unreadable values, NaN, bad header
+  std::string refusal;                 ///< set when the file was not read (io/input_file_guard)
   std::size_t n_values() const;
 };
 
 /// Reads a text array or (by the .asc extension) a raster. Never throws; problems are listed.
-ArraySource load_array_source(const std::filesystem::path& file);
+/// A file that is not a regular file or exceeds max_bytes is not read (refusal says why).
+ArraySource load_array_source(const std::filesystem::path& file,
+                              std::uintmax_t max_bytes = UINTMAX_MAX);
 
 /// Parses one value token; rejects NaN, infinities and trailing text.
 std::optional<double> parse_value(const std::string& token);

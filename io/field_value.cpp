@@ -3,6 +3,7 @@
 #include <cmath>
 #include <set>
 
+#include "io/input_file_guard.hpp"
 #include "io/toml_access.hpp"
 
 namespace aquiledger {
@@ -16,9 +17,17 @@ bool is_field_node(const toml::node& node) {
 const ArraySource* load_cached(ReaderContext& ctx, const std::filesystem::path& file,
                                const SourceSpot& at, const std::string& key) {
   auto it = ctx.array_cache.find(file);
-  if (it == ctx.array_cache.end())
-    it = ctx.array_cache.emplace(file, load_array_source(file)).first;
+  if (it == ctx.array_cache.end()) {
+    // No array can need more values than the grid has cells.
+    // (dx and dy files are read before the grid is known: at most 10 million values.)
+    const double n_values = ctx.shape ? static_cast<double>(ctx.shape->nrow) * ctx.shape->ncol : 1.0e7;
+    it = ctx.array_cache.emplace(file, load_array_source(file, max_array_file_bytes(n_values))).first;
+  }
   const ArraySource& src = it->second;
+  if (!src.refusal.empty()) {
+    ctx.error(at, key, "array file " + src.refusal);
+    return nullptr;
+  }
   if (!src.readable) {
     ctx.error(at, key,
               "cannot open array file '" + file.string() +

@@ -91,7 +91,7 @@ bool read_grid_shape(ReaderContext& ctx, const toml::table& root) {
         "nrow x ncol = " + show_number(n_cells) + " cells; at most 2147483647 cells are supported");
     return false;
   }
-  if (auto memory = physical_memory_bytes()) {
+  if (auto memory = usable_memory_bytes()) {
     if (auto refusal = memory_refusal(n_cells, *memory)) {
       ctx.error(*t->get("nrow"), path + ".nrow", *refusal);
       return false;

@@ -6,6 +6,7 @@
 #include <fstream>
 #include <sstream>
 
+#include "io/input_file_guard.hpp"
 #include "io/plausibility.hpp"
 #include "io/reader_context.hpp"
 #include "io/section_readers.hpp"
@@ -85,6 +86,11 @@ ReadResult read_model_text(std::string_view toml_text, const std::filesystem::pa
 }
 
 ReadResult read_model_file(const std::filesystem::path& path) {
+  if (auto refusal = input_file_refusal(path, max_model_file_bytes)) {
+    ReadResult result;
+    result.diagnostics.push_back({Severity::error, path, 0, 0, "", "model file " + *refusal});
+    return result;
+  }
   std::ifstream in(path, std::ios::binary);
   if (!in) {
     ReadResult result;

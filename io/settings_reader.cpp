@@ -4,6 +4,8 @@
 
 #include "io/array_source.hpp"
 #include "io/field_value.hpp"
+#include "io/input_file_guard.hpp"
+#include "io/memory_guard.hpp"
 #include "io/section_readers.hpp"
 #include "io/toml_access.hpp"
 
@@ -85,6 +87,9 @@ void read_periods(ReaderContext& ctx, const toml::table& root, Model& model) {
     ctx.error(*periods, "[[period]]",
               std::to_string(total_steps) + " time steps in all; at most " +
                   std::to_string(max_total_steps) + " are supported");
+  else if (ctx.grid)
+    if (auto refusal = work_refusal(ctx.grid->n_active(), static_cast<double>(total_steps)))
+      ctx.error(*periods, "[[period]]", *refusal);
   if (ctx.diagnostics.n_errors() == errors_before)
     ctx.n_periods = static_cast<int>(model.periods.size());
 }
@@ -95,6 +100,10 @@ namespace {
 std::vector<MeasuredHead> read_measured(ReaderContext& ctx, const std::filesystem::path& file,
                                         const SourceSpot& at, const std::string& key) {
   std::vector<MeasuredHead> rows;
+  if (auto refusal = input_file_refusal(file, max_measured_file_bytes)) {
+    ctx.error(at, key, "measured-head file " + *refusal);
+    return rows;
+  }
   std::ifstream in(file);
   if (!in) {
     ctx.error(at, key,

@@ -114,21 +114,54 @@ std::string show_number(double value) {
   return ec == std::errc() ? std::string(buffer, end) : std::to_string(value);
 }
 
-std::string show(const toml::node& node) {
-  std::ostringstream out;
+namespace {
+
+/// Appends a short TOML-like rendering of node, stopping once out is longer than limit.
+/// Arrays and tables are rendered here, not by TOML++'s formatter: that one (3.3) converts
+/// log10 of a floating-point value below 1 to an unsigned count (undefined behaviour, found
+/// by tests/fuzz; regression tests/data/fuzz/formatter-log10.toml), and it formats a long
+/// array whole only for the message to cut it.
+void render(const toml::node& node, std::string& out, std::size_t limit) {
+  if (out.size() > limit) return;
   if (auto s = node.as_string()) {
-    out << '"' << s->get() << '"';
+    out += '"' + s->get() + '"';
   } else if (auto v = number_of(node)) {
-    out << show_number(*v);
+    out += show_number(*v);
   } else if (auto b = node.as_boolean()) {
-    out << (b->get() ? "true" : "false");
+    out += b->get() ? "true" : "false";
+  } else if (auto a = node.as_array()) {
+    out += '[';
+    for (std::size_t k = 0; k < a->size() && out.size() <= limit; ++k) {
+      if (k > 0) out += ", ";
+      render(*a->get(k), out, limit);
+    }
+    out += ']';
+  } else if (auto t = node.as_table()) {
+    out += '{';
+    bool first = true;
+    for (auto&& [key, value] : *t) {
+      if (out.size() > limit) break;
+      out += first ? " " : ", ";
+      first = false;
+      out += std::string(key.str()) + " = ";
+      render(value, out, limit);
+    }
+    out += first ? "}" : " }";
   } else {
-    node.visit([&](auto&& n) { out << n; });
+    std::ostringstream text;  // dates and times
+    node.visit([&](auto&& n) { text << n; });
+    out += text.str();
   }
-  std::string text = out.str();
+}
+
+}  // namespace
+
+std::string show(const toml::node& node) {
+  std::string text;
+  render(node, text, 60);
   if (text.size() > 60) text = text.substr(0, 57) + "...";
   for (char& c : text)
-    if (c == '\n') c = ' ';
+    if (c == '\n' || c == '\r') c = ' ';
   return text;
 }
 
