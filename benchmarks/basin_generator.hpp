@@ -1,6 +1,7 @@
 #pragma once
 // Synthetic basin models of any size for benchmarks: a smooth heterogeneous K field, a well
 // field, areal recharge, a fixed-head west edge and two transient periods (pumping, recovery).
+#include <algorithm>
 #include <cmath>
 #include <numbers>
 #include <string>
@@ -14,7 +15,12 @@ struct BasinSpec {
   int n_cols = 100;
   bool switching = false;      ///< false: confined
   int steps_per_period = 30;
-  int n_wells = 16;
+  /// Cells between wells of the regular well field (over the east three quarters): the well
+  /// density, and so the drawdown pattern, is the same at every size.
+  int well_spacing = 40;
+  /// Withdrawal over the recharge falling on each well's square of the field (confined: 1,
+  /// balanced; switching: 3, so that the water table falls below the top around the wells).
+  double pumping_over_recharge() const { return switching ? 3.0 : 1.0; }
 };
 
 inline Model make_basin(const BasinSpec& spec) {
@@ -47,25 +53,24 @@ inline Model make_basin(const BasinSpec& spec) {
   for (int r = 0; r < spec.n_rows; ++r) west.cells.push_back(m.grid.cell(r, 0));
   m.fixed_heads.push_back(std::move(west));
 
-  Recharge rch{"areal recharge", {}, PeriodValues(2.0e-4)};
+  const double recharge = 2.0e-4;  // m/d
+  Recharge rch{"areal recharge", {}, PeriodValues(recharge)};
   for (int i = 0; i < m.grid.n_cells(); ++i) rch.cells.push_back(CellIndex{i});
   m.recharges.push_back(std::move(rch));
 
-  const int side = static_cast<int>(std::ceil(std::sqrt(spec.n_wells)));
-  // Rates scale with the basin area so that drawdowns are alike at every size.
-  const double rate = 0.5 * 2.0e-4 * lx * ly / spec.n_wells * (spec.switching ? 6.0 : 2.0);
-  for (int k = 0; k < spec.n_wells; ++k) {
-    const int r = (2 * (k / side) + 1) * spec.n_rows / (2 * side);
-    const int c = spec.n_cols / 4 + (2 * (k % side) + 1) * (3 * spec.n_cols / 4) / (2 * side);
-    Well w;
-    w.name = "well " + std::to_string(k + 1);
-    w.cell = m.grid.cell(std::min(r, spec.n_rows - 1), std::min(c, spec.n_cols - 1));
-    const RowCol rc = m.grid.row_col(w.cell);
-    w.x = m.grid.x_center(rc.col);
-    w.y = m.grid.y_center(rc.row);
-    w.rate = PeriodValues({{rate}, {0.0}}, {0, 1});
-    m.wells.push_back(std::move(w));
-  }
+  const int sp = spec.well_spacing;
+  const double rate = spec.pumping_over_recharge() * recharge * sp * sp * cell * cell;  // m3/d
+  int k = 0;
+  for (int r = sp / 2; r < spec.n_rows; r += sp)
+    for (int c = spec.n_cols / 4 + sp / 2; c < spec.n_cols; c += sp) {
+      Well w;
+      w.name = "well " + std::to_string(++k);
+      w.cell = m.grid.cell(r, c);
+      w.x = m.grid.x_center(c);
+      w.y = m.grid.y_center(r);
+      w.rate = PeriodValues({{rate}, {0.0}}, {0, 1});
+      m.wells.push_back(std::move(w));
+    }
   m.output.fields = FieldCadence::none;
   return m;
 }

@@ -1,8 +1,5 @@
 // The direct backends. This is the only file that includes SuiteSparse headers.
 #include <dlfcn.h>
-#ifdef _OPENMP
-#include <omp.h>
-#endif
 
 #include <Eigen/CholmodSupport>
 #include <Eigen/UmfPackSupport>
@@ -13,22 +10,15 @@ namespace aquiledger {
 
 namespace {
 
-/// OpenBLAS runs its own thread pool beside OpenMP's; on few cores the two pools spin against
-/// each other. A single right-hand side's triangular solves are memory bound, so BLAS runs
-/// single-threaded inside them (measured in docs/performance.md); factorisations get the
-/// OpenMP thread count. Looked up at run time: the reference BLAS has no such call.
+/// OpenBLAS runs its own thread pool beside OpenMP's; on 2 cores the pools spin and yield
+/// against each other (perf showed most of a step in sched_yield and the OpenMP spin-wait),
+/// and the fronts of a 2D grid are too small for threaded BLAS to pay. BLAS therefore runs
+/// single-threaded in factorisations and solves (docs/performance.md: 2x faster LU steps at
+/// 1e5 cells). Looked up at run time: the reference BLAS has no such call.
 void set_blas_threads(int n) {
   using SetThreads = void (*)(int);
   static const auto set = reinterpret_cast<SetThreads>(dlsym(RTLD_DEFAULT, "openblas_set_num_threads"));
   if (set) set(n);
-}
-
-int openmp_threads() {
-#ifdef _OPENMP
-  return omp_get_max_threads();
-#else
-  return 1;
-#endif
 }
 
 template <class Factorization>
@@ -51,8 +41,7 @@ class DirectSolver final : public LinearSolver {
     configure(factorization_, ordering);
   }
   bool solve(const SparseMatrix& a, const Eigen::VectorXd& b, Eigen::VectorXd& x) override {
-    const int threads = openmp_threads();
-    set_blas_threads(threads);
+    set_blas_threads(1);
     if (!analysed_) {
       factorization_.analyzePattern(a);
       analysed_ = true;
@@ -61,7 +50,6 @@ class DirectSolver final : public LinearSolver {
     if (changed) factorization_.factorize(a);
     count_factorization(!changed);
     if (factorization_.info() != Eigen::Success) return false;
-    set_blas_threads(1);
     x = factorization_.solve(b);
     count_iterations(0);
     return factorization_.info() == Eigen::Success && x.allFinite();
