@@ -52,9 +52,9 @@ std::optional<std::string> memory_refusal(double n_cells, double available_bytes
   if (needed <= available_bytes) return std::nullopt;
   char text[256];
   std::snprintf(text, sizeof text,
-                "a grid of %.0f cells needs about %.1f GiB (about 1 KiB per cell), but this "
-                "machine has %.1f GiB of "
-                "memory usable",
+                "a grid of %.0f cells needs about %.1f GiB (about 1 KiB per cell), but only %.1f GiB "
+                "of memory is usable here (the least of the physical memory, the control-group "
+                "limit and AQUILEDGER_MEMORY_LIMIT_MB)",
                 n_cells, needed / 1073741824.0, available_bytes / 1073741824.0);
   return std::string(text);
 }

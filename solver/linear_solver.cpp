@@ -24,13 +24,17 @@ class IterativeSolver final : public LinearSolver {
     solver_.setTolerance(iterative_tolerance);
   }
   bool solve(const SparseMatrix& a, const Eigen::VectorXd& b, Eigen::VectorXd& x) override {
-    if (!analysed_) {
-      solver_.analyzePattern(a);
-      solver_.setMaxIterations(std::max<Eigen::Index>(1000, 4 * a.rows()));
-      analysed_ = true;
-    }
     const bool changed = values_changed(a);
-    if (changed) solver_.factorize(a);
+    if (!analysed_) {
+      solver_.setMaxIterations(std::max<Eigen::Index>(1000, 4 * a.rows()));
+      // Analysis and factorisation together: Eigen 3.4's IncompleteLUT leaves its status
+      // unset after analyzePattern alone, and the solver then reads it (an invalid enum
+      // load, reported by the sanitizer build).
+      solver_.compute(a);
+      analysed_ = true;
+    } else if (changed) {
+      solver_.factorize(a);
+    }
     count_factorization(!changed);
     if (x.size() != b.size() || !x.allFinite()) x.setZero(b.size());
     x = solver_.solveWithGuess(b, x);

@@ -24,7 +24,8 @@ sources=(
   io/feature_placement.cpp io/field_value.cpp io/grid_reader.cpp io/memory_guard.cpp
   io/period_value_reader.cpp io/plausibility.cpp io/polyline_crossing.cpp
   io/river_leakage_reader.cpp io/settings_reader.cpp io/stress_reader.cpp io/toml_access.cpp
-  io/unit_system.cpp mesh/rectilinear_grid.cpp tests/fuzz/fuzz_model_reader.cpp
+  io/unit_system.cpp io/input_file_guard.cpp mesh/rectilinear_grid.cpp
+  tests/fuzz/fuzz_model_reader.cpp
 )
 # Two checks are off because they fire inside TOML++ 3.3 (Debian's), not in our code, on
 # input that its parser then rejects properly: its own debug assertions (off in the shipped

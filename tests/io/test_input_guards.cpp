@@ -65,7 +65,7 @@ TEST_CASE("AQUILEDGER_MEMORY_LIMIT_MB lowers the memory the guard allows", "[io]
   const ReadResult r = read_model_text(model_text(1000, 1000, "1.0", one_period), "/x/model.toml");
   ::unsetenv("AQUILEDGER_MEMORY_LIMIT_MB");
   CHECK_FALSE(r.ok());
-  CHECK(error_says(r, {"1000000 cells", "1.0 GiB", "0.1 GiB"}));
+  CHECK(error_says(r, {"1000000 cells", "1.0 GiB", "only 0.1 GiB"}));
 }
 
 TEST_CASE("a run of more than 1e12 cell-steps is refused with the figure", "[io][guards]") {
