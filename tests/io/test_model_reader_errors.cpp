@@ -261,7 +261,7 @@ TEST_CASE("bad 47: grid too large for this machine's memory", "[reader][errors]"
   // 2e9 cells at ~1 KiB each are about 1.9 TiB, beyond any machine this runs on.
   const auto r = read(edit(edit(base, "nrow = 3", "nrow = 100000"), "ncol = 4", "ncol = 20000"));
   INFO(all_messages(r));
-  CHECK(has_error(r, "[grid].nrow", {"2000000000 cells", "GiB", "of memory usable"}));
+  CHECK(has_error(r, "[grid].nrow", {"2000000000 cells", "GiB", "memory is usable"}));
 }
 TEST_CASE("bad 48: unknown length unit", "[reader][errors]") {
   expect_rejected(edit(base, "length_unit = \"m\"", "length_unit = \"meters\""),
