@@ -40,30 +40,6 @@ void append_budget(std::string& out, const WaterBudget& budget) {
   out += '\n';
 }
 
-/// The budget_features.csv spelling of a feature kind (kept here so the writer depends
-/// on nothing but the kind itself).
-std::string_view kind_label(FeatureKind kind) {
-  switch (kind) {
-    case FeatureKind::well:
-      return "well";
-    case FeatureKind::fixed_head:
-      return "fixed_head";
-    case FeatureKind::recharge:
-      return "recharge";
-    case FeatureKind::river:
-      return "river";
-    case FeatureKind::drain:
-      return "drain";
-    case FeatureKind::external_head:
-      return "external_head";
-    case FeatureKind::evapotranspiration:
-      return "evapotranspiration";
-    case FeatureKind::leakage:
-      return "leakage";
-  }
-  return "unknown";
-}
-
 }  // namespace
 
 std::string budget_column_names() {
@@ -109,7 +85,7 @@ std::string budget_features_csv(const std::vector<FeatureRef>& features,
     }
     for (std::size_t k = 0; k < features.size(); ++k) {
       fmt::format_to(std::back_inserter(out), "{},{},{}", csv_text(features[k].name),
-                     kind_label(features[k].kind), row.period);
+                     feature_kind_label(features[k].kind), row.period);
       append_number(out, row.volumes.features[k].in);
       append_number(out, row.volumes.features[k].out);
       out += '\n';
