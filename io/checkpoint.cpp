@@ -182,6 +182,8 @@ std::string encode_checkpoint(const Checkpoint& c) {
   payload.put(s.time);
   payload.put_vector(s.head);
   payload.put_vector(s.linear_start);
+  payload.put_vector(s.previous_head);
+  payload.put(s.previous_dt);
   put_run_counters(payload, s.so_far);
   put_recorder(payload, c.recorder);
 
@@ -227,6 +229,8 @@ Checkpoint decode_checkpoint(std::string_view bytes) {
     c.state.time = p.get<double>();
     c.state.head = p.get_vector<double>();
     c.state.linear_start = p.get_vector<double>();
+    c.state.previous_head = p.get_vector<double>();
+    c.state.previous_dt = p.get<double>();
     c.state.so_far = get_run_counters(p);
     c.recorder = get_recorder(p);
     if (!p.at_end()) throw CheckpointError("checkpoint file has unexpected trailing data");

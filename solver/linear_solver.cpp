@@ -13,6 +13,11 @@ bool LinearSolver::values_changed(const SparseMatrix& a) {
   return true;
 }
 
+bool LinearSolver::factorized(const SparseMatrix& a) const {
+  return last_values_.size() == a.nonZeros() &&
+         std::equal(a.valuePtr(), a.valuePtr() + a.nonZeros(), last_values_.begin());
+}
+
 namespace {
 
 /// Eigen's iterative solvers, started from the previous solution. The preconditioner is

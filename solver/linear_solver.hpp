@@ -19,6 +19,11 @@ class LinearSolver {
   /// Returns false when the solver failed (singular matrix, no convergence).
   virtual bool solve(const SparseMatrix& a, const Eigen::VectorXd& b, Eigen::VectorXd& x) = 0;
   virtual std::string name() const = 0;
+  /// True when solve() returns the solution to rounding (a direct factorisation), so that for
+  /// an unchanged matrix a second Newton update could only be rounding noise.
+  virtual bool exact() const { return false; }
+  /// True when a's values are those the last solve factorised (nothing is recorded).
+  bool factorized(const SparseMatrix& a) const;
 
   int last_iterations() const { return last_iterations_; }
   long total_iterations() const { return total_iterations_; }

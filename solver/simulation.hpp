@@ -65,6 +65,11 @@ struct StartState {
   double time = 0.0;             ///< T, end of the last step done
   std::vector<double> head;      ///< L, per grid cell (NaN where inactive)
   std::vector<double> linear_start;  ///< L per unknown: start of the next iterative solve
+  /// L per grid cell: heads at the start of the last accepted step of this period, and its
+  /// length (T); the next step's Newton start is extrapolated along it. Empty (and 0) at the
+  /// start of a period.
+  std::vector<double> previous_head;
+  double previous_dt = 0.0;
   RunResult so_far;              ///< counters of the run up to this point
 };
 

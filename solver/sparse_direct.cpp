@@ -55,6 +55,7 @@ class DirectSolver final : public LinearSolver {
     return factorization_.info() == Eigen::Success && x.allFinite();
   }
   std::string name() const override { return name_; }
+  bool exact() const override { return true; }
 
  private:
   std::string name_;
