@@ -42,8 +42,9 @@ class DistributedEngine {
   /// and failure reports); the observer gets each rank's window of heads.
   RunResult run(SimulationObserver& observer);
 
+  struct Impl;  ///< PETSc's objects and the rank's tables (petsc_engine.cpp)
+
  private:
-  struct Impl;
   std::unique_ptr<Impl> impl_;
 };
 
