@@ -10,6 +10,7 @@
 #include <vtkRectilinearGrid.h>
 #include <vtkStringArray.h>
 #include <vtkUnsignedCharArray.h>
+#include <vtkXMLPRectilinearGridReader.h>
 #include <vtkXMLRectilinearGridReader.h>
 #include <vtkXMLRectilinearGridWriter.h>
 
@@ -265,11 +266,24 @@ std::string field_file_name(std::size_t n) { return fmt::format("fields_{:04d}.v
 
 FieldMap read_field_vtr(const std::filesystem::path& path, const std::string& array) {
   if (!std::filesystem::is_regular_file(path)) throw OutputError("cannot read " + path.string());
-  vtkNew<vtkXMLRectilinearGridReader> reader;
-  reader->SetFileName(path.string().c_str());
-  reader->Update();
-  vtkRectilinearGrid* grid = reader->GetOutput();
-  if (reader->GetErrorCode() != 0 || grid == nullptr || grid->GetNumberOfCells() == 0)
+  // A parallel set (.pvtr, from the distributed engine) is read as one grid.
+  vtkNew<vtkXMLRectilinearGridReader> serial_reader;
+  vtkNew<vtkXMLPRectilinearGridReader> parallel_reader;
+  const bool parallel = path.extension() == ".pvtr";
+  vtkRectilinearGrid* grid = nullptr;
+  unsigned long error = 0;
+  if (parallel) {
+    parallel_reader->SetFileName(path.string().c_str());
+    parallel_reader->Update();
+    grid = parallel_reader->GetOutput();
+    error = parallel_reader->GetErrorCode();
+  } else {
+    serial_reader->SetFileName(path.string().c_str());
+    serial_reader->Update();
+    grid = serial_reader->GetOutput();
+    error = serial_reader->GetErrorCode();
+  }
+  if (error != 0 || grid == nullptr || grid->GetNumberOfCells() == 0)
     throw OutputError("cannot read " + path.string() + " as a VTK rectilinear grid");
   vtkDataArray* values = grid->GetCellData()->GetArray(array.c_str());
   if (values == nullptr) throw OutputError(path.string() + " has no cell array '" + array + "'");

@@ -15,6 +15,10 @@ model=$src/cases/01-marrow-basin/model.toml
 "${mpi[@]}" "$bin" run "$model" -o "$work/distributed" --engine petsc -q
 /usr/bin/python3 "$src/tests/distributed/compare_results.py" "$work/serial" "$work/distributed"
 
+# The HTML report maps the parallel field sets (.pvtr), read as one grid each.
+"$bin" report "$work/distributed" --out "$work/report.html" > /dev/null
+grep -q "fields_0006.pvtr" "$work/report.html"
+
 # Non-convergence: exit status 2 on every rank, the tables up to the last converged step.
 set +e
 "${mpi[@]}" "$bin" run "$src/tests/data/robust/nonconvergent.toml" -o "$work/bad" --engine petsc -q 2> "$work/bad.err"
