@@ -5,6 +5,7 @@
 //   mpirun -np N distributed_benchmark [--cells 1e6] [--steps 30] [--variant confined|switching]
 // --steps is per period (two periods). One size per run, so that each rank's peak memory is
 // that case's. benchmarks/distributed_benchmark.sh runs the serial engine beside it.
+#include <fmt/format.h>
 #include <sys/resource.h>
 
 #include <algorithm>
@@ -12,8 +13,6 @@
 #include <cstdio>
 #include <string>
 #include <vector>
-
-#include <fmt/format.h>
 
 #include "benchmarks/basin_generator.hpp"
 #include "benchmarks/bench_support.hpp"
@@ -49,10 +48,16 @@ int main(int argc, char** argv) {
   std::string variant = "confined";
   for (int i = 1; i + 1 < argc; i += 2) {
     const std::string key = argv[i], value = argv[i + 1];
-    if (key == "--cells") cells = std::stod(value);
-    else if (key == "--steps") steps = std::stoi(value);
-    else if (key == "--variant") variant = value;
-    else { std::fprintf(stderr, "unknown option %s\n", key.c_str()); return 64; }
+    if (key == "--cells")
+      cells = std::stod(value);
+    else if (key == "--steps")
+      steps = std::stoi(value);
+    else if (key == "--variant")
+      variant = value;
+    else {
+      std::fprintf(stderr, "unknown option %s\n", key.c_str());
+      return 64;
+    }
   }
   bench::BasinSpec spec;
   spec.n_rows = spec.n_cols = static_cast<int>(std::lround(std::sqrt(cells)));
@@ -73,11 +78,13 @@ int main(int argc, char** argv) {
   if (petsc.rank() == 0) {
     std::string per_rank;
     for (double m : rss) per_rank += fmt::format("{}{:.0f}", per_rank.empty() ? "" : "/", m);
-    fmt::print("{:<10} {:>8} {:>5} {:>5} {:>9.4g} {:>9.4g} {:>7.3g} {:>6.1f} {:>7} {:>4}/{:<5} {:>11}  {}{}\n",
-               variant, model.grid.n_cells(), petsc.n_ranks(), obs.step_seconds.size(),
-               bench::median(obs.step_seconds), obs.step_seconds.empty() ? 0.0 : obs.step_seconds.front(),
-               setup, bench::median(obs.newton), r.linear_iterations, r.factorizations,
-               r.factorization_reuses, per_rank, r.linear_solver, r.converged ? "" : "  (NOT CONVERGED)");
+    fmt::print(
+        "{:<10} {:>8} {:>5} {:>5} {:>9.4g} {:>9.4g} {:>7.3g} {:>6.1f} {:>7} {:>4}/{:<5} {:>11}  "
+        "{}{}\n",
+        variant, model.grid.n_cells(), petsc.n_ranks(), obs.step_seconds.size(),
+        bench::median(obs.step_seconds), obs.step_seconds.empty() ? 0.0 : obs.step_seconds.front(),
+        setup, bench::median(obs.newton), r.linear_iterations, r.factorizations,
+        r.factorization_reuses, per_rank, r.linear_solver, r.converged ? "" : "  (NOT CONVERGED)");
   }
   return r.converged ? 0 : 1;
 }

@@ -9,12 +9,12 @@
 #include <string>
 #include <vector>
 
-#include "solver/result_reduction.hpp"
 #include "io/result_tables.hpp"
 #include "io/vtk_fields.hpp"
 #include "postproc/cell_fields.hpp"
 #include "postproc/observation_sampler.hpp"
 #include "postproc/water_budget.hpp"
+#include "solver/result_reduction.hpp"
 #include "solver/simulation.hpp"
 #include "solver/system_layout.hpp"
 

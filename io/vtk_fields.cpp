@@ -40,7 +40,8 @@ vtkNew<vtkRectilinearGrid> make_grid(const RectilinearGrid& grid, RowBand band) 
   z->SetName("z");
   for (double e : grid.x_edges()) x->InsertNextValue(e);
   const auto ye = grid.y_edges();
-  for (int e = band.end(); e >= band.first; --e) y->InsertNextValue(ye[static_cast<std::size_t>(e)]);
+  for (int e = band.end(); e >= band.first; --e)
+    y->InsertNextValue(ye[static_cast<std::size_t>(e)]);
   z->InsertNextValue(0.0);
   vtk_grid->SetXCoordinates(x);
   vtk_grid->SetYCoordinates(y);

@@ -47,12 +47,11 @@ class CellWindow {
   using Value = std::remove_const_t<T>;
   CellWindow(std::span<T> values, std::int32_t first = 0) : values_(values), first_(first) {}
   CellWindow(std::vector<Value>& values) : values_(values), first_(0) {}
-  CellWindow(const std::vector<Value>& values)
-    requires std::is_const_v<T>
-      : values_(values), first_(0) {}
+  CellWindow(const std::vector<Value>& values) requires std::is_const_v<T> : values_(values),
+                                                                             first_(0) {}
   template <class U>
-    requires(std::is_const_v<T> && std::is_same_v<U, Value>)
-  CellWindow(CellWindow<U> other) : values_(other.values()), first_(other.first()) {}
+  requires(std::is_const_v<T>&& std::is_same_v<U, Value>) CellWindow(CellWindow<U> other)
+      : values_(other.values()), first_(other.first()) {}
 
   T& operator[](std::size_t cell) const {
     assert(cell >= static_cast<std::size_t>(first_) && cell - first_ < values_.size());

@@ -56,14 +56,14 @@ void fill_face_flows(const Model& model, const SystemLayout& layout, const GridP
         const CellIndex e = g.cell(r, col + 1);
         // Flow into e from c is the flow toward the east.
         f.flow_east[i] =
-            face_flow(model, layout, e, c, face_factor(model, c, e, true), head[at(e)], head[at(c)]).q;
+            face_flow(model, layout, e, c, face_factor(model, c, e, true), head[at(e)], head[at(c)])
+                .q;
       }
       if (r > 0 && g.is_active(g.cell(r - 1, col))) {
         const CellIndex nn = g.cell(r - 1, col);
-        f.flow_north[i] =
-            face_flow(model, layout, nn, c, face_factor(model, nn, c, false), head[at(nn)],
-                      head[at(c)])
-                .q;
+        f.flow_north[i] = face_flow(model, layout, nn, c, face_factor(model, nn, c, false),
+                                    head[at(nn)], head[at(c)])
+                              .q;
       }
     }
 }
@@ -78,12 +78,12 @@ CellFields initial_cell_fields(const Model& model, const SystemLayout& layout,
 void update_cell_fields(const Model& model, const SystemLayout& layout, bool steady, double dt,
                         std::span<const double> initial_head, std::span<const double> head_old,
                         std::span<const double> head_new, CellFields& f) {
-  update_cell_fields(model, layout, GridPart::whole(model.grid), steady, dt, initial_head,
-                     head_old, head_new, f);
+  update_cell_fields(model, layout, GridPart::whole(model.grid), steady, dt, initial_head, head_old,
+                     head_new, f);
 }
 
-CellFields initial_cell_fields(const Model& model, const SystemLayout& layout,
-                               const GridPart& part, CellValues initial_head) {
+CellFields initial_cell_fields(const Model& model, const SystemLayout& layout, const GridPart& part,
+                               CellValues initial_head) {
   const std::size_t n = part.n_owned();
   const auto first = static_cast<std::size_t>(part.first_owned());
   CellFields f;

@@ -34,8 +34,8 @@ void update_cell_fields(const Model& model, const SystemLayout& layout, bool ste
                         std::span<const double> head_new, CellFields& fields);
 
 /// As above for the cells a part owns (the heads must hold them and their neighbours).
-CellFields initial_cell_fields(const Model& model, const SystemLayout& layout,
-                               const GridPart& part, CellValues initial_head);
+CellFields initial_cell_fields(const Model& model, const SystemLayout& layout, const GridPart& part,
+                               CellValues initial_head);
 void update_cell_fields(const Model& model, const SystemLayout& layout, const GridPart& part,
                         bool steady, double dt, CellValues initial_head, CellValues head_old,
                         CellValues head_new, CellFields& fields);

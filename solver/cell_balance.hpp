@@ -10,14 +10,14 @@
 namespace aquiledger {
 
 struct CellRowInput {
-  double head = 0.0;          ///< L
-  ValueSlope thickness;       ///< L and -, saturated thickness at head (unused when confined)
-  double stress_q = 0.0;      ///< L3/T into the cell from every stress
-  double stress_dq = 0.0;     ///< L2/T, its head derivative
+  double head = 0.0;       ///< L
+  ValueSlope thickness;    ///< L and -, saturated thickness at head (unused when confined)
+  double stress_q = 0.0;   ///< L3/T into the cell from every stress
+  double stress_dq = 0.0;  ///< L2/T, its head derivative
   const CellStorage* storage = nullptr;  ///< null for a steady step (no storage term)
-  double head_old = 0.0;      ///< L, start of the step
-  double area = 0.0;          ///< L2
-  double inv_dt = 0.0;        ///< 1/T
+  double head_old = 0.0;                 ///< L, start of the step
+  double area = 0.0;                     ///< L2
+  double inv_dt = 0.0;                   ///< 1/T
 };
 
 struct CellRow {

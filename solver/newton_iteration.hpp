@@ -25,9 +25,8 @@ struct ResidualCheck {
 };
 
 /// throughflow, rounding_floor and residual_sum as in FlowSystem (L3/T).
-inline ResidualCheck check_residual(double throughflow, double rounding_floor,
-                                    double residual_sum, const ResidualNorms& norms,
-                                    const NewtonSettings& s) {
+inline ResidualCheck check_residual(double throughflow, double rounding_floor, double residual_sum,
+                                    const ResidualNorms& norms, const NewtonSettings& s) {
   ResidualCheck c;
   const double worst = norms.worst >= 0 ? norms.max_abs : -1.0;
   c.worst = norms.worst;

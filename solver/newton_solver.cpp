@@ -1,9 +1,9 @@
 #include "solver/newton_solver.hpp"
 
-#include "solver/newton_iteration.hpp"
-
 #include <cmath>
 #include <vector>
+
+#include "solver/newton_iteration.hpp"
 
 namespace aquiledger {
 
@@ -36,7 +36,11 @@ class SerialProblem {
  public:
   SerialProblem(FlowSystem& system, LinearSolver& linear, std::span<double> head,
                 NewtonWorkspace& work)
-      : system_(system), linear_(linear), layout_(system.layout()), head_(head), work_(work),
+      : system_(system),
+        linear_(linear),
+        layout_(system.layout()),
+        head_(head),
+        work_(work),
         n_(system.n_unknowns()) {
     if (work.update.size() != n_) work.update.setZero(n_);
     work.base.resize(static_cast<std::size_t>(n_));
@@ -67,7 +71,9 @@ class SerialProblem {
     }
     return largest;
   }
-  CellIndex cell_of(int worst) const { return layout_.cell_of_unknown[static_cast<std::size_t>(worst)]; }
+  CellIndex cell_of(int worst) const {
+    return layout_.cell_of_unknown[static_cast<std::size_t>(worst)];
+  }
 
  private:
   std::size_t cell(int u) const {

@@ -26,9 +26,17 @@ class SerialStepper {
   SerialStepper(FlowSystem& system, LinearSolver& linear, const NewtonSettings& settings,
                 SimulationObserver& observer, const SimulationOptions& options,
                 std::vector<double>& head, NewtonWorkspace& work, const RunResult& base)
-      : model_(system.model()), system_(system), linear_(linear), settings_(settings),
-        observer_(observer), options_(options), head_(head), work_(work), base_(base),
-        head_old_(head), trial_(head) {}
+      : model_(system.model()),
+        system_(system),
+        linear_(linear),
+        settings_(settings),
+        observer_(observer),
+        options_(options),
+        head_(head),
+        work_(work),
+        base_(base),
+        head_old_(head),
+        trial_(head) {}
 
   void apply_fixed_heads(std::size_t period) {
     aquiledger::apply_fixed_heads(model_, period, head_, GridPart::whole(model_.grid));
@@ -81,7 +89,8 @@ void apply_fixed_heads(const Model& model, std::size_t period, CellWindow<double
   for (const FixedHead& f : model.fixed_heads)
     for (std::size_t j = 0; j < f.cells.size(); ++j) {
       const CellIndex c = f.cells[j];
-      if (c.value < part.first_held() || c.value >= part.first_held() + static_cast<std::int32_t>(part.n_held()))
+      if (c.value < part.first_held() ||
+          c.value >= part.first_held() + static_cast<std::int32_t>(part.n_held()))
         continue;
       if (model.grid.is_active(c)) head[at(c)] = f.head.at(period, j);
     }

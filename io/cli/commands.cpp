@@ -1,13 +1,12 @@
 #include "io/cli/commands.hpp"
 
+#include <fmt/format.h>
 #include <unistd.h>
 
 #include <algorithm>
 #include <chrono>
 #include <cstdio>
 #include <tuple>
-
-#include <fmt/format.h>
 
 #include "aquiledger_version.hpp"
 #include "io/atomic_file.hpp"
@@ -65,13 +64,16 @@ int run_run_command(const RunOptions& options) {
   if (options.engine == "petsc") {
 #ifdef AQUILEDGER_WITH_PETSC
     if (options.resume || options.checkpoint_every > 0) {
-      std::fputs("error: --checkpoint-every and --resume are not available with --engine petsc\n", stderr);
+      std::fputs("error: --checkpoint-every and --resume are not available with --engine petsc\n",
+                 stderr);
       return exit_usage;
     }
     engine = make_distributed_engine();
 #else
-    std::fputs("error: this aquiledger was built without the distributed engine (configure with "
-               "-DAQUILEDGER_WITH_PETSC=ON)\n", stderr);
+    std::fputs(
+        "error: this aquiledger was built without the distributed engine (configure with "
+        "-DAQUILEDGER_WITH_PETSC=ON)\n",
+        stderr);
     return exit_usage;
 #endif
   } else {
@@ -97,7 +99,8 @@ int run_run_command(const RunOptions& options) {
   if (engine->any(!folder_error.empty())) {
     if (root || !folder_error.empty())
       std::fprintf(stderr, "error: %s\nNothing was run.\n",
-                   folder_error.empty() ? "another process cannot write the output folder" : folder_error.c_str());
+                   folder_error.empty() ? "another process cannot write the output folder"
+                                        : folder_error.c_str());
     return exit_output_failure;
   }
 
@@ -176,7 +179,8 @@ int run_run_command(const RunOptions& options) {
   } catch (const OutputError& e) {
     if (terminal) std::fputs("\n", stderr);
     if (root)
-      std::fprintf(stderr, "error: %s\nResults written before this point are complete.\n", e.what());
+      std::fprintf(stderr, "error: %s\nResults written before this point are complete.\n",
+                   e.what());
     return exit_output_failure;
   }
   const double wall = std::chrono::duration<double>(Clock::now() - start).count();
@@ -238,7 +242,8 @@ int run_run_command(const RunOptions& options) {
                    run.failure.c_str(), folder.string().c_str());
     return exit_not_converged;
   }
-  if (options.quiet && root) std::fprintf(stdout, "aquiledger: run complete, results in %s\n", folder.string().c_str());
+  if (options.quiet && root)
+    std::fprintf(stdout, "aquiledger: run complete, results in %s\n", folder.string().c_str());
   return exit_success;
 }
 

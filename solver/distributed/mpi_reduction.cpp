@@ -16,8 +16,8 @@ class MpiReduction final : public ResultReduction {
     MPI_Comm_size(comm_, &size_);
   }
   void sum(std::span<double> values) override {
-    MPI_Allreduce(MPI_IN_PLACE, values.data(), static_cast<int>(values.size()), MPI_DOUBLE,
-                  MPI_SUM, comm_);
+    MPI_Allreduce(MPI_IN_PLACE, values.data(), static_cast<int>(values.size()), MPI_DOUBLE, MPI_SUM,
+                  comm_);
   }
   bool any(bool flag) override {
     int f = flag ? 1 : 0;

@@ -37,8 +37,8 @@ constexpr int max_neighbours = 4;
 
 struct Neighbour {
   CellIndex cell;
-  double factor = 0.0;    ///< see Face::factor
-  bool unknown = false;   ///< the neighbour is an unknown (not fixed): a matrix entry
+  double factor = 0.0;   ///< see Face::factor
+  bool unknown = false;  ///< the neighbour is an unknown (not fixed): a matrix entry
 };
 
 }  // namespace
@@ -50,7 +50,7 @@ struct DistributedEngine::Impl {
   DM da = nullptr;
   Mat matrix = nullptr;  ///< -dR/dh; identity rows for inactive and fixed cells
   KSP ksp = nullptr;
-  Vec head = nullptr;      ///< Newton iterate, owned cells (global vector)
+  Vec head = nullptr;        ///< Newton iterate, owned cells (global vector)
   Vec head_local = nullptr;  ///< the same with ghost rows
   Vec residual = nullptr, update = nullptr, base = nullptr;
   GridPart part;
@@ -201,7 +201,6 @@ struct DistributedEngine::Impl {
 
   template <bool Confined>
   void assemble_rows(CellValues h, double& abs_sum, double& face_sum, double& sum) {
-    const RectilinearGrid& g = model.grid;
     const std::size_t n_owned = part.n_owned();
     const auto first = static_cast<std::size_t>(part.first_owned());
     const bool transient = !steady;
@@ -225,7 +224,8 @@ struct DistributedEngine::Impl {
         const Neighbour* nbs = &neighbours[k * max_neighbours];
         CellRowInput in;
         in.head = h[i];
-        if constexpr (!Confined) in.thickness = thickness[i - static_cast<std::size_t>(part.first_held())];
+        if constexpr (!Confined)
+          in.thickness = thickness[i - static_cast<std::size_t>(part.first_held())];
         in.stress_q = stress_q[k];
         in.stress_dq = stress_dq[k];
         if (transient) {
@@ -262,7 +262,6 @@ struct DistributedEngine::Impl {
         if (last[s] != vals[s]) changed = true, last[s] = vals[s];
       check(MatSetValues(matrix, 1, &row, n, cols, vals, INSERT_VALUES), "MatSetValues");
     }
-    (void)g;
     check(VecRestoreArray(residual, &r), "VecRestoreArray");
     check(MatAssemblyBegin(matrix, MAT_FINAL_ASSEMBLY), "MatAssemblyBegin");
     check(MatAssemblyEnd(matrix, MAT_FINAL_ASSEMBLY), "MatAssemblyEnd");
@@ -279,7 +278,8 @@ struct DistributedEngine::Impl {
     const CellValues h(std::span<const double>(x, part.n_held()), part.first_held());
     std::fill(stress_q.begin(), stress_q.end(), 0.0);
     std::fill(stress_dq.begin(), stress_dq.end(), 0.0);
-    add_stress_flows(model, layout, period, part, h, CellWindow<double>(stress_q, part.first_owned()),
+    add_stress_flows(model, layout, period, part, h,
+                     CellWindow<double>(stress_q, part.first_owned()),
                      CellWindow<double>(stress_dq, part.first_owned()), parallel_recharge);
     if (!confined) {
       const auto first = static_cast<std::size_t>(part.first_held());
@@ -330,7 +330,8 @@ struct DistributedEngine::Impl {
     // A matrix equal to the last one keeps its multigrid hierarchy (as the serial direct
     // solver keeps its factorisation).
     const bool reuse = !values_changed && setups > 0;
-    check(KSPSetReusePreconditioner(ksp, reuse ? PETSC_TRUE : PETSC_FALSE), "KSPSetReusePreconditioner");
+    check(KSPSetReusePreconditioner(ksp, reuse ? PETSC_TRUE : PETSC_FALSE),
+          "KSPSetReusePreconditioner");
     check(KSPSetOperators(ksp, matrix, matrix), "KSPSetOperators");
     reuse ? ++reuses : ++setups;
     if (KSPSolve(ksp, residual, update) != 0) return false;
@@ -449,8 +450,9 @@ RunResult DistributedEngine::run(SimulationObserver& observer) {
     const NewtonResult nr = newton_iterate(problem, settings);
     result.newton_iterations += nr.iterations;
     if (!nr.converged)
-      return stepper.finish(mark_failed(
-          result, 0, 0, 0.0, "initial steady state: " + describe_failure(model, 0, 0, 0.0, 0.0, 0, nr)));
+      return stepper.finish(
+          mark_failed(result, 0, 0, 0.0,
+                      "initial steady state: " + describe_failure(model, 0, 0, 0.0, 0.0, 0, nr)));
     e.update_ghosts();
     e.get_iterate(head);
   } else {

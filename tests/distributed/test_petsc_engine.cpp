@@ -6,9 +6,8 @@
 // (tests/solver); the tolerances are those of the distributed engine's acceptance criterion
 // (issue "Beyond one machine"): 1e-8 in head, 1e-8 relative in every budget column.
 #define CATCH_CONFIG_RUNNER
-#include <catch2/catch.hpp>
-
 #include <algorithm>
+#include <catch2/catch.hpp>
 #include <cmath>
 #include <cstdio>
 #include <vector>
@@ -18,8 +17,8 @@
 #include "solver/face_table.hpp"
 #include "solver/flow_system.hpp"
 #include "solver/simulation.hpp"
-#include "solver/system_layout.hpp"
 #include "solver/stress_test_models.hpp"
+#include "solver/system_layout.hpp"
 #include "support/model_builder.hpp"
 
 using namespace aquiledger;
@@ -37,7 +36,9 @@ class Collector : public SimulationObserver {
  public:
   Collector(const Model& model, GridPart part, ResultReduction* reduction)
       : model_(model), layout_(make_system_layout(model)), part_(part), reduction_(reduction) {}
-  void initial_state(std::span<const double> head) override { initial.assign(head.begin(), head.end()); }
+  void initial_state(std::span<const double> head) override {
+    initial.assign(head.begin(), head.end());
+  }
   void step_done(const StepInfo& info, std::span<const double> head_old,
                  std::span<const double> head_new) override {
     WaterBudget b = step_budget(model_, layout_, part_, info.period, info.steady, info.dt,
@@ -153,10 +154,11 @@ Comparison compare_engines(const Model& model) {
   runtime->reduction().sum(per_rank);
   c.max_head_difference = *std::max_element(per_rank.begin(), per_rank.end());
   if (runtime->rank() == 0)
-    std::printf("  %d rank(s): %zu steps, largest head difference %.3g, budget %.3g relative "
-                "(%.3g counting differences below the rounding floor)\n",
-                runtime->n_ranks(), n, c.max_head_difference, c.max_budget_relative,
-                c.max_budget_relative_raw);
+    std::printf(
+        "  %d rank(s): %zu steps, largest head difference %.3g, budget %.3g relative "
+        "(%.3g counting differences below the rounding floor)\n",
+        runtime->n_ranks(), n, c.max_head_difference, c.max_budget_relative,
+        c.max_budget_relative_raw);
   return c;
 }
 

@@ -124,5 +124,4 @@ inline Model drying_model() {
   return m;
 }
 
-
 }  // namespace aquiledger::test
