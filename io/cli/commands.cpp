@@ -86,6 +86,10 @@ int run_run_command(const RunOptions& options) {
   if (!report_diagnostics(result, root)) return exit_invalid_model;
   Model& model = *result.model;
   if (options.threads) model.solver.threads = *options.threads;
+  if (const std::string why = engine->unsupported(model); !why.empty()) {
+    if (root) std::fprintf(stderr, "error: %s\nNothing was run.\n", why.c_str());
+    return exit_usage;
+  }
   const std::filesystem::path folder = options.output_folder ? *options.output_folder : model.output.folder;
 
   const bool quiet = options.quiet || !root;

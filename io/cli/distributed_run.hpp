@@ -5,6 +5,7 @@
 #include <filesystem>
 #include <memory>
 #include <optional>
+#include <string>
 
 #include "io/result_recorder.hpp"
 #include "solver/simulation.hpp"
@@ -18,6 +19,8 @@ class RunEngine {
   virtual bool root() const { return true; }
   /// A name for the summary ("serial", "petsc").
   virtual const char* name() const { return "serial"; }
+  /// Why this engine cannot run the model (empty when it can).
+  virtual std::string unsupported(const Model&) const { return {}; }
   /// Collective in a distributed run: splits the grid and makes this process's recorder.
   virtual void make_recorder(const Model& model, const std::filesystem::path& folder,
                              std::optional<ResultRecorder>& recorder) {

@@ -37,4 +37,14 @@ set +e
 status=$?
 set -e
 [ "$status" -eq 64 ] || { echo "expected exit status 64 for --checkpoint-every, got $status"; exit 1; }
+# More ranks than grid rows (nonconvergent.toml has 5): a usage error naming both counts.
+if [ "$ranks" -eq 2 ]; then
+  set +e
+  "$mpirun" --allow-run-as-root --oversubscribe -x OMP_NUM_THREADS=1 -np 6 "$bin" run \
+    "$src/tests/data/robust/nonconvergent.toml" -o "$work/many" --engine petsc -q 2> "$work/many.err"
+  status=$?
+  set -e
+  [ "$status" -eq 64 ] || { echo "expected exit status 64 for 6 ranks on 5 rows, got $status"; exit 1; }
+  grep -q "6 ranks for 5 rows" "$work/many.err"
+fi
 echo "distributed run matches the serial run"
