@@ -15,8 +15,8 @@ class PetscRunEngine final : public RunEngine {
   std::string unsupported(const Model& model) const override {
     if (runtime_.n_ranks() <= model.grid.n_rows()) return {};
     return "the distributed engine gives each rank at least one grid row: " +
-           std::to_string(runtime_.n_ranks()) + " ranks for " + std::to_string(model.grid.n_rows()) +
-           " rows";
+           std::to_string(runtime_.n_ranks()) + " ranks for " +
+           std::to_string(model.grid.n_rows()) + " rows";
   }
   void make_recorder(const Model& model, const std::filesystem::path& folder,
                      std::optional<ResultRecorder>& recorder) override {
