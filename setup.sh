@@ -1,7 +1,7 @@
 #!/usr/bin/env bash
 # Installs what is missing, builds, and runs the demo or the tests.
 #   ./setup.sh demo   build and run the demo basin (cases/01-marrow-basin)
-#   ./setup.sh test   build and run every test
+#   ./setup.sh test   build (with the distributed engine, PETSc and MPI) and run every test
 set -euo pipefail
 here=$(cd "$(dirname "$0")" && pwd)
 cd "$here"
@@ -12,7 +12,10 @@ case "$what" in
   *) echo "usage: ./setup.sh demo|test" >&2; exit 64 ;;
 esac
 jobs=$(nproc 2>/dev/null || echo 2)
-cmake -S . -B build -DCMAKE_BUILD_TYPE=Release
+# The demo is the plain build (no MPI); the tests also build and run the distributed engine.
+petsc=OFF
+if [[ $what == test ]]; then petsc=ON; fi
+cmake -S . -B build -DCMAKE_BUILD_TYPE=Release -DAQUILEDGER_WITH_PETSC=$petsc
 cmake --build build -j "$jobs"
 case "$what" in
   demo)

@@ -27,19 +27,61 @@ ResultRecorder::ResultRecorder(const Model& model, std::filesystem::path folder)
       folder_(std::move(folder)),
       layout_(make_system_layout(model)),
       features_(list_features(model)),
-      sampler_(model.grid, model.observations) {}
+      sampler_(model.grid, model.observations),
+      part_(GridPart::whole(model.grid)) {}
+
+ResultRecorder::ResultRecorder(const Model& model, std::filesystem::path folder,
+                               const GridPart& part, ResultReduction& reduction)
+    : ResultRecorder(model, std::move(folder)) {
+  part_ = part;
+  reduction_ = &reduction;
+}
+
+template <class Write>
+void ResultRecorder::collectively(Write&& write) {
+  if (reduction_ == nullptr) return write();
+  std::string error;
+  try {
+    write();
+  } catch (const OutputError& e) {
+    error = e.what();
+  }
+  if (reduction_->any(!error.empty()))
+    throw OutputError(error.empty() ? "another process could not write its results" : error);
+}
+
+void ResultRecorder::reduce(std::vector<double>& values) {
+  if (reduction_ != nullptr) reduction_->sum(values);
+}
+
+void ResultRecorder::reduce(WaterBudget& b) {
+  if (reduction_ == nullptr) return;
+  std::vector<double> v;
+  v.reserve(2 * (b.components.size() + b.features.size()) + 1);
+  for (const InOut& c : b.components) v.insert(v.end(), {c.in, c.out});
+  for (const InOut& f : b.features) v.insert(v.end(), {f.in, f.out});
+  v.push_back(b.well_shortfall);
+  reduction_->sum(v);
+  std::size_t k = 0;
+  for (InOut& c : b.components) c = {v[k], v[k + 1]}, k += 2;
+  for (InOut& f : b.features) f = {v[k], v[k + 1]}, k += 2;
+  b.well_shortfall = v[k];
+}
 
 void ResultRecorder::initial_state(std::span<const double> head) {
   const auto start = Clock::now();
   initial_head_.assign(head.begin(), head.end());
-  fields_ = initial_cell_fields(model_, layout_, head);
-  initial_observed_ = sampler_.sample(head);
+  fields_ = initial_cell_fields(model_, layout_, part_, window(head));
+  initial_observed_ = sampler_.sample(window(head), part_);
+  reduce(initial_observed_);
   for (std::size_t k = 0; k < initial_observed_.size(); ++k)
     observation_rows_.push_back({k, 0, 0, 0.0, initial_observed_[k], 0.0});
   BudgetStepRow row{0, 0, 0.0, 0.0, empty_budget(features_.size())};
   step_rows_.push_back(std::move(row));
   if (model_.output.fields != FieldCadence::none) {
-    write_static_vtr(folder_ / "aquifer_properties.vtr", model_);
+    collectively([&] {
+      if (writes_tables()) write_static_vtr(folder_ / "aquifer_properties.vtr", model_);
+    });
     write_fields(0.0);
   }
   flush();
@@ -58,8 +100,9 @@ void ResultRecorder::step_done(const StepInfo& info, std::span<const double> hea
   const auto start = Clock::now();
   if (!period_open_ || current_period_ != info.period) start_period_row(info.period);
 
-  WaterBudget rates =
-      step_budget(model_, layout_, info.period, info.steady, info.dt, head_old, head_new);
+  WaterBudget rates = step_budget(model_, layout_, part_, info.period, info.steady, info.dt,
+                                  window(head_old), window(head_new));
+  reduce(rates);
   const double discrepancy = std::abs(rates.discrepancy_percent());
   stats_.max_abs_discrepancy_percent = std::max(stats_.max_abs_discrepancy_percent, discrepancy);
   stats_.steps += 1;
@@ -74,9 +117,10 @@ void ResultRecorder::step_done(const StepInfo& info, std::span<const double> hea
 
   // Cell fields exist only for the field files; compaction accumulates inside them.
   if (model_.output.fields != FieldCadence::none)
-    update_cell_fields(model_, layout_, info.steady, info.dt, initial_head_, head_old, head_new,
-                       fields_);
-  const std::vector<double> observed = sampler_.sample(head_new);
+    update_cell_fields(model_, layout_, part_, info.steady, info.dt, window(initial_head_),
+                       window(head_old), window(head_new), fields_);
+  std::vector<double> observed = sampler_.sample(window(head_new), part_);
+  reduce(observed);
   for (std::size_t k = 0; k < observed.size(); ++k)
     observation_rows_.push_back(
         {k, info.period + 1, info.step, info.time, observed[k], initial_observed_[k] - observed[k]});
@@ -96,11 +140,38 @@ void ResultRecorder::period_done(std::size_t period) {
 }
 
 void ResultRecorder::write_fields(double time) {
-  const std::string name = fmt::format("fields_{:04d}.vtr", field_entries_.size());
-  write_fields_vtr(folder_ / name, model_, fields_, time);
+  if (reduction_ == nullptr) {
+    const std::string name = fmt::format("fields_{:04d}.vtr", field_entries_.size());
+    write_fields_vtr(folder_ / name, model_, fields_, time);
+    field_entries_.push_back({time, name});
+    // The index names only files that are complete on disk.
+    write_pvd(folder_ / "fields.pvd", field_entries_);
+    stats_.field_files = static_cast<int>(field_entries_.size());
+    return;
+  }
+  // Every piece is on disk before the rank 0 writes the index of the set and the collection.
+  const std::size_t n = field_entries_.size();
+  auto piece_name = [n](int rank) { return fmt::format("fields_{:04d}_p{:04d}.vtr", n, rank); };
+  collectively([&] {
+    write_fields_vtr(folder_ / piece_name(reduction_->rank()), model_, fields_, time, part_.owned);
+  });
+  // Each rank's rows, known on every rank from the row counts.
+  std::vector<double> rows(static_cast<std::size_t>(2 * reduction_->n_ranks()), 0.0);
+  rows[static_cast<std::size_t>(2 * reduction_->rank())] = part_.owned.first;
+  rows[static_cast<std::size_t>(2 * reduction_->rank() + 1)] = part_.owned.count;
+  reduction_->sum(rows);
+  const std::string name = fmt::format("fields_{:04d}.pvtr", n);
   field_entries_.push_back({time, name});
-  // The index names only files that are complete on disk.
-  write_pvd(folder_ / "fields.pvd", field_entries_);
+  collectively([&] {
+    if (!writes_tables()) return;
+    std::vector<FieldPiece> pieces;
+    for (int r = 0; r < reduction_->n_ranks(); ++r)
+      pieces.push_back({RowBand{static_cast<int>(rows[static_cast<std::size_t>(2 * r)]),
+                                static_cast<int>(rows[static_cast<std::size_t>(2 * r + 1)])},
+                        piece_name(r)});
+    write_pvtr(folder_ / name, model_, pieces);
+    write_pvd(folder_ / "fields.pvd", field_entries_);
+  });
   stats_.field_files = static_cast<int>(field_entries_.size());
 }
 
@@ -125,13 +196,16 @@ void ResultRecorder::restore(RecorderState s) {
 }
 
 void ResultRecorder::flush() {
-  if (model_.output.budget) {
-    write_budget_steps_csv(folder_ / "budget_steps.csv", step_rows_);
-    write_budget_periods_csv(folder_ / "budget_periods.csv", period_rows_);
-    write_budget_features_csv(folder_ / "budget_features.csv", features_, period_rows_);
-  }
-  if (!model_.observations.empty())
-    write_observations_csv(folder_ / "observations.csv", model_.observations, observation_rows_);
+  collectively([&] {
+    if (!writes_tables()) return;
+    if (model_.output.budget) {
+      write_budget_steps_csv(folder_ / "budget_steps.csv", step_rows_);
+      write_budget_periods_csv(folder_ / "budget_periods.csv", period_rows_);
+      write_budget_features_csv(folder_ / "budget_features.csv", features_, period_rows_);
+    }
+    if (!model_.observations.empty())
+      write_observations_csv(folder_ / "observations.csv", model_.observations, observation_rows_);
+  });
 }
 
 }  // namespace aquiledger

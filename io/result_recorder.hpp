@@ -14,6 +14,7 @@
 #include "postproc/cell_fields.hpp"
 #include "postproc/observation_sampler.hpp"
 #include "postproc/water_budget.hpp"
+#include "solver/result_reduction.hpp"
 #include "solver/simulation.hpp"
 #include "solver/system_layout.hpp"
 
@@ -48,6 +49,12 @@ class ResultRecorder final : public SimulationObserver {
  public:
   /// folder: where results go (must exist and be writable).
   ResultRecorder(const Model& model, std::filesystem::path folder);
+  /// One process of a distributed run: the heads it is given hold the part's rows (the
+  /// window, from cell part.first_held()); budgets and observations are summed over every
+  /// process through reduction, rank 0 writes the tables, each rank its piece of the fields
+  /// (fields_NNNN_pRRRR.vtr), indexed by fields_NNNN.pvtr.
+  ResultRecorder(const Model& model, std::filesystem::path folder, const GridPart& part,
+                 ResultReduction& reduction);
 
   void initial_state(std::span<const double> head) override;
   void step_done(const StepInfo& info, std::span<const double> head_old,
@@ -74,6 +81,13 @@ class ResultRecorder final : public SimulationObserver {
  private:
   void write_fields(double time);
   void start_period_row(std::size_t period);
+  bool writes_tables() const { return reduction_ == nullptr || reduction_->rank() == 0; }
+  CellValues window(std::span<const double> head) const { return {head, part_.first_held()}; }
+  void reduce(WaterBudget& budget);
+  void reduce(std::vector<double>& values);
+  /// Runs write; in a distributed run every process then learns whether any failed.
+  template <class Write>
+  void collectively(Write&& write);
 
   const Model& model_;
   std::filesystem::path folder_;
@@ -92,6 +106,8 @@ class ResultRecorder final : public SimulationObserver {
   double time_ = 0.0;
   RecorderStatistics stats_;
   std::function<void(const StepInfo&)> progress_;
+  GridPart part_;
+  ResultReduction* reduction_ = nullptr;
 };
 
 }  // namespace aquiledger

@@ -141,11 +141,15 @@ int add_hydrographs(HtmlReport& page, const CsvTable& obs, const Model* model, c
 }
 
 void add_maps(HtmlReport& page, const std::filesystem::path& folder, const Units& u) {
-  std::vector<std::filesystem::path> files;
+  // A distributed run writes one .pvtr per output time over per-rank .vtr pieces.
+  std::vector<std::filesystem::path> files, sets;
   for (const auto& e : std::filesystem::directory_iterator(folder)) {
     const std::string n = e.path().filename().string();
-    if (n.rfind("fields_", 0) == 0 && e.path().extension() == ".vtr") files.push_back(e.path());
+    if (n.rfind("fields_", 0) != 0) continue;
+    if (e.path().extension() == ".vtr") files.push_back(e.path());
+    if (e.path().extension() == ".pvtr") sets.push_back(e.path());
   }
+  if (!sets.empty()) files = sets;
   std::sort(files.begin(), files.end());
   if (files.empty()) {
     page.add_heading("Maps");

@@ -10,6 +10,7 @@
 #include <vtkRectilinearGrid.h>
 #include <vtkStringArray.h>
 #include <vtkUnsignedCharArray.h>
+#include <vtkXMLPRectilinearGridReader.h>
 #include <vtkXMLRectilinearGridReader.h>
 #include <vtkXMLRectilinearGridWriter.h>
 
@@ -28,16 +29,19 @@ constexpr double nan_value = std::numeric_limits<double>::quiet_NaN();
 
 /// The grid with true cell edges. VTK's j index grows with y, so the y coordinates run south
 /// to north (the reverse of the grid's raster order).
-vtkNew<vtkRectilinearGrid> make_grid(const RectilinearGrid& grid) {
+/// A band of rows is the piece of the whole grid with VTK j from n_rows - band end.
+vtkNew<vtkRectilinearGrid> make_grid(const RectilinearGrid& grid, RowBand band) {
   vtkNew<vtkRectilinearGrid> vtk_grid;
-  vtk_grid->SetDimensions(grid.n_cols() + 1, grid.n_rows() + 1, 1);
+  const int j0 = grid.n_rows() - band.end();
+  vtk_grid->SetExtent(0, grid.n_cols(), j0, j0 + band.count, 0, 0);
   vtkNew<vtkDoubleArray> x, y, z;
   x->SetName("x");
   y->SetName("y");
   z->SetName("z");
   for (double e : grid.x_edges()) x->InsertNextValue(e);
   const auto ye = grid.y_edges();
-  for (auto it = ye.rbegin(); it != ye.rend(); ++it) y->InsertNextValue(*it);
+  for (int e = band.end(); e >= band.first; --e)
+    y->InsertNextValue(ye[static_cast<std::size_t>(e)]);
   z->InsertNextValue(0.0);
   vtk_grid->SetXCoordinates(x);
   vtk_grid->SetYCoordinates(y);
@@ -46,10 +50,10 @@ vtkNew<vtkRectilinearGrid> make_grid(const RectilinearGrid& grid) {
   // Viewers hide cells flagged HIDDENCELL in the ghost array (blanking).
   vtkNew<vtkUnsignedCharArray> ghost;
   ghost->SetName(vtkDataSetAttributes::GhostArrayName());
-  ghost->SetNumberOfValues(grid.n_cells());
-  const int n_rows = grid.n_rows(), n_cols = grid.n_cols();
+  const int n_rows = band.count, n_cols = grid.n_cols();
+  ghost->SetNumberOfValues(static_cast<vtkIdType>(n_rows) * n_cols);
   for (int j = 0; j < n_rows; ++j) {
-    const int row = n_rows - 1 - j;
+    const int row = band.end() - 1 - j;
     for (int i = 0; i < n_cols; ++i) {
       const bool active = grid.is_active(grid.cell(row, i));
       ghost->SetValue(static_cast<vtkIdType>(j) * n_cols + i,
@@ -61,21 +65,25 @@ vtkNew<vtkRectilinearGrid> make_grid(const RectilinearGrid& grid) {
 }
 
 /// Adds a per-cell array given in raster order; inactive cells get NaN whatever they hold.
-void add_cell_array(vtkRectilinearGrid* vtk_grid, const RectilinearGrid& grid,
+/// values: per cell of the band's rows in raster order.
+void add_cell_array(vtkRectilinearGrid* vtk_grid, const RectilinearGrid& grid, RowBand band,
                     std::string_view name, const std::vector<double>& values) {
-  if (values.size() != static_cast<std::size_t>(grid.n_cells())) {
+  const std::size_t n_cells = static_cast<std::size_t>(band.count) * grid.n_cols();
+  if (values.size() != n_cells) {
     throw std::invalid_argument(fmt::format("cell array '{}' has {} values, the grid {} cells",
-                                            name, values.size(), grid.n_cells()));
+                                            name, values.size(), n_cells));
   }
   vtkNew<vtkDoubleArray> array;
   array->SetName(std::string(name).c_str());
-  array->SetNumberOfValues(grid.n_cells());
-  const int n_rows = grid.n_rows(), n_cols = grid.n_cols();
+  array->SetNumberOfValues(static_cast<vtkIdType>(n_cells));
+  const int n_rows = band.count, n_cols = grid.n_cols();
+  const auto first = static_cast<std::size_t>(band.first) * n_cols;
   for (int j = 0; j < n_rows; ++j) {
-    const int row = n_rows - 1 - j;
+    const int row = band.end() - 1 - j;
     for (int i = 0; i < n_cols; ++i) {
       const CellIndex c = grid.cell(row, i);
-      const double v = grid.is_active(c) ? values[static_cast<std::size_t>(c.value)] : nan_value;
+      const double v =
+          grid.is_active(c) ? values[static_cast<std::size_t>(c.value) - first] : nan_value;
       array->SetValue(static_cast<vtkIdType>(j) * n_cols + i, v);
     }
   }
@@ -151,20 +159,25 @@ std::string xml_escaped(std::string_view text) {
 
 void write_fields_vtr(const std::filesystem::path& path, const Model& model,
                       const CellFields& fields, double time) {
+  write_fields_vtr(path, model, fields, time, RowBand{0, model.grid.n_rows()});
+}
+
+void write_fields_vtr(const std::filesystem::path& path, const Model& model,
+                      const CellFields& fields, double time, RowBand band) {
   const RectilinearGrid& grid = model.grid;
-  auto vtk_grid = make_grid(grid);
-  add_cell_array(vtk_grid, grid, "head", fields.head);
-  add_cell_array(vtk_grid, grid, "drawdown", fields.drawdown);
-  add_cell_array(vtk_grid, grid, "saturated_thickness", fields.saturated_thickness);
-  add_cell_array(vtk_grid, grid, "state", fields.state);
-  add_cell_array(vtk_grid, grid, "storage_rate", fields.storage_rate);
-  add_cell_array(vtk_grid, grid, "storage_skeleton_rate", fields.storage_skeleton_rate);
-  add_cell_array(vtk_grid, grid, "storage_water_rate", fields.storage_water_rate);
-  add_cell_array(vtk_grid, grid, "storage_elastic_rate", fields.storage_elastic_rate);
-  add_cell_array(vtk_grid, grid, "storage_drainage_rate", fields.storage_drainage_rate);
-  add_cell_array(vtk_grid, grid, "compaction", fields.compaction);
-  add_cell_array(vtk_grid, grid, "flow_east", fields.flow_east);
-  add_cell_array(vtk_grid, grid, "flow_north", fields.flow_north);
+  auto vtk_grid = make_grid(grid, band);
+  add_cell_array(vtk_grid, grid, band, "head", fields.head);
+  add_cell_array(vtk_grid, grid, band, "drawdown", fields.drawdown);
+  add_cell_array(vtk_grid, grid, band, "saturated_thickness", fields.saturated_thickness);
+  add_cell_array(vtk_grid, grid, band, "state", fields.state);
+  add_cell_array(vtk_grid, grid, band, "storage_rate", fields.storage_rate);
+  add_cell_array(vtk_grid, grid, band, "storage_skeleton_rate", fields.storage_skeleton_rate);
+  add_cell_array(vtk_grid, grid, band, "storage_water_rate", fields.storage_water_rate);
+  add_cell_array(vtk_grid, grid, band, "storage_elastic_rate", fields.storage_elastic_rate);
+  add_cell_array(vtk_grid, grid, band, "storage_drainage_rate", fields.storage_drainage_rate);
+  add_cell_array(vtk_grid, grid, band, "compaction", fields.compaction);
+  add_cell_array(vtk_grid, grid, band, "flow_east", fields.flow_east);
+  add_cell_array(vtk_grid, grid, band, "flow_north", fields.flow_north);
   vtk_grid->GetCellData()->SetActiveScalars("head");
 
   vtkNew<vtkDoubleArray> time_array;
@@ -178,14 +191,15 @@ void write_fields_vtr(const std::filesystem::path& path, const Model& model,
 void write_static_vtr(const std::filesystem::path& path, const Model& model) {
   const RectilinearGrid& grid = model.grid;
   const Aquifer& aquifer = model.aquifer;
-  auto vtk_grid = make_grid(grid);
-  add_cell_array(vtk_grid, grid, "kx", aquifer.kx);
-  add_cell_array(vtk_grid, grid, "ky", aquifer.ky);
-  if (!aquifer.top.empty()) add_cell_array(vtk_grid, grid, "top", aquifer.top);
-  add_cell_array(vtk_grid, grid, "bottom", aquifer.bottom);
-  add_cell_array(vtk_grid, grid, "specific_storage", aquifer.specific_storage);
+  const RowBand band{0, grid.n_rows()};
+  auto vtk_grid = make_grid(grid, band);
+  add_cell_array(vtk_grid, grid, band, "kx", aquifer.kx);
+  add_cell_array(vtk_grid, grid, band, "ky", aquifer.ky);
+  if (!aquifer.top.empty()) add_cell_array(vtk_grid, grid, band, "top", aquifer.top);
+  add_cell_array(vtk_grid, grid, band, "bottom", aquifer.bottom);
+  add_cell_array(vtk_grid, grid, band, "specific_storage", aquifer.specific_storage);
   if (!aquifer.specific_yield.empty())
-    add_cell_array(vtk_grid, grid, "specific_yield", aquifer.specific_yield);
+    add_cell_array(vtk_grid, grid, band, "specific_yield", aquifer.specific_yield);
 
   vtkNew<vtkUnsignedCharArray> active;
   active->SetName("active");
@@ -215,15 +229,62 @@ void write_pvd(const std::filesystem::path& path, const std::vector<FieldFileEnt
   write_file_atomically(path, text);
 }
 
+void write_pvtr(const std::filesystem::path& path, const Model& model,
+                const std::vector<FieldPiece>& pieces) {
+  const RectilinearGrid& grid = model.grid;
+  std::string text = fmt::format(
+      "<?xml version=\"1.0\"?>\n"
+      "<VTKFile type=\"PRectilinearGrid\" version=\"1.0\" byte_order=\"LittleEndian\" "
+      "header_type=\"UInt64\">\n"
+      "  <PRectilinearGrid WholeExtent=\"0 {} 0 {} 0 0\" GhostLevel=\"0\">\n"
+      "    <PCellData Scalars=\"head\">\n",
+      grid.n_cols(), grid.n_rows());
+  for (const char* name : {"head", "drawdown", "saturated_thickness", "state", "storage_rate",
+                           "storage_skeleton_rate", "storage_water_rate", "storage_elastic_rate",
+                           "storage_drainage_rate", "compaction", "flow_east", "flow_north"})
+    fmt::format_to(std::back_inserter(text), "      <PDataArray type=\"Float64\" Name=\"{}\"/>\n",
+                   name);
+  fmt::format_to(std::back_inserter(text), "      <PDataArray type=\"UInt8\" Name=\"{}\"/>\n",
+                 vtkDataSetAttributes::GhostArrayName());
+  text +=
+      "    </PCellData>\n"
+      "    <PCoordinates>\n"
+      "      <PDataArray type=\"Float64\" Name=\"x\"/>\n"
+      "      <PDataArray type=\"Float64\" Name=\"y\"/>\n"
+      "      <PDataArray type=\"Float64\" Name=\"z\"/>\n"
+      "    </PCoordinates>\n";
+  for (const FieldPiece& piece : pieces) {
+    const int j0 = grid.n_rows() - piece.rows.end();
+    fmt::format_to(std::back_inserter(text),
+                   "    <Piece Extent=\"0 {} {} {} 0 0\" Source=\"{}\"/>\n", grid.n_cols(), j0,
+                   j0 + piece.rows.count, xml_escaped(piece.file));
+  }
+  text += "  </PRectilinearGrid>\n</VTKFile>\n";
+  write_file_atomically(path, text);
+}
+
 std::string field_file_name(std::size_t n) { return fmt::format("fields_{:04d}.vtr", n); }
 
 FieldMap read_field_vtr(const std::filesystem::path& path, const std::string& array) {
   if (!std::filesystem::is_regular_file(path)) throw OutputError("cannot read " + path.string());
-  vtkNew<vtkXMLRectilinearGridReader> reader;
-  reader->SetFileName(path.string().c_str());
-  reader->Update();
-  vtkRectilinearGrid* grid = reader->GetOutput();
-  if (reader->GetErrorCode() != 0 || grid == nullptr || grid->GetNumberOfCells() == 0)
+  // A parallel set (.pvtr, from the distributed engine) is read as one grid.
+  vtkNew<vtkXMLRectilinearGridReader> serial_reader;
+  vtkNew<vtkXMLPRectilinearGridReader> parallel_reader;
+  const bool parallel = path.extension() == ".pvtr";
+  vtkRectilinearGrid* grid = nullptr;
+  unsigned long error = 0;
+  if (parallel) {
+    parallel_reader->SetFileName(path.string().c_str());
+    parallel_reader->Update();
+    grid = parallel_reader->GetOutput();
+    error = parallel_reader->GetErrorCode();
+  } else {
+    serial_reader->SetFileName(path.string().c_str());
+    serial_reader->Update();
+    grid = serial_reader->GetOutput();
+    error = serial_reader->GetErrorCode();
+  }
+  if (error != 0 || grid == nullptr || grid->GetNumberOfCells() == 0)
     throw OutputError("cannot read " + path.string() + " as a VTK rectilinear grid");
   vtkDataArray* values = grid->GetCellData()->GetArray(array.c_str());
   if (values == nullptr) throw OutputError(path.string() + " has no cell array '" + array + "'");

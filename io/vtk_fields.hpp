@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "io/output_error.hpp"
+#include "mesh/grid_part.hpp"
 #include "postproc/cell_fields.hpp"
 #include "solver/model.hpp"
 
@@ -26,6 +27,22 @@ struct FieldFileEntry {
 /// time_unit. Written atomically; throws OutputError naming the path on failure.
 void write_fields_vtr(const std::filesystem::path& path, const Model& model,
                       const CellFields& fields, double time);
+
+/// As above for a band of rows (fields of that band's cells): one piece of a parallel set,
+/// with the piece's extent within the whole grid.
+void write_fields_vtr(const std::filesystem::path& path, const Model& model,
+                      const CellFields& fields, double time, RowBand band);
+
+/// One piece of a parallel field set: its rows and its .vtr file (relative to the .pvtr).
+struct FieldPiece {
+  RowBand rows;
+  std::string file;
+};
+
+/// Writes the .pvtr index of a parallel set of pieces written by the band write_fields_vtr,
+/// which VTK's parallel reader (and any viewer using it) reads as one grid. Atomically.
+void write_pvtr(const std::filesystem::path& path, const Model& model,
+                const std::vector<FieldPiece>& pieces);
 
 /// Writes the model's cell properties: kx, ky, top, bottom, specific_storage,
 /// specific_yield (only when the model has one) and active (1/0), with the same grid,

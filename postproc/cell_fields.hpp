@@ -7,7 +7,8 @@
 
 namespace aquiledger {
 
-/// The cell arrays written for viewers, per grid cell in raster order, NaN where inactive.
+/// The cell arrays written for viewers, per grid cell in raster order, NaN where inactive
+/// (of the whole grid, or of the cells a GridPart owns).
 struct CellFields {
   std::vector<double> head;                   ///< L
   std::vector<double> drawdown;               ///< L, initial head minus head
@@ -31,5 +32,12 @@ CellFields initial_cell_fields(const Model& model, const SystemLayout& layout,
 void update_cell_fields(const Model& model, const SystemLayout& layout, bool steady, double dt,
                         std::span<const double> initial_head, std::span<const double> head_old,
                         std::span<const double> head_new, CellFields& fields);
+
+/// As above for the cells a part owns (the heads must hold them and their neighbours).
+CellFields initial_cell_fields(const Model& model, const SystemLayout& layout, const GridPart& part,
+                               CellValues initial_head);
+void update_cell_fields(const Model& model, const SystemLayout& layout, const GridPart& part,
+                        bool steady, double dt, CellValues initial_head, CellValues head_old,
+                        CellValues head_new, CellFields& fields);
 
 }  // namespace aquiledger

@@ -34,7 +34,8 @@ Bracket bracket(const std::vector<double>& centres, double v) {
 }  // namespace
 
 ObservationSampler::ObservationSampler(const RectilinearGrid& grid,
-                                       const std::vector<Observation>& observations) {
+                                       const std::vector<Observation>& observations)
+    : whole_(GridPart::whole(grid)) {
   std::vector<double> xc(static_cast<std::size_t>(grid.n_cols()));
   std::vector<double> yc(static_cast<std::size_t>(grid.n_rows()));  // north to south
   for (int j = 0; j < grid.n_cols(); ++j) xc[j] = grid.x_center(j);
@@ -88,6 +89,10 @@ ObservationSampler::ObservationSampler(const RectilinearGrid& grid,
 }
 
 std::vector<double> ObservationSampler::sample(std::span<const double> head) const {
+  return sample(head, whole_);
+}
+
+std::vector<double> ObservationSampler::sample(CellValues head, const GridPart& part) const {
   std::vector<double> values(stencils_.size(), std::numeric_limits<double>::quiet_NaN());
   for (std::size_t k = 0; k < stencils_.size(); ++k) {
     const Stencil& s = stencils_[k];
@@ -95,7 +100,7 @@ std::vector<double> ObservationSampler::sample(std::span<const double> head) con
     double sum = 0.0;
     // Zero weights are skipped so that a point on a centre line ignores the far cells.
     for (int i = 0; i < s.n; ++i)
-      if (s.weights[i] != 0.0)
+      if (s.weights[i] != 0.0 && part.owns(s.cells[i]))
         sum += s.weights[i] * head[static_cast<std::size_t>(s.cells[i].value)];
     values[k] = sum;
   }

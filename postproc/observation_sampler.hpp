@@ -2,6 +2,7 @@
 #include <span>
 #include <vector>
 
+#include "mesh/grid_part.hpp"
 #include "mesh/rectilinear_grid.hpp"
 #include "solver/model.hpp"
 
@@ -15,6 +16,9 @@ class ObservationSampler {
   ObservationSampler(const RectilinearGrid& grid, const std::vector<Observation>& observations);
   /// Head at every observation (L), in the order given.
   std::vector<double> sample(std::span<const double> head) const;
+  /// The share of the stencil cells a part owns (head must hold them): summed over every
+  /// part, the heads above. Points outside the grid are NaN on every part.
+  std::vector<double> sample(CellValues head, const GridPart& part) const;
 
  private:
   struct Stencil {
@@ -23,6 +27,7 @@ class ObservationSampler {
     double weights[4] = {0, 0, 0, 0};
   };
   std::vector<Stencil> stencils_;
+  GridPart whole_;
 };
 
 /// Residual statistics of simulated against measured heads (for reports).

@@ -40,26 +40,6 @@ BudgetComponent component_of(FeatureKind kind) {
   return BudgetComponent::wells;
 }
 
-/// Net flow (L3/T) from fixed cell c into its active non-fixed neighbours.
-double fixed_cell_net_flow(const Model& model, const SystemLayout& layout, CellIndex c,
-                           std::span<const double> head) {
-  const RectilinearGrid& g = model.grid;
-  const RowCol rc = g.row_col(c);
-  double net = 0.0;
-  auto consider = [&](int r, int col, bool east_west) {
-    if (r < 0 || r >= g.n_rows() || col < 0 || col >= g.n_cols()) return;
-    const CellIndex nb = g.cell(r, col);
-    if (!g.is_active(nb) || layout.fixed[at(nb)]) return;
-    const double factor = face_factor(model, c, nb, east_west);
-    net += face_flow(model, layout, nb, c, factor, head[at(nb)], head[at(c)]).q;
-  };
-  consider(rc.row, rc.col - 1, true);
-  consider(rc.row, rc.col + 1, true);
-  consider(rc.row - 1, rc.col, false);
-  consider(rc.row + 1, rc.col, false);
-  return net;
-}
-
 }  // namespace
 
 std::string_view component_label(BudgetComponent c) {
@@ -127,17 +107,26 @@ void WaterBudget::add_scaled(const WaterBudget& other, double factor) {
 WaterBudget step_budget(const Model& model, const SystemLayout& layout, std::size_t period,
                         bool steady, double dt, std::span<const double> head_old,
                         std::span<const double> head_new) {
+  return step_budget(model, layout, GridPart::whole(model.grid), period, steady, dt, head_old,
+                     head_new);
+}
+
+WaterBudget step_budget(const Model& model, const SystemLayout& layout, const GridPart& part,
+                        std::size_t period, bool steady, double dt, CellValues head_old,
+                        CellValues head_new) {
   WaterBudget budget;
   // Storage: released (positive) or taken (negative) in each unknown cell, by mechanism.
   if (!steady) {
     const bool split = model.aquifer.elastic_split();
-    const auto n = static_cast<std::ptrdiff_t>(layout.cell_of_unknown.size());
+    const UnknownRange owned = owned_unknowns(layout, part);
+    const auto first = static_cast<std::ptrdiff_t>(owned.first);
+    const auto n = static_cast<std::ptrdiff_t>(owned.end);
     // In and out of each storage mechanism as plain scalars so that OpenMP can reduce them.
     double skel_in = 0, skel_out = 0, water_in = 0, water_out = 0, el_in = 0, el_out = 0;
     double dr_in = 0, dr_out = 0;
 #pragma omp parallel for schedule(static) \
     reduction(+ : skel_in, skel_out, water_in, water_out, el_in, el_out, dr_in, dr_out)
-    for (std::ptrdiff_t u = 0; u < n; ++u) {
+    for (std::ptrdiff_t u = first; u < n; ++u) {
       const CellIndex c = layout.cell_of_unknown[static_cast<std::size_t>(u)];
       const std::size_t i = at(c);
       const StoredWater change =
@@ -162,7 +151,7 @@ WaterBudget step_budget(const Model& model, const SystemLayout& layout, std::siz
 
   const std::vector<FeatureRef> features = list_features(model);
   std::vector<FeatureFlow> flows(features.size());
-  stress_flows_by_feature(model, layout, period, head_new, flows);
+  stress_flows_by_feature(model, layout, period, part, head_new, flows);
   budget.features.resize(features.size());
   // Fixed heads: each fixed cell counted once, under the first feature that holds it.
   std::vector<std::uint8_t> counted(layout.fixed.size(), 0);
@@ -170,7 +159,7 @@ WaterBudget step_budget(const Model& model, const SystemLayout& layout, std::siz
     InOut& row = budget.features[k];
     if (features[k].kind == FeatureKind::fixed_head) {
       for (CellIndex c : model.fixed_heads[features[k].index].cells) {
-        if (!model.grid.is_active(c) || counted[at(c)]) continue;
+        if (!part.owns(c) || !model.grid.is_active(c) || counted[at(c)]) continue;
         counted[at(c)] = 1;
         add_signed(row, fixed_cell_net_flow(model, layout, c, head_new));
       }

@@ -48,4 +48,10 @@ WaterBudget step_budget(const Model& model, const SystemLayout& layout, std::siz
                         bool steady, double dt, std::span<const double> head_old,
                         std::span<const double> head_new);
 
+/// The share of the cells a part owns (head_old and head_new must hold them and their
+/// neighbours): summed over every part, the budget of the whole grid.
+WaterBudget step_budget(const Model& model, const SystemLayout& layout, const GridPart& part,
+                        std::size_t period, bool steady, double dt, CellValues head_old,
+                        CellValues head_new);
+
 }  // namespace aquiledger

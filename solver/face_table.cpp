@@ -4,6 +4,10 @@
 
 namespace aquiledger {
 
+namespace {
+std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
+}  // namespace
+
 double face_factor(const Model& model, CellIndex i, CellIndex j, bool east_west) {
   // The same bits seen from either side: the face flows of neighbours then cancel exactly
   // in the sum of the residuals, and the confined Jacobian is exactly symmetric.
@@ -31,6 +35,26 @@ FaceFlow face_flow(const Model& model, const SystemLayout& layout, CellIndex i, 
   if (model.aquifer.condition == Condition::confined) return linear_face_flow(factor, hi, hj);
   return upstream_face_flow(factor, hi, saturated_thickness(model, layout, i, hi), hj,
                             saturated_thickness(model, layout, j, hj));
+}
+
+/// Net flow (L3/T) from fixed cell c into its active non-fixed neighbours.
+double fixed_cell_net_flow(const Model& model, const SystemLayout& layout, CellIndex c,
+                           CellValues head) {
+  const RectilinearGrid& g = model.grid;
+  const RowCol rc = g.row_col(c);
+  double net = 0.0;
+  auto consider = [&](int r, int col, bool east_west) {
+    if (r < 0 || r >= g.n_rows() || col < 0 || col >= g.n_cols()) return;
+    const CellIndex nb = g.cell(r, col);
+    if (!g.is_active(nb) || layout.fixed[at(nb)]) return;
+    const double factor = face_factor(model, c, nb, east_west);
+    net += face_flow(model, layout, nb, c, factor, head[at(nb)], head[at(c)]).q;
+  };
+  consider(rc.row, rc.col - 1, true);
+  consider(rc.row, rc.col + 1, true);
+  consider(rc.row - 1, rc.col, false);
+  consider(rc.row + 1, rc.col, false);
+  return net;
 }
 
 std::vector<Face> make_face_table(const Model& model) {

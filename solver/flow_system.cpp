@@ -2,6 +2,7 @@
 
 #include <cmath>
 
+#include "solver/cell_balance.hpp"
 #include "solver/face_table.hpp"
 #include "solver/stress_flows.hpp"
 
@@ -10,23 +11,6 @@ namespace aquiledger {
 namespace {
 
 std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
-
-/// Active neighbours of c with the face factor seen from c, in the order W, E, N, S.
-template <class Visit>
-void for_each_active_neighbour(const Model& model, CellIndex c, Visit&& visit) {
-  const RectilinearGrid& g = model.grid;
-  const RowCol rc = g.row_col(c);
-  auto consider = [&](int r, int col, bool east_west) {
-    if (r < 0 || r >= g.n_rows() || col < 0 || col >= g.n_cols()) return;
-    const CellIndex n = g.cell(r, col);
-    if (!g.is_active(n)) return;
-    visit(n, face_factor(model, c, n, east_west));
-  };
-  consider(rc.row, rc.col - 1, true);
-  consider(rc.row, rc.col + 1, true);
-  consider(rc.row - 1, rc.col, false);
-  consider(rc.row + 1, rc.col, false);
-}
 
 /// Position of entry (row, col) in the values of a compressed column-major matrix.
 int value_position(const SparseMatrix& m, int row, int col) {
@@ -107,35 +91,38 @@ void FlowSystem::assemble_cells(std::span<const double> head) {
   for (int u = 0; u < n; ++u) {
     const CellIndex c = layout_.cell_of_unknown[static_cast<std::size_t>(u)];
     const std::size_t i = at(c);
-    const double hi = head[i];
-    double r = stress_q_[i];
-    double diag = stress_dq_[i];
-    double budget_terms = std::abs(stress_q_[i]);
-    for (int k = 0; k < max_neighbours; ++k) {
-      const Neighbour& nb = neighbours_[static_cast<std::size_t>(u * max_neighbours + k)];
-      if (!nb.cell.valid()) break;
-      const std::size_t j = at(nb.cell);
-      // The same kernels as face_flow (face_table.cpp), inlined with the thickness cached.
-      const FaceFlow f = Confined ? linear_face_flow(nb.factor, hi, head[j])
-                                  : upstream_face_flow(nb.factor, hi, thickness_[i], head[j],
-                                                       thickness_[j]);
-      r += f.q;
-      face_sum += std::abs(f.q);
-      diag += f.dq_dhi;
-      if (nb.value >= 0) values[nb.value] = -f.dq_dhj;
-    }
+    const Neighbour* nbs = &neighbours_[static_cast<std::size_t>(u * max_neighbours)];
+    CellRowInput in;
+    in.head = head[i];
+    if constexpr (!Confined) in.thickness = thickness_[i];
+    in.stress_q = stress_q_[i];
+    in.stress_dq = stress_dq_[i];
     if (transient) {
-      const CellStorage& s = storage_[static_cast<std::size_t>(u)];
-      const double area = layout_.area[i];
-      const double release = -area * stored_water_change(s, head_old_[i], hi).total() * inv_dt;
-      r += release;
-      diag -= area * stored_water_slope(s, hi) * inv_dt;
-      budget_terms += std::abs(release);
+      in.storage = &storage_[static_cast<std::size_t>(u)];
+      in.head_old = head_old_[i];
+      in.area = layout_.area[i];
+      in.inv_dt = inv_dt;
     }
-    values[diagonal_[static_cast<std::size_t>(u)]] = -diag;
-    residual_[u] = r;
-    abs_sum += budget_terms;
-    sum += r;
+    auto faces = [&](auto&& visit) {
+      for (int k = 0; k < max_neighbours; ++k) {
+        const Neighbour& nb = nbs[k];
+        if (!nb.cell.valid()) break;
+        const std::size_t j = at(nb.cell);
+        // The thickness is cached once per cell for both sides of each face.
+        if constexpr (Confined)
+          visit(k, nb.factor, head[j], ValueSlope{});
+        else
+          visit(k, nb.factor, head[j], thickness_[j]);
+      }
+    };
+    auto off = [&](int k, double value) {
+      if (nbs[k].value >= 0) values[nbs[k].value] = value;
+    };
+    const CellRow row = cell_row<Confined>(in, faces, off, face_sum);
+    values[diagonal_[static_cast<std::size_t>(u)]] = -row.diagonal;
+    residual_[u] = row.residual;
+    abs_sum += row.budget_terms;
+    sum += row.residual;
   }
   abs_sum_ = abs_sum;
   face_sum_ = face_sum;

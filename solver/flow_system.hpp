@@ -42,6 +42,8 @@ class FlowSystem {
   int n_unknowns() const { return layout_.n_unknowns(); }
   const SystemLayout& layout() const { return layout_; }
   const Model& model() const { return model_; }
+  /// ~ 500 machine epsilons: the sum over a cell's terms and over all cells loses a few bits.
+  static constexpr double rounding_factor = 1.0e-13;
 
  private:
   static constexpr int max_neighbours = 4;
@@ -75,8 +77,6 @@ class FlowSystem {
   double throughflow_ = 0.0;
   double residual_sum_ = 0.0;
   double rounding_floor_ = 0.0;
-  /// ~ 500 machine epsilons: the sum over a cell's terms and over all cells loses a few bits.
-  static constexpr double rounding_factor = 1.0e-13;
 };
 
 }  // namespace aquiledger

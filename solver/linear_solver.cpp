@@ -91,9 +91,8 @@ LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int
   }
   if (n <= umfpack_auto_limit)
     return {make_umfpack_solver(), "auto: non-symmetric (upstream thickness), " + size + ": LU"};
-  return {make_symmetric_part_krylov_solver(),
-          "auto: non-symmetric (upstream thickness), " + size +
-              " (over the LU limit): bicgstab preconditioned by Cholesky of the symmetric part"};
+  return {make_bicgstab_solver(), "auto: non-symmetric (upstream thickness), " + size +
+                                      " (over the direct limit): bicgstab"};
 }
 
 }  // namespace aquiledger

@@ -15,13 +15,16 @@ std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
 /// position in list_features(model). Inactive and fixed-head cells carry no stress.
 /// Recharges flagged in parallel_recharge (cells known distinct, and visit safe to call
 /// concurrently for distinct cells) loop over their cells with OpenMP.
+/// Only the cells the part owns are visited; head must hold them.
 template <class Visit>
 void visit_stress_flows(const Model& model, const SystemLayout& layout, std::size_t period,
-                        std::span<const double> head, Visit&& visit,
+                        CellValues head, const GridPart& part, Visit&& visit,
                         std::span<const std::uint8_t> parallel_recharge = {}) {
   const RectilinearGrid& grid = model.grid;
   const bool reducible = model.aquifer.condition != Condition::confined;
-  auto carries_stress = [&](CellIndex c) { return grid.is_active(c) && layout.fixed[at(c)] == 0; };
+  auto carries_stress = [&](CellIndex c) {
+    return part.owns(c) && grid.is_active(c) && layout.fixed[at(c)] == 0;
+  };
   std::size_t k = 0;
 
   for (const Well& well : model.wells) {
@@ -163,8 +166,15 @@ void add_stress_flows(const Model& model, const SystemLayout& layout, std::size_
 void add_stress_flows(const Model& model, const SystemLayout& layout, std::size_t period,
                       std::span<const double> head, std::span<double> q, std::span<double> dq_dh,
                       std::span<const std::uint8_t> parallel_recharge) {
+  add_stress_flows(model, layout, period, GridPart::whole(model.grid), head, q, dq_dh,
+                   parallel_recharge);
+}
+
+void add_stress_flows(const Model& model, const SystemLayout& layout, std::size_t period,
+                      const GridPart& part, CellValues head, CellWindow<double> q,
+                      CellWindow<double> dq_dh, std::span<const std::uint8_t> parallel_recharge) {
   visit_stress_flows(
-      model, layout, period, head,
+      model, layout, period, head, part,
       [&](std::size_t, CellIndex c, const WithdrawalFlow& flow) {
         q[at(c)] += flow.q.value;
         dq_dh[at(c)] += flow.q.slope;
@@ -191,11 +201,16 @@ std::vector<std::uint8_t> recharges_with_distinct_cells(const Model& model) {
 
 void stress_flows_by_feature(const Model& model, const SystemLayout& layout, std::size_t period,
                              std::span<const double> head, std::span<FeatureFlow> flows) {
+  stress_flows_by_feature(model, layout, period, GridPart::whole(model.grid), head, flows);
+}
+
+void stress_flows_by_feature(const Model& model, const SystemLayout& layout, std::size_t period,
+                             const GridPart& part, CellValues head, std::span<FeatureFlow> flows) {
   const std::vector<FeatureRef> features = list_features(model);
   for (std::size_t k = 0; k < features.size(); ++k)
     if (features[k].kind != FeatureKind::fixed_head) flows[k] = FeatureFlow{};
   // Split cell by cell: a river losing in one cell and gaining in another reports both.
-  visit_stress_flows(model, layout, period, head,
+  visit_stress_flows(model, layout, period, head, part,
                      [&](std::size_t k, CellIndex, const WithdrawalFlow& flow) {
                        if (flow.q.value > 0.0)
                          flows[k].in += flow.q.value;

@@ -8,6 +8,7 @@
 #include <string>
 #include <vector>
 
+#include "mesh/grid_part.hpp"
 #include "solver/model.hpp"
 #include "solver/saturation.hpp"
 #include "solver/system_layout.hpp"
@@ -49,6 +50,11 @@ void add_stress_flows(const Model& model, const SystemLayout& layout, std::size_
                       std::span<const double> head, std::span<double> q, std::span<double> dq_dh,
                       std::span<const std::uint8_t> parallel_recharge);
 
+/// As above over the cells the part owns only; head must hold them, q and dq_dh cover them.
+void add_stress_flows(const Model& model, const SystemLayout& layout, std::size_t period,
+                      const GridPart& part, CellValues head, CellWindow<double> q,
+                      CellWindow<double> dq_dh, std::span<const std::uint8_t> parallel_recharge);
+
 /// 1 for each recharge whose cells are all distinct (so that its cells can be updated
 /// concurrently), else 0.
 std::vector<std::uint8_t> recharges_with_distinct_cells(const Model& model);
@@ -57,5 +63,8 @@ std::vector<std::uint8_t> recharges_with_distinct_cells(const Model& model);
 /// (fixed-head entries are left untouched).
 void stress_flows_by_feature(const Model& model, const SystemLayout& layout, std::size_t period,
                              std::span<const double> head, std::span<FeatureFlow> flows);
+/// As above, summing the cells the part owns only (head must hold them).
+void stress_flows_by_feature(const Model& model, const SystemLayout& layout, std::size_t period,
+                             const GridPart& part, CellValues head, std::span<FeatureFlow> flows);
 
 }  // namespace aquiledger

@@ -1,5 +1,6 @@
 #include "solver/system_layout.hpp"
 
+#include <algorithm>
 #include <cmath>
 
 #include "solver/saturation.hpp"
@@ -35,6 +36,15 @@ SystemLayout make_system_layout(const Model& model) {
     layout.cell_of_unknown.push_back(c);
   }
   return layout;
+}
+
+UnknownRange owned_unknowns(const SystemLayout& layout, const GridPart& part) {
+  const auto& cells = layout.cell_of_unknown;
+  auto position = [&](std::int32_t cell) {
+    return static_cast<int>(std::lower_bound(cells.begin(), cells.end(), CellIndex{cell}) -
+                            cells.begin());
+  };
+  return {position(part.first_owned()), position(part.end_owned())};
 }
 
 ValueSlope saturated_thickness(const Model& model, const SystemLayout& layout, CellIndex c,

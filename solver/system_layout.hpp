@@ -2,6 +2,7 @@
 #include <cstdint>
 #include <vector>
 
+#include "mesh/grid_part.hpp"
 #include "solver/model.hpp"
 #include "solver/saturation.hpp"
 
@@ -30,6 +31,13 @@ inline constexpr double reduction_fraction = 1.0e-2;
 inline constexpr double reference_thickness_without_top = 10.0;  ///< L
 
 SystemLayout make_system_layout(const Model& model);
+
+/// Unknowns [first, end): those of the cells a part owns (unknowns follow raster order).
+struct UnknownRange {
+  int first = 0;
+  int end = 0;
+};
+UnknownRange owned_unknowns(const SystemLayout& layout, const GridPart& part);
 
 /// Saturated thickness of a cell (L) and its derivative with respect to head.
 ValueSlope saturated_thickness(const Model& model, const SystemLayout& layout, CellIndex c, double head);

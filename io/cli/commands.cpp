@@ -1,5 +1,6 @@
 #include "io/cli/commands.hpp"
 
+#include <fmt/format.h>
 #include <unistd.h>
 
 #include <algorithm>
@@ -7,12 +8,11 @@
 #include <cstdio>
 #include <tuple>
 
-#include <fmt/format.h>
-
 #include "aquiledger_version.hpp"
 #include "io/atomic_file.hpp"
 #include "io/check_report.hpp"
 #include "io/checkpoint.hpp"
+#include "io/cli/distributed_run.hpp"
 #include "io/model_reader.hpp"
 #include "io/result_recorder.hpp"
 #include "io/run_report.hpp"
@@ -23,8 +23,9 @@ namespace aquiledger {
 
 namespace {
 
-/// Prints every diagnostic; returns true when the model is usable.
-bool report_diagnostics(const ReadResult& result) {
+/// Prints every diagnostic (when print is set); returns true when the model is usable.
+bool report_diagnostics(const ReadResult& result, bool print = true) {
+  if (!print) return result.ok();
   int errors = 0;
   std::vector<Diagnostic> sorted = result.diagnostics;
   std::stable_sort(sorted.begin(), sorted.end(), [](const Diagnostic& a, const Diagnostic& b) {
@@ -59,17 +60,51 @@ int run_check_command(const CheckOptions& options) {
 int run_run_command(const RunOptions& options) {
   using Clock = std::chrono::steady_clock;
   const auto start = Clock::now();
+  std::unique_ptr<RunEngine> engine;
+  if (options.engine == "petsc") {
+#ifdef AQUILEDGER_WITH_PETSC
+    if (options.resume || options.checkpoint_every > 0) {
+      std::fputs("error: --checkpoint-every and --resume are not available with --engine petsc\n",
+                 stderr);
+      return exit_usage;
+    }
+    engine = make_distributed_engine();
+#else
+    std::fputs(
+        "error: this aquiledger was built without the distributed engine (configure with "
+        "-DAQUILEDGER_WITH_PETSC=ON)\n",
+        stderr);
+    return exit_usage;
+#endif
+  } else {
+    engine = std::make_unique<RunEngine>();
+  }
+  // In a distributed run every rank reads the whole model; rank 0 alone prints and writes
+  // the tables and the summary.
+  const bool root = engine->root();
   ReadResult result = read_model_file(options.model_file);
-  if (!report_diagnostics(result)) return exit_invalid_model;
+  if (!report_diagnostics(result, root)) return exit_invalid_model;
   Model& model = *result.model;
   if (options.threads) model.solver.threads = *options.threads;
+  if (const std::string why = engine->unsupported(model); !why.empty()) {
+    if (root) std::fprintf(stderr, "error: %s\nNothing was run.\n", why.c_str());
+    return exit_usage;
+  }
   const std::filesystem::path folder = options.output_folder ? *options.output_folder : model.output.folder;
 
-  const bool terminal = isatty(fileno(stderr)) && !options.quiet;
+  const bool quiet = options.quiet || !root;
+  const bool terminal = isatty(fileno(stderr)) && !quiet;
+  std::string folder_error;
   try {
     check_output_folder_writable(folder);
   } catch (const OutputError& e) {
-    std::fprintf(stderr, "error: %s\nNothing was run.\n", e.what());
+    folder_error = e.what();
+  }
+  if (engine->any(!folder_error.empty())) {
+    if (root || !folder_error.empty())
+      std::fprintf(stderr, "error: %s\nNothing was run.\n",
+                   folder_error.empty() ? "another process cannot write the output folder"
+                                        : folder_error.c_str());
     return exit_output_failure;
   }
 
@@ -92,7 +127,7 @@ int run_run_command(const RunOptions& options) {
     return exit_bad_checkpoint;
   }
 
-  if (!options.quiet) {
+  if (!quiet) {
     std::fputs(fmt::format("aquiledger {}: {}\n", version_string, model.title).c_str(), stdout);
     std::fputs(fmt::format("  model   {}\n  grid    {} x {} cells, {} active\n  results {}\n",
                            options.model_file.string(), model.grid.n_rows(), model.grid.n_cols(),
@@ -111,12 +146,12 @@ int run_run_command(const RunOptions& options) {
   // summary.json is written last: a folder without one holds a run that did not finish
   // (rather than the summary of an earlier run beside newer tables).
   std::error_code ignored;
-  std::filesystem::remove(folder / "summary.json", ignored);
+  if (root) std::filesystem::remove(folder / "summary.json", ignored);
 
   RunResult run;
   std::optional<ResultRecorder> recorder;
   try {
-    recorder.emplace(model, folder);
+    engine->make_recorder(model, folder, recorder);
     if (terminal) {
       const std::size_t n_periods = model.periods.size();
       recorder->set_progress_callback([&, last = Clock::now()](const StepInfo& info) mutable {
@@ -142,12 +177,14 @@ int run_run_command(const RunOptions& options) {
         write_checkpoint(folder, Checkpoint{*fingerprint, model.solver.threads, state, recorder->state()});
       };
     }
-    run = run_simulation(model, *recorder, sim);
+    run = engine->run(model, *recorder, sim);
     if (terminal) std::fputs("\r\033[K", stderr);
     recorder->flush();
   } catch (const OutputError& e) {
     if (terminal) std::fputs("\n", stderr);
-    std::fprintf(stderr, "error: %s\nResults written before this point are complete.\n", e.what());
+    if (root)
+      std::fprintf(stderr, "error: %s\nResults written before this point are complete.\n",
+                   e.what());
     return exit_output_failure;
   }
   const double wall = std::chrono::duration<double>(Clock::now() - start).count();
@@ -177,14 +214,18 @@ int run_run_command(const RunOptions& options) {
   summary.failure = run.failure;
   summary.warnings = model.warnings;
   summary.caution = professional_caution;
+  std::string summary_error;
   try {
-    write_summary_json(folder / "summary.json", summary);
+    if (root) write_summary_json(folder / "summary.json", summary);
   } catch (const OutputError& e) {
-    std::fprintf(stderr, "error: %s\n", e.what());
+    summary_error = e.what();
+  }
+  if (engine->any(!summary_error.empty())) {
+    if (root) std::fprintf(stderr, "error: %s\n", summary_error.c_str());
     return exit_output_failure;
   }
 
-  if (!options.quiet) {
+  if (!quiet) {
     std::fputs("\n", stdout);
     std::fputs(format_period_budget_table(model, recorder->period_rows()).c_str(), stdout);
     std::fputs(fmt::format("\n  steps          {} accepted, {} with cut-backs\n", stats.steps, run.cutbacks).c_str(), stdout);
@@ -200,11 +241,13 @@ int run_run_command(const RunOptions& options) {
     std::fputs(fmt::format("  results in     {}\n\n{}\n", folder.string(), professional_caution).c_str(), stdout);
   }
   if (!run.converged) {
-    std::fprintf(stderr, "error: %s\nResults up to the last converged step are in %s.\n",
-                 run.failure.c_str(), folder.string().c_str());
+    if (root)
+      std::fprintf(stderr, "error: %s\nResults up to the last converged step are in %s.\n",
+                   run.failure.c_str(), folder.string().c_str());
     return exit_not_converged;
   }
-  if (options.quiet) std::fprintf(stdout, "aquiledger: run complete, results in %s\n", folder.string().c_str());
+  if (options.quiet && root)
+    std::fprintf(stdout, "aquiledger: run complete, results in %s\n", folder.string().c_str());
   return exit_success;
 }
 

@@ -1,6 +1,7 @@
 #pragma once
 #include <filesystem>
 #include <optional>
+#include <string>
 
 namespace aquiledger {
 
@@ -12,6 +13,8 @@ inline constexpr int exit_output_failure = 3;
 inline constexpr int exit_bad_checkpoint = 4;  ///< --resume without a usable checkpoint
 /// `verify`: a benchmark fell outside its tolerance.
 inline constexpr int exit_verification_failed = 5;
+/// The command line was wrong (also: an option this build does not have).
+inline constexpr int exit_usage = 64;
 
 struct CheckOptions {
   std::filesystem::path model_file;
@@ -24,6 +27,7 @@ struct RunOptions {
   bool quiet = false;
   int checkpoint_every = 0;  ///< write a checkpoint every N accepted steps (0: never)
   bool resume = false;       ///< continue from the output folder's checkpoint
+  std::string engine = "serial";  ///< "serial", or "petsc" (distributed, under mpirun)
 };
 
 struct VerifyOptions {

@@ -40,6 +40,12 @@ int main(int argc, char** argv) {
                 "Continue from the checkpoint in the results folder; the results equal those of an "
                 "uninterrupted run");
 
+  run->add_option("--engine", run_options.engine,
+                  "serial (default), or petsc: the distributed engine, one process per MPI rank "
+                  "(mpirun -np N aquiledger run MODEL --engine petsc; needs a build with "
+                  "-DAQUILEDGER_WITH_PETSC=ON)")
+      ->check(CLI::IsMember({"serial", "petsc"}));
+
   VerifyOptions verify_options;
   auto* verify = app.add_subcommand(
       "verify", "Run the analytical benchmark suite on built-in grids and compare with the "
@@ -57,7 +63,7 @@ int main(int argc, char** argv) {
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
-    return app.exit(e) == 0 ? 0 : 64;
+    return app.exit(e) == 0 ? 0 : exit_usage;
   }
   if (*check) return run_check_command(check_options);
   if (*verify) return run_verify_command(verify_options);

@@ -20,63 +20,6 @@ using namespace aquiledger::stress_tests;
 
 namespace {
 
-/// A 10 x 12 switching aquifer starting confined (head 21 over a top at 20) with every kind
-/// of stress, in three periods: transient, steady, transient with more pumping and a
-/// negative recharge.
-Model every_stress_model() {
-  UniformAquifer a;
-  a.condition = Condition::switching;
-  a.top = 20.0;
-  a.bottom = 0.0;
-  a.k = 5.0;
-  a.specific_storage = 1e-5;
-  a.specific_yield = 0.15;
-  a.initial_head = 21.0;
-  Model m = uniform_model(10, 12, 100.0, 100.0, a);
-  const RectilinearGrid& g = m.grid;
-  auto column = [&](int col) {
-    std::vector<CellIndex> cells;
-    for (int r = 0; r < g.n_rows(); ++r) cells.push_back(g.cell(r, col));
-    return cells;
-  };
-  auto per_period = [](std::vector<double> values) {
-    std::vector<std::vector<double>> tables;
-    std::vector<std::uint32_t> map;
-    for (double v : values) {
-      map.push_back(static_cast<std::uint32_t>(tables.size()));
-      tables.push_back({v});
-    }
-    return PeriodValues(tables, map);
-  };
-  m.periods = {Period{"wet", 30.0, 10, 1.2, false}, Period{"steady", 10.0, 1, 1.0, true},
-               Period{"dry", 100.0, 12, 1.3, false}};
-  m.wells.push_back(Well{"supply", 550.0, 550.0, g.cell(4, 5), per_period({800.0, 800.0, 2500.0})});
-  m.wells.push_back(Well{"injector", 950.0, 250.0, g.cell(7, 9), PeriodValues(-100.0)});
-  m.fixed_heads.push_back(FixedHead{"lake", column(0), PeriodValues(18.0)});
-  m.recharges.push_back(Recharge{"rain", all_cells(m), per_period({5e-4, 5e-4, -2e-4})});
-  std::vector<CellIndex> river_cells = column(8);
-  m.rivers.push_back(River{"creek", river_cells, std::vector<double>(river_cells.size(), 100.0),
-                           PeriodValues(19.0), PeriodValues(18.5), PeriodValues(30.0)});
-  m.drains.push_back(Drain{"tiles",
-                           {g.cell(0, 3), g.cell(0, 4), g.cell(0, 5), g.cell(0, 6)},
-                           PeriodValues(20.5),
-                           PeriodValues(50.0)});
-  m.external_heads.push_back(
-      ExternalHead{"regional", column(11), PeriodValues(22.0), PeriodValues(20.0)});
-  std::vector<CellIndex> meadow;
-  for (int c = 1; c < 8; ++c) {
-    meadow.push_back(g.cell(8, c));
-    meadow.push_back(g.cell(9, c));
-  }
-  m.evapotranspiration.push_back(Evapotranspiration{"meadow", meadow, PeriodValues(21.0),
-                                                    PeriodValues(2e-3), PeriodValues(2.0)});
-  m.leakage = Leakage{"leakage", all_cells(m), PeriodValues(23.0), PeriodValues(1e-4)};
-  // Compressibility route: the elastic storage splits into skeleton and water shares.
-  m.aquifer.compressibility = Compressibility{};
-  m.aquifer.skeleton_share.assign(static_cast<std::size_t>(g.n_cells()), 0.6);
-  return m;
-}
-
 struct Totals {
   double in = 0.0;   ///< L3/T
   double out = 0.0;  ///< L3/T

@@ -11,27 +11,7 @@
 
 using namespace aquiledger;
 
-namespace {
-
-/// 5 x 5 water-table aquifer, 2 m saturated, a well in the centre pumping more than the
-/// aquifer can deliver, then recharge.
-Model drying_model() {
-  test::AquiferSpec a;
-  a.condition = Condition::water_table;
-  a.top = 10.0;
-  a.bottom = 0.0;
-  a.k = 0.5;
-  a.specific_yield = 0.1;
-  a.initial_head = 2.0;
-  Model m = test::make_model(std::vector<double>(5, 10.0), std::vector<double>(5, 10.0), a);
-  test::add_period(m, 20.0, 20, 1.1);
-  test::add_period(m, 40.0, 20, 1.1);
-  test::add_well(m, 2, 2, {20.0, 0.0});
-  test::add_recharge(m, {0.0, 0.01});
-  return m;
-}
-
-}  // namespace
+using test::drying_model;
 
 TEST_CASE("a cell pumped dry wets again under recharge", "[time_control]") {
   const Model m = drying_model();
@@ -117,7 +97,7 @@ TEST_CASE("linear = auto picks by symmetry and size", "[linear]") {
   CHECK(choose_linear_solver(LinearChoice::automatic, false, 1000).solver->name() == "umfpack");
   CHECK(
       choose_linear_solver(LinearChoice::automatic, false, umfpack_auto_limit + 1).solver->name() ==
-      "bicgstab (Cholesky of the symmetric part)");
+      "bicgstab");
   CHECK(choose_linear_solver(LinearChoice::pcg, false, 10).solver->name() == "bicgstab");
 }
 

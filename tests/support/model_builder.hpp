@@ -106,4 +106,22 @@ inline std::vector<CellIndex> column_cells(const Model& m, int col) {
   return cells;
 }
 
+/// 5 x 5 water-table aquifer, 2 m saturated, a well in the centre pumping more than the
+/// aquifer can deliver, then recharge.
+inline Model drying_model() {
+  AquiferSpec a;
+  a.condition = Condition::water_table;
+  a.top = 10.0;
+  a.bottom = 0.0;
+  a.k = 0.5;
+  a.specific_yield = 0.1;
+  a.initial_head = 2.0;
+  Model m = make_model(std::vector<double>(5, 10.0), std::vector<double>(5, 10.0), a);
+  add_period(m, 20.0, 20, 1.1);
+  add_period(m, 40.0, 20, 1.1);
+  add_well(m, 2, 2, {20.0, 0.0});
+  add_recharge(m, {0.0, 0.01});
+  return m;
+}
+
 }  // namespace aquiledger::test

@@ -1,0 +1,40 @@
+// Compiled only with -DAQUILEDGER_WITH_PETSC=ON.
+#include "io/cli/distributed_run.hpp"
+
+#include "solver/distributed/petsc_engine.hpp"
+
+namespace aquiledger {
+
+namespace {
+
+class PetscRunEngine final : public RunEngine {
+ public:
+  PetscRunEngine() : runtime_(nullptr, nullptr) {}
+  bool root() const override { return runtime_.rank() == 0; }
+  const char* name() const override { return "petsc"; }
+  std::string unsupported(const Model& model) const override {
+    if (runtime_.n_ranks() <= model.grid.n_rows()) return {};
+    return "the distributed engine gives each rank at least one grid row: " +
+           std::to_string(runtime_.n_ranks()) + " ranks for " +
+           std::to_string(model.grid.n_rows()) + " rows";
+  }
+  void make_recorder(const Model& model, const std::filesystem::path& folder,
+                     std::optional<ResultRecorder>& recorder) override {
+    engine_ = std::make_unique<DistributedEngine>(model);
+    recorder.emplace(model, folder, engine_->part(), runtime_.reduction());
+  }
+  RunResult run(const Model&, ResultRecorder& recorder, const SimulationOptions&) override {
+    return engine_->run(recorder);
+  }
+  bool any(bool flag) override { return runtime_.reduction().any(flag); }
+
+ private:
+  PetscRuntime runtime_;
+  std::unique_ptr<DistributedEngine> engine_;  // destroyed before the runtime
+};
+
+}  // namespace
+
+std::unique_ptr<RunEngine> make_distributed_engine() { return std::make_unique<PetscRunEngine>(); }
+
+}  // namespace aquiledger

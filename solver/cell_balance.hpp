@@ -1,0 +1,55 @@
+#pragma once
+// The mass balance of one unknown cell and its row of -dR/dh. Both engines evaluate rows
+// through this function: the serial one (flow_system.cpp) and the distributed one
+// (solver/distributed/), so there is one copy of the discrete physics.
+#include <cmath>
+
+#include "solver/face_conductance.hpp"
+#include "solver/storage_function.hpp"
+
+namespace aquiledger {
+
+struct CellRowInput {
+  double head = 0.0;       ///< L
+  ValueSlope thickness;    ///< L and -, saturated thickness at head (unused when confined)
+  double stress_q = 0.0;   ///< L3/T into the cell from every stress
+  double stress_dq = 0.0;  ///< L2/T, its head derivative
+  const CellStorage* storage = nullptr;  ///< null for a steady step (no storage term)
+  double head_old = 0.0;                 ///< L, start of the step
+  double area = 0.0;                     ///< L2
+  double inv_dt = 0.0;                   ///< 1/T
+};
+
+struct CellRow {
+  double residual = 0.0;      ///< L3/T: face flows + stresses + storage release rate
+  double diagonal = 0.0;      ///< L2/T: dR/dh of the cell itself
+  double budget_terms = 0.0;  ///< L3/T: |stresses| + |storage release|
+};
+
+/// faces(visit) calls visit(k, factor, hj, bj) for each active neighbour k in the order W, E,
+/// N, S (factor: see Face::factor; hj its head; bj its saturated thickness when not confined);
+/// off(k, value) receives the entry -dR/dhj of that neighbour. The sum of |face flows| is
+/// added to face_sum as the faces come, so that a caller's running sum keeps its order.
+template <bool Confined, class Faces, class OffDiagonal>
+inline CellRow cell_row(const CellRowInput& in, Faces&& faces, OffDiagonal&& off,
+                        double& face_sum) {
+  CellRow row{in.stress_q, in.stress_dq, std::abs(in.stress_q)};
+  faces([&](int k, double factor, double hj, ValueSlope bj) {
+    const FaceFlow f = Confined ? linear_face_flow(factor, in.head, hj)
+                                : upstream_face_flow(factor, in.head, in.thickness, hj, bj);
+    row.residual += f.q;
+    face_sum += std::abs(f.q);
+    row.diagonal += f.dq_dhi;
+    off(k, -f.dq_dhj);
+  });
+  if (in.storage != nullptr) {
+    const double release =
+        -in.area * stored_water_change(*in.storage, in.head_old, in.head).total() * in.inv_dt;
+    row.residual += release;
+    row.diagonal -= in.area * stored_water_slope(*in.storage, in.head) * in.inv_dt;
+    row.budget_terms += std::abs(release);
+  }
+  return row;
+}
+
+}  // namespace aquiledger

@@ -1,0 +1,468 @@
+#include "solver/distributed/petsc_engine.hpp"
+
+#include <mpi.h>
+#include <omp.h>
+#include <petscdmda.h>
+#include <petscksp.h>
+
+#include <algorithm>
+#include <climits>
+#include <cmath>
+#include <stdexcept>
+#include <string>
+#include <vector>
+
+#include "solver/cell_balance.hpp"
+#include "solver/face_table.hpp"
+#include "solver/flow_system.hpp"
+#include "solver/linear_solver.hpp"
+#include "solver/newton_iteration.hpp"
+#include "solver/storage_function.hpp"
+#include "solver/stress_flows.hpp"
+#include "solver/system_layout.hpp"
+#include "solver/time_loop.hpp"
+
+namespace aquiledger {
+
+namespace {
+
+std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
+
+/// PETSc reports errors by code; an engine that cannot set up or solve throws.
+void check(PetscErrorCode code, const char* what) {
+  if (code != 0) throw std::runtime_error(std::string("PETSc failed: ") + what);
+}
+
+constexpr int max_neighbours = 4;
+
+struct Neighbour {
+  CellIndex cell;
+  double factor = 0.0;   ///< see Face::factor
+  bool unknown = false;  ///< the neighbour is an unknown (not fixed): a matrix entry
+};
+
+}  // namespace
+
+struct DistributedEngine::Impl {
+  const Model& model;
+  SystemLayout layout;
+  MPI_Comm comm = PETSC_COMM_WORLD;
+  DM da = nullptr;
+  Mat matrix = nullptr;  ///< -dR/dh; identity rows for inactive and fixed cells
+  KSP ksp = nullptr;
+  Vec head = nullptr;        ///< Newton iterate, owned cells (global vector)
+  Vec head_local = nullptr;  ///< the same with ghost rows
+  Vec residual = nullptr, update = nullptr, base = nullptr;
+  GridPart part;
+  bool confined = true;
+
+  // Per owned cell (index cell - first_owned).
+  std::vector<Neighbour> neighbours;  ///< max_neighbours per owned cell
+  std::vector<CellStorage> storage;
+  std::vector<double> stress_q, stress_dq;
+  std::vector<std::uint8_t> parallel_recharge;
+  std::vector<double> last_values;  ///< matrix row values of the last assembly (reuse test)
+  bool values_changed = true;
+  // Per held cell.
+  std::vector<ValueSlope> thickness;
+  std::vector<CellIndex> fixed_owned;  ///< fixed cells this rank owns
+
+  // The step being solved.
+  std::size_t period = 0;
+  bool steady = true;
+  double dt = 1.0;
+  std::vector<double> head_old;  ///< held cells
+  double throughflow = 0.0, rounding_floor = 0.0, residual_sum = 0.0;
+
+  // Counters.
+  long linear_total = 0;
+  long setups = 0, reuses = 0;
+
+  explicit Impl(const Model& m) : model(m), layout(make_system_layout(m)) {
+    const RectilinearGrid& g = m.grid;
+    confined = m.aquifer.condition == Condition::confined;
+    // Bands of whole rows (one process across x): PETSc's ordering is then the raster order,
+    // and a band's cells are one run of grid cells.
+    check(DMDACreate2d(comm, DM_BOUNDARY_NONE, DM_BOUNDARY_NONE, DMDA_STENCIL_STAR, g.n_cols(),
+                       g.n_rows(), 1, PETSC_DECIDE, 1, 1, nullptr, nullptr, &da),
+          "DMDACreate2d (more ranks than grid rows?)");
+    check(DMSetFromOptions(da), "DMSetFromOptions");
+    check(DMSetUp(da), "DMSetUp");
+    PetscInt xs, ys, xm, ym, gxs, gys, gxm, gym;
+    check(DMDAGetCorners(da, &xs, &ys, nullptr, &xm, &ym, nullptr), "DMDAGetCorners");
+    check(DMDAGetGhostCorners(da, &gxs, &gys, nullptr, &gxm, &gym, nullptr), "DMDAGetGhostCorners");
+    if (xs != 0 || xm != g.n_cols() || gxm != g.n_cols())
+      throw std::runtime_error("the distributed engine needs bands of whole rows");
+    part.n_cols = g.n_cols();
+    part.owned = {static_cast<int>(ys), static_cast<int>(ym)};
+    part.window = {static_cast<int>(gys), static_cast<int>(gym)};
+
+    check(DMCreateGlobalVector(da, &head), "DMCreateGlobalVector");
+    check(DMCreateLocalVector(da, &head_local), "DMCreateLocalVector");
+    check(VecDuplicate(head, &residual), "VecDuplicate");
+    check(VecDuplicate(head, &update), "VecDuplicate");
+    check(VecDuplicate(head, &base), "VecDuplicate");
+    check(VecSet(update, 0.0), "VecSet");
+    check(DMCreateMatrix(da, &matrix), "DMCreateMatrix");
+    check(MatSetOption(matrix, MAT_NEW_NONZERO_ALLOCATION_ERR, PETSC_TRUE), "MatSetOption");
+
+    const std::size_t n_owned = part.n_owned();
+    const auto first = static_cast<std::size_t>(part.first_owned());
+    neighbours.assign(n_owned * max_neighbours, Neighbour{});
+    storage.resize(n_owned);
+    for (std::size_t k = 0; k < n_owned; ++k) {
+      const CellIndex c{static_cast<std::int32_t>(first + k)};
+      if (layout.unknown_of_cell[at(c)] < 0) {
+        if (g.is_active(c) && layout.fixed[at(c)]) fixed_owned.push_back(c);
+        continue;
+      }
+      storage[k] = cell_storage(m, c);
+      int slot = 0;
+      for_each_active_neighbour(m, c, [&](CellIndex nb, double factor) {
+        neighbours[k * max_neighbours + slot++] = {nb, factor, layout.unknown_of_cell[at(nb)] >= 0};
+      });
+    }
+    stress_q.assign(n_owned, 0.0);
+    stress_dq.assign(n_owned, 0.0);
+    parallel_recharge = recharges_with_distinct_cells(m);
+    if (!confined) thickness.resize(part.n_held());
+    last_values.assign(n_owned * (max_neighbours + 1), std::nan(""));
+
+    check(KSPCreate(comm, &ksp), "KSPCreate");
+    // Confined: symmetric positive definite, CG. Otherwise upstream weighting makes the matrix
+    // non-symmetric: GMRES, right-preconditioned so that the test is on the true residual.
+    const bool symmetric = confined;
+    check(KSPSetType(ksp, symmetric ? KSPCG : KSPGMRES), "KSPSetType");
+    if (symmetric) {
+      check(KSPSetNormType(ksp, KSP_NORM_UNPRECONDITIONED), "KSPSetNormType");
+      check(MatSetOption(matrix, MAT_SPD, PETSC_TRUE), "MatSetOption SPD");
+    } else {
+      check(KSPSetPCSide(ksp, PC_RIGHT), "KSPSetPCSide");
+      check(KSPGMRESSetRestart(ksp, 100), "KSPGMRESSetRestart");
+    }
+    check(KSPSetTolerances(ksp, iterative_tolerance, 1e-300, PETSC_DEFAULT, 5000),
+          "KSPSetTolerances");
+    // Each Newton update starts from zero: the last update is no guess for the next one
+    // (whose right-hand side is many orders smaller), and the test stays relative to it.
+    check(KSPSetInitialGuessNonzero(ksp, PETSC_FALSE), "KSPSetInitialGuessNonzero");
+    PC pc;
+    check(KSPGetPC(ksp, &pc), "KSPGetPC");
+    check(PCSetType(pc, PCGAMG), "PCSetType");
+    check(KSPSetFromOptions(ksp), "KSPSetFromOptions");
+  }
+
+  ~Impl() {
+    KSPDestroy(&ksp);
+    MatDestroy(&matrix);
+    VecDestroy(&base);
+    VecDestroy(&update);
+    VecDestroy(&residual);
+    VecDestroy(&head_local);
+    VecDestroy(&head);
+    DMDestroy(&da);
+  }
+
+  std::string solver_name() const {
+    KSPType type;
+    PC pc;
+    PCType pc_type;
+    KSPGetType(ksp, &type);
+    KSPGetPC(ksp, &pc);
+    PCGetType(pc, &pc_type);
+    int size = 1;
+    MPI_Comm_size(comm, &size);
+    return std::string("PETSc ") + type + " + " + pc_type + " (" + std::to_string(size) +
+           (size == 1 ? " rank)" : " ranks)");
+  }
+
+  /// The held heads of the current iterate (ghost rows updated).
+  void update_ghosts() {
+    check(DMGlobalToLocalBegin(da, head, INSERT_VALUES, head_local), "DMGlobalToLocal");
+    check(DMGlobalToLocalEnd(da, head, INSERT_VALUES, head_local), "DMGlobalToLocal");
+  }
+
+  /// Copies the owned cells of a held window into the iterate.
+  void set_iterate(const std::vector<double>& held) {
+    PetscScalar* x;
+    check(VecGetArray(head, &x), "VecGetArray");
+    const std::size_t offset = static_cast<std::size_t>(part.first_owned() - part.first_held());
+    std::copy_n(held.begin() + static_cast<std::ptrdiff_t>(offset), part.n_owned(), x);
+    check(VecRestoreArray(head, &x), "VecRestoreArray");
+    update_ghosts();
+  }
+
+  /// The held heads of the current iterate.
+  void get_iterate(std::vector<double>& held) {
+    const PetscScalar* x;
+    check(VecGetArrayRead(head_local, &x), "VecGetArrayRead");
+    held.assign(x, x + part.n_held());
+    check(VecRestoreArrayRead(head_local, &x), "VecRestoreArrayRead");
+  }
+
+  template <bool Confined>
+  void assemble_rows(CellValues h, double& abs_sum, double& face_sum, double& sum) {
+    const std::size_t n_owned = part.n_owned();
+    const auto first = static_cast<std::size_t>(part.first_owned());
+    const bool transient = !steady;
+    const double inv_dt = transient ? 1.0 / dt : 0.0;
+    const CellValues old(head_old, part.first_held());
+    PetscScalar* r;
+    check(VecGetArray(residual, &r), "VecGetArray");
+    bool changed = false;
+    for (std::size_t k = 0; k < n_owned; ++k) {
+      const std::size_t i = first + k;
+      const auto row = static_cast<PetscInt>(i);
+      PetscInt cols[max_neighbours + 1];
+      PetscScalar vals[max_neighbours + 1];
+      int n = 0;
+      if (layout.unknown_of_cell[i] < 0) {
+        // Inactive and fixed cells: identity rows, never updated.
+        r[k] = 0.0;
+        cols[n] = row;
+        vals[n++] = 1.0;
+      } else {
+        const Neighbour* nbs = &neighbours[k * max_neighbours];
+        CellRowInput in;
+        in.head = h[i];
+        if constexpr (!Confined)
+          in.thickness = thickness[i - static_cast<std::size_t>(part.first_held())];
+        in.stress_q = stress_q[k];
+        in.stress_dq = stress_dq[k];
+        if (transient) {
+          in.storage = &storage[k];
+          in.head_old = old[i];
+          in.area = layout.area[i];
+          in.inv_dt = inv_dt;
+        }
+        auto faces = [&](auto&& visit) {
+          for (int s = 0; s < max_neighbours; ++s) {
+            const Neighbour& nb = nbs[s];
+            if (!nb.cell.valid()) break;
+            const std::size_t j = at(nb.cell);
+            if constexpr (Confined)
+              visit(s, nb.factor, h[j], ValueSlope{});
+            else
+              visit(s, nb.factor, h[j], thickness[j - static_cast<std::size_t>(part.first_held())]);
+          }
+        };
+        auto off = [&](int s, double value) {
+          if (!nbs[s].unknown) return;
+          cols[n] = static_cast<PetscInt>(nbs[s].cell.value);
+          vals[n++] = value;
+        };
+        const CellRow cr = cell_row<Confined>(in, faces, off, face_sum);
+        cols[n] = row;
+        vals[n++] = -cr.diagonal;
+        r[k] = cr.residual;
+        abs_sum += cr.budget_terms;
+        sum += cr.residual;
+      }
+      double* last = &last_values[k * (max_neighbours + 1)];
+      for (int s = 0; s < n; ++s)
+        if (last[s] != vals[s]) changed = true, last[s] = vals[s];
+      check(MatSetValues(matrix, 1, &row, n, cols, vals, INSERT_VALUES), "MatSetValues");
+    }
+    check(VecRestoreArray(residual, &r), "VecRestoreArray");
+    check(MatAssemblyBegin(matrix, MAT_FINAL_ASSEMBLY), "MatAssemblyBegin");
+    check(MatAssemblyEnd(matrix, MAT_FINAL_ASSEMBLY), "MatAssemblyEnd");
+    int any = changed ? 1 : 0;
+    MPI_Allreduce(MPI_IN_PLACE, &any, 1, MPI_INT, MPI_LOR, comm);
+    values_changed = any != 0;
+  }
+
+  /// Residual, matrix and budget sums at the current iterate.
+  void assemble() {
+    update_ghosts();
+    const PetscScalar* x;
+    check(VecGetArrayRead(head_local, &x), "VecGetArrayRead");
+    const CellValues h(std::span<const double>(x, part.n_held()), part.first_held());
+    std::fill(stress_q.begin(), stress_q.end(), 0.0);
+    std::fill(stress_dq.begin(), stress_dq.end(), 0.0);
+    add_stress_flows(model, layout, period, part, h,
+                     CellWindow<double>(stress_q, part.first_owned()),
+                     CellWindow<double>(stress_dq, part.first_owned()), parallel_recharge);
+    if (!confined) {
+      const auto first = static_cast<std::size_t>(part.first_held());
+      for (std::size_t k = 0; k < thickness.size(); ++k) {
+        const CellIndex c{static_cast<std::int32_t>(first + k)};
+        if (model.grid.is_active(c)) thickness[k] = saturated_thickness(model, layout, c, h[at(c)]);
+      }
+    }
+    double sums[3] = {0.0, 0.0, 0.0};  // budget terms, face flows, residuals
+    if (confined)
+      assemble_rows<true>(h, sums[0], sums[1], sums[2]);
+    else
+      assemble_rows<false>(h, sums[0], sums[1], sums[2]);
+    // Fixed heads enter the budget as the net flow of each fixed cell to its neighbours.
+    for (CellIndex c : fixed_owned) sums[0] += std::abs(fixed_cell_net_flow(model, layout, c, h));
+    check(VecRestoreArrayRead(head_local, &x), "VecRestoreArrayRead");
+    MPI_Allreduce(MPI_IN_PLACE, sums, 3, MPI_DOUBLE, MPI_SUM, comm);
+    throughflow = 0.5 * sums[0];
+    rounding_floor = FlowSystem::rounding_factor * (sums[0] + sums[1]);
+    residual_sum = sums[2];
+  }
+
+  ResidualNorms norms() const {
+    const PetscScalar* r;
+    VecGetArrayRead(residual, &r);
+    double sum_sq = 0.0;
+    struct {
+      double value;
+      int cell;
+    } largest{-1.0, INT_MAX};
+    const std::size_t n_owned = part.n_owned();
+    for (std::size_t k = 0; k < n_owned; ++k) {
+      const std::size_t i = static_cast<std::size_t>(part.first_owned()) + k;
+      if (layout.unknown_of_cell[i] < 0) continue;
+      const double a = std::abs(r[k]);
+      sum_sq += a * a;
+      // Ties go to the lowest cell, as in the serial scan.
+      if (a > largest.value) largest = {a, static_cast<int>(i)};
+    }
+    VecRestoreArrayRead(residual, &r);
+    MPI_Allreduce(MPI_IN_PLACE, &sum_sq, 1, MPI_DOUBLE, MPI_SUM, comm);
+    MPI_Allreduce(MPI_IN_PLACE, &largest, 1, MPI_DOUBLE_INT, MPI_MAXLOC, comm);
+    const bool any = largest.value >= 0.0;
+    return {std::max(largest.value, 0.0), std::sqrt(sum_sq), any ? largest.cell : -1};
+  }
+
+  bool solve_linear(int& iterations) {
+    // A matrix equal to the last one keeps its multigrid hierarchy (as the serial direct
+    // solver keeps its factorisation).
+    const bool reuse = !values_changed && setups > 0;
+    check(KSPSetReusePreconditioner(ksp, reuse ? PETSC_TRUE : PETSC_FALSE),
+          "KSPSetReusePreconditioner");
+    check(KSPSetOperators(ksp, matrix, matrix), "KSPSetOperators");
+    reuse ? ++reuses : ++setups;
+    if (KSPSolve(ksp, residual, update) != 0) return false;
+    KSPConvergedReason reason;
+    PetscInt its;
+    KSPGetConvergedReason(ksp, &reason);
+    KSPGetIterationNumber(ksp, &its);
+    iterations = static_cast<int>(its);
+    linear_total += its;
+    return reason > 0;
+  }
+
+  void save_base() { check(VecCopy(head, base), "VecCopy"); }
+
+  double apply(double step) {
+    check(VecWAXPY(head, step, update, base), "VecWAXPY");
+    PetscReal largest;
+    check(VecNorm(update, NORM_INFINITY, &largest), "VecNorm");
+    return std::abs(step) * largest;
+  }
+};
+
+namespace {
+
+/// The Newton problem of newton_iteration.hpp over the engine's vectors.
+class DistributedProblem {
+ public:
+  explicit DistributedProblem(DistributedEngine::Impl& e) : e_(e) {}
+  void assemble() { e_.assemble(); }
+  ResidualNorms norms() const { return e_.norms(); }
+  double throughflow() const { return e_.throughflow; }
+  double rounding_floor() const { return e_.rounding_floor; }
+  double residual_sum() const { return e_.residual_sum; }
+  bool solve_linear(int& iterations) { return e_.solve_linear(iterations); }
+  void save_base() { e_.save_base(); }
+  double apply(double step) { return e_.apply(step); }
+  CellIndex cell_of(int worst) const { return CellIndex{worst}; }
+
+ private:
+  DistributedEngine::Impl& e_;
+};
+
+/// The time loop's stepper (time_loop.hpp): heads of the held rows.
+class DistributedStepper {
+ public:
+  DistributedStepper(DistributedEngine::Impl& e, const NewtonSettings& settings,
+                     SimulationObserver& observer, std::vector<double>& head)
+      : e_(e), settings_(settings), observer_(observer), head_(head), trial_(head) {}
+
+  void apply_fixed_heads(std::size_t period) {
+    aquiledger::apply_fixed_heads(e_.model, period, CellWindow<double>(head_, e_.part.first_held()),
+                                  e_.part);
+  }
+  NewtonResult try_step(std::size_t period, bool steady, double dt) {
+    e_.head_old = head_;
+    e_.period = period;
+    e_.steady = steady;
+    e_.dt = dt;
+    e_.set_iterate(head_);
+    DistributedProblem problem(e_);
+    const NewtonResult nr = newton_iterate(problem, settings_);
+    e_.update_ghosts();
+    e_.get_iterate(trial_);
+    return nr;
+  }
+  void accept(const StepInfo& info) {
+    std::swap(head_, trial_);
+    observer_.step_done(info, e_.head_old, head_);
+  }
+  void period_done(std::size_t period) { observer_.period_done(period); }
+  void checkpoint(std::size_t, int, double, const RunResult&) {}
+  RunResult finish(RunResult r) const {
+    r.linear_iterations = e_.linear_total;
+    r.factorizations = e_.setups;
+    r.factorization_reuses = e_.reuses;
+    return r;
+  }
+
+ private:
+  DistributedEngine::Impl& e_;
+  const NewtonSettings& settings_;
+  SimulationObserver& observer_;
+  std::vector<double>& head_;
+  std::vector<double> trial_;
+};
+
+}  // namespace
+
+DistributedEngine::DistributedEngine(const Model& model) : impl_(std::make_unique<Impl>(model)) {}
+DistributedEngine::~DistributedEngine() = default;
+
+const GridPart& DistributedEngine::part() const { return impl_->part; }
+
+RunResult DistributedEngine::run(SimulationObserver& observer) {
+  Impl& e = *impl_;
+  const Model& model = e.model;
+  // One thread per rank unless asked: ranks already share the cores.
+  omp_set_num_threads(model.solver.threads > 0 ? model.solver.threads : 1);
+  RunResult result;
+  result.linear_solver = e.solver_name();
+  result.linear_reason = "distributed engine: Krylov solver with algebraic multigrid";
+  const NewtonSettings settings{model.solver.head_tolerance, model.solver.flow_tolerance,
+                                model.solver.max_iterations};
+  std::vector<double> head(e.part.n_held(), std::nan(""));
+  const CellWindow<double> window(head, e.part.first_held());
+  DistributedStepper stepper(e, settings, observer, head);
+  if (model.initial.steady) {
+    steady_guess(model, e.layout, window, e.part);
+    aquiledger::apply_fixed_heads(model, 0, window, e.part);
+    e.head_old = head;
+    e.period = 0;
+    e.steady = true;
+    e.dt = 1.0;
+    e.set_iterate(head);
+    DistributedProblem problem(e);
+    const NewtonResult nr = newton_iterate(problem, settings);
+    result.newton_iterations += nr.iterations;
+    if (!nr.converged)
+      return stepper.finish(
+          mark_failed(result, 0, 0, 0.0,
+                      "initial steady state: " + describe_failure(model, 0, 0, 0.0, 0.0, 0, nr)));
+    e.update_ghosts();
+    e.get_iterate(head);
+  } else {
+    const auto first = static_cast<std::size_t>(e.part.first_held());
+    for (std::size_t k = 0; k < head.size(); ++k)
+      if (model.grid.is_active(CellIndex{static_cast<std::int32_t>(first + k)}))
+        head[k] = model.initial.head[first + k];
+  }
+  observer.initial_state(head);
+  return run_periods(model, stepper, result, 0, 0, 0);
+}
+
+}  // namespace aquiledger

@@ -1,0 +1,51 @@
+#pragma once
+// The distributed engine: the same model, the same kernels and the same Newton and time
+// control as the serial engine (run_simulation), on PETSc's distributed structured arrays
+// over MPI. The grid is split into bands of whole rows, one per rank, each holding one ghost
+// row on either side (a star stencil of width 1); each rank assembles its own rows of the
+// residual and of -dR/dh, and PETSc's Krylov solvers with algebraic multigrid solve for the
+// Newton update. No PETSc or MPI type appears here: callers need neither header.
+#include <memory>
+
+#include "mesh/grid_part.hpp"
+#include "solver/result_reduction.hpp"
+#include "solver/simulation.hpp"
+
+namespace aquiledger {
+
+/// PETSc (and MPI) for the life of the object; one per process, before any engine.
+class PetscRuntime {
+ public:
+  PetscRuntime(int* argc, char*** argv);
+  ~PetscRuntime();
+  PetscRuntime(const PetscRuntime&) = delete;
+  PetscRuntime& operator=(const PetscRuntime&) = delete;
+  int rank() const { return rank_; }
+  int n_ranks() const { return n_ranks_; }
+  /// Sums and flags over every rank of the run.
+  ResultReduction& reduction() { return *reduction_; }
+
+ private:
+  int rank_ = 0;
+  int n_ranks_ = 1;
+  std::unique_ptr<ResultReduction> reduction_;
+};
+
+class DistributedEngine {
+ public:
+  /// Collective: every rank passes the same model. Splits the grid and builds the matrix.
+  explicit DistributedEngine(const Model& model);
+  ~DistributedEngine();
+  /// The rows this rank owns and holds; the observer's heads are over part().window.
+  const GridPart& part() const;
+  /// Collective: runs every period as run_simulation does (same convergence test, cutbacks
+  /// and failure reports); the observer gets each rank's window of heads.
+  RunResult run(SimulationObserver& observer);
+
+  struct Impl;  ///< PETSc's objects and the rank's tables (petsc_engine.cpp)
+
+ private:
+  std::unique_ptr<Impl> impl_;
+};
+
+}  // namespace aquiledger

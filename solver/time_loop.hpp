@@ -1,0 +1,119 @@
+#pragma once
+// The periods, steps and step cutbacks of a run, written once over any "stepper": the serial
+// engine's (simulation.cpp) and the distributed engine's (solver/distributed/). A stepper
+// holds the current heads and provides
+//   void apply_fixed_heads(std::size_t period);
+//   NewtonResult try_step(std::size_t period, bool steady, double dt);  from the current heads
+//   void accept(const StepInfo& info);       the tried heads become current; observers told
+//   void period_done(std::size_t period);
+//   void checkpoint(std::size_t period, int step_in_period, double time, const RunResult& so_far);
+//   RunResult finish(RunResult r) const;     adds the linear solver's counters
+#include <algorithm>
+#include <cmath>
+#include <string>
+#include <vector>
+
+#include "mesh/grid_part.hpp"
+#include "solver/newton_solver.hpp"
+#include "solver/simulation.hpp"
+#include "solver/system_layout.hpp"
+#include "solver/time_steps.hpp"
+
+namespace aquiledger {
+
+/// One line naming period, step, time, step length, cutbacks and the worst cell.
+std::string describe_failure(const Model& model, std::size_t period, int step, double time,
+                             double dt, int cutbacks, const NewtonResult& nr);
+
+/// Fixed cells held in head take their period's head (the last feature wins where two overlap).
+void apply_fixed_heads(const Model& model, std::size_t period, CellWindow<double> head,
+                       const GridPart& part);
+
+/// Start of the Newton iteration for an initial steady state at the cells the part holds:
+/// the mean fixed head where there is one, else the aquifer top; never below mid-thickness,
+/// so that every face conducts. NaN at inactive cells.
+void steady_guess(const Model& model, const SystemLayout& layout, CellWindow<double> head,
+                  const GridPart& part);
+
+/// Marks a run failed at the given place.
+inline RunResult& mark_failed(RunResult& r, std::size_t period, int step, double time,
+                              std::string text) {
+  r.converged = false;
+  r.failed_period = period;
+  r.failed_step = step;
+  r.failed_time = time;
+  r.failure = std::move(text);
+  return r;
+}
+
+/// Runs the periods from first_period (after first_step planned steps of it) to the end.
+template <class Stepper>
+RunResult run_periods(const Model& model, Stepper& stepper, RunResult result,
+                      std::size_t first_period, int first_step, int checkpoint_every) {
+  int since_checkpoint = 0;
+  auto take_checkpoint = [&](std::size_t period, int step_in_period, double time) {
+    if (checkpoint_every <= 0 || since_checkpoint < checkpoint_every) return;
+    since_checkpoint = 0;
+    stepper.checkpoint(period, step_in_period, time, stepper.finish(result));
+  };
+  // Period start times are summed from time 0 on every run, resumed or not, so that the
+  // step end times are bit for bit those of the uninterrupted run.
+  double time = 0.0;
+  for (std::size_t p = 0; p < first_period && p < model.periods.size(); ++p)
+    time = step_end_times(model.periods[p], time).back();
+  for (std::size_t p = first_period; p < model.periods.size(); ++p) {
+    const Period& period = model.periods[p];
+    stepper.apply_fixed_heads(p);
+    const std::vector<double> ends = step_end_times(period, time);
+    std::size_t k = 0;
+    if (p == first_period && first_step > 0) {
+      k = std::min(static_cast<std::size_t>(first_step), ends.size());
+      time = ends[k - 1];
+    }
+    for (; k < ends.size(); ++k) {
+      const int step = static_cast<int>(k) + 1;
+      const double target = ends[k];
+      double dt_try = target - time;
+      int cutbacks = 0;
+      while (time < target) {
+        // Land exactly on the planned step end rather than leave a sliver.
+        const bool last_piece = time + dt_try >= target - 1e-12 * std::max(1.0, std::abs(target));
+        const double dt = last_piece ? target - time : dt_try;
+        const NewtonResult nr = stepper.try_step(p, period.steady, dt);
+        result.newton_iterations += nr.iterations;
+        if (!nr.converged) {
+          // A steady step has no length to cut.
+          if (period.steady || cutbacks >= model.solver.max_cutbacks)
+            return stepper.finish(
+                mark_failed(result, p, step, time + dt,
+                            describe_failure(model, p, step, time + dt, dt, cutbacks, nr)));
+          dt_try = 0.5 * dt;
+          ++cutbacks;
+          ++result.cutbacks;
+          continue;
+        }
+        time = last_piece ? target : time + dt;
+        ++result.steps;
+        ++since_checkpoint;
+        StepInfo info;
+        info.period = p;
+        info.step = step;
+        info.time = time;
+        info.dt = dt;
+        info.steady = period.steady;
+        info.newton_iterations = nr.iterations;
+        info.linear_iterations = nr.linear_iterations;
+        info.cutbacks = cutbacks;
+        info.max_head_change = nr.max_head_change;
+        info.max_imbalance = nr.max_imbalance;
+        stepper.accept(info);
+      }
+      if (k + 1 < ends.size()) take_checkpoint(p, step, time);
+    }
+    stepper.period_done(p);
+    take_checkpoint(p + 1, 0, time);
+  }
+  return stepper.finish(result);
+}
+
+}  // namespace aquiledger
