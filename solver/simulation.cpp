@@ -20,24 +20,6 @@ namespace {
 
 std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
 
-/// Newton's start for a step of length dt: the heads extrapolated linearly along the last
-/// step (length dt_prev, from head_prev to head), by at most max_extrapolation of it; the
-/// heads themselves when there is no last step (dt_prev = 0). Fixed heads do not move (they
-/// are equal at both ends). Only the start changes, never the answer; it saves Newton
-/// iterations in smooth transients (docs/performance.md).
-void start_newton(double dt_prev, double dt, std::span<const double> head,
-                  std::span<const double> head_prev, std::span<double> trial) {
-  constexpr double max_extrapolation = 2.0;  // our choice: beyond, the trend is a guess
-  if (!(dt_prev > 0.0)) {
-    std::copy(head.begin(), head.end(), trial.begin());
-    return;
-  }
-  const double ratio = std::min(dt / dt_prev, max_extrapolation);
-  const auto n = static_cast<std::ptrdiff_t>(head.size());
-#pragma omp parallel for schedule(static)
-  for (std::ptrdiff_t i = 0; i < n; ++i) trial[i] = head[i] + ratio * (head[i] - head_prev[i]);
-}
-
 /// The serial stepper: heads per grid cell, one FlowSystem and one linear solver.
 class SerialStepper {
  public:
@@ -62,7 +44,8 @@ class SerialStepper {
   NewtonResult try_step(std::size_t period, bool steady, double dt) {
     std::copy(head_.begin(), head_.end(), head_old_.begin());
     // New stresses (another period) or a steady step: the last step says nothing.
-    const bool extrapolate = !steady && period == period_prev_ && dt_prev_ > 0.0;
+    const bool extrapolate =
+        extrapolate_newton_start && !steady && period == period_prev_ && dt_prev_ > 0.0;
     start_newton(extrapolate ? dt_prev_ : 0.0, dt, head_, head_prev_, trial_);
     system_.set_step(period, steady, dt, head_old_);
     return solve_newton(system_, linear_, settings_, trial_, work_);
@@ -121,6 +104,24 @@ class SerialStepper {
 };
 
 }  // namespace
+
+/// Newton's start for a step of length dt: the heads extrapolated linearly along the last
+/// step (length dt_prev, from head_prev to head), by at most max_extrapolation of it; the
+/// heads themselves when there is no last step (dt_prev = 0). Fixed heads do not move (they
+/// are equal at both ends). Only the start changes, never the answer; it saves Newton
+/// iterations in smooth transients (docs/performance.md).
+void start_newton(double dt_prev, double dt, std::span<const double> head,
+                  std::span<const double> head_prev, std::span<double> trial) {
+  constexpr double max_extrapolation = 2.0;  // our choice: beyond, the trend is a guess
+  if (!(dt_prev > 0.0)) {
+    std::copy(head.begin(), head.end(), trial.begin());
+    return;
+  }
+  const double ratio = std::min(dt / dt_prev, max_extrapolation);
+  const auto n = static_cast<std::ptrdiff_t>(head.size());
+#pragma omp parallel for schedule(static)
+  for (std::ptrdiff_t i = 0; i < n; ++i) trial[i] = head[i] + ratio * (head[i] - head_prev[i]);
+}
 
 void apply_fixed_heads(const Model& model, std::size_t period, CellWindow<double> head,
                        const GridPart& part) {

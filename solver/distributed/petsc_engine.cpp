@@ -390,7 +390,11 @@ class DistributedStepper {
     e_.period = period;
     e_.steady = steady;
     e_.dt = dt;
-    e_.set_iterate(head_);
+    // The same extrapolated start as the serial engine (simulation.cpp), cell by cell.
+    const bool extrapolate =
+        extrapolate_newton_start && !steady && period == period_prev_ && dt_prev_ > 0.0;
+    start_newton(extrapolate ? dt_prev_ : 0.0, dt, head_, head_prev_, trial_);
+    e_.set_iterate(trial_);
     DistributedProblem problem(e_);
     const NewtonResult nr = newton_iterate(problem, settings_);
     e_.update_ghosts();
@@ -400,6 +404,9 @@ class DistributedStepper {
   void accept(const StepInfo& info) {
     std::swap(head_, trial_);
     observer_.step_done(info, e_.head_old, head_);
+    head_prev_ = e_.head_old;
+    dt_prev_ = info.dt;
+    period_prev_ = info.period;
   }
   void period_done(std::size_t period) { observer_.period_done(period); }
   void checkpoint(std::size_t, int, double, const RunResult&) {}
@@ -416,6 +423,9 @@ class DistributedStepper {
   SimulationObserver& observer_;
   std::vector<double>& head_;
   std::vector<double> trial_;
+  std::vector<double> head_prev_ = std::vector<double>(trial_.size(), std::nan(""));
+  double dt_prev_ = 0.0;
+  std::size_t period_prev_ = static_cast<std::size_t>(-1);
 };
 
 }  // namespace
