@@ -55,17 +55,7 @@ void ResultRecorder::reduce(std::vector<double>& values) {
 }
 
 void ResultRecorder::reduce(WaterBudget& b) {
-  if (reduction_ == nullptr) return;
-  std::vector<double> v;
-  v.reserve(2 * (b.components.size() + b.features.size()) + 1);
-  for (const InOut& c : b.components) v.insert(v.end(), {c.in, c.out});
-  for (const InOut& f : b.features) v.insert(v.end(), {f.in, f.out});
-  v.push_back(b.well_shortfall);
-  reduction_->sum(v);
-  std::size_t k = 0;
-  for (InOut& c : b.components) c = {v[k], v[k + 1]}, k += 2;
-  for (InOut& f : b.features) f = {v[k], v[k + 1]}, k += 2;
-  b.well_shortfall = v[k];
+  if (reduction_ != nullptr) sum_across_processes(b, *reduction_);
 }
 
 void ResultRecorder::initial_state(std::span<const double> head) {

@@ -6,6 +6,7 @@
 #include <vector>
 
 #include "solver/model.hpp"
+#include "solver/result_reduction.hpp"
 #include "solver/stress_flows.hpp"
 #include "solver/system_layout.hpp"
 
@@ -53,5 +54,9 @@ WaterBudget step_budget(const Model& model, const SystemLayout& layout, std::siz
 WaterBudget step_budget(const Model& model, const SystemLayout& layout, const GridPart& part,
                         std::size_t period, bool steady, double dt, CellValues head_old,
                         CellValues head_new);
+
+/// Replaces every rate of b (components, features, well shortfall) by its sum over the
+/// processes of a distributed run.
+void sum_across_processes(WaterBudget& b, ResultReduction& reduction);
 
 }  // namespace aquiledger

@@ -44,17 +44,7 @@ class Collector : public SimulationObserver {
     WaterBudget b = step_budget(model_, layout_, part_, info.period, info.steady, info.dt,
                                 CellValues(head_old, part_.first_held()),
                                 CellValues(head_new, part_.first_held()));
-    if (reduction_ != nullptr) {
-      std::vector<double> v;
-      for (const InOut& c : b.components) v.insert(v.end(), {c.in, c.out});
-      for (const InOut& f : b.features) v.insert(v.end(), {f.in, f.out});
-      v.push_back(b.well_shortfall);
-      reduction_->sum(v);
-      std::size_t k = 0;
-      for (InOut& c : b.components) c = {v[k], v[k + 1]}, k += 2;
-      for (InOut& f : b.features) f = {v[k], v[k + 1]}, k += 2;
-      b.well_shortfall = v[k];
-    }
+    if (reduction_ != nullptr) sum_across_processes(b, *reduction_);
     budgets.push_back(b);
     steps.push_back(info);
     heads.emplace_back(head_new.begin(), head_new.end());
