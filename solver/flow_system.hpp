@@ -30,6 +30,8 @@ class FlowSystem {
   /// -dR/dh (L2/T); symmetric positive definite for a confined model.
   const SparseMatrix& matrix() const { return matrix_; }
   const Eigen::VectorXd& residual() const { return residual_; }
+  /// The matrix's diagonal entry of unknown u.
+  double diagonal(int u) const { return matrix_.valuePtr()[diagonal_[static_cast<std::size_t>(u)]]; }
   /// L3/T: half the sum of the absolute values of every budget term (the step's (in+out)/2).
   double throughflow() const { return throughflow_; }
   /// L3/T: the imbalance rounding alone can leave, from the sizes of all terms including the

@@ -75,14 +75,11 @@ class SerialProblem {
   /// update estimated cell by cell, max |R_i| / A_ii (L); infinity otherwise.
   double affine_update_estimate() const {
     if (!linear_.exact() || !linear_.factorized(system_.matrix())) return INFINITY;
-    const SparseMatrix& a = system_.matrix();
     const Eigen::VectorXd& r = system_.residual();
     double largest = 0.0;
 #pragma omp parallel for schedule(static) reduction(max : largest)
     for (int u = 0; u < n_; ++u) {
-      double diag = 0.0;
-      for (int p = a.outerIndexPtr()[u]; p < a.outerIndexPtr()[u + 1]; ++p)
-        if (a.innerIndexPtr()[p] == u) diag = a.valuePtr()[p];
+      const double diag = system_.diagonal(u);
       largest = std::max(largest, diag > 0.0 ? std::abs(r[u]) / diag : INFINITY);
     }
     return largest;
