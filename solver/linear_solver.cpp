@@ -47,6 +47,7 @@ class IterativeSolver final : public LinearSolver {
     return solver_.info() == Eigen::Success && x.allFinite();
   }
   std::string name() const override { return name_; }
+  void set_relative_tolerance(double t) override { solver_.setTolerance(t); }
 
  private:
   std::string name_;

@@ -22,6 +22,9 @@ class LinearSolver {
   /// True when solve() returns the solution to rounding (a direct factorisation), so that for
   /// an unchanged matrix a second Newton update could only be rounding noise.
   virtual bool exact() const { return false; }
+  /// Relative residual |b - a x| / |b| the next solves of an iterative solver stop at
+  /// (Newton's forcing term); direct solvers ignore it. Starts at iterative_tolerance.
+  virtual void set_relative_tolerance(double) {}
   /// True when a's values are those the last solve factorised (nothing is recorded).
   bool factorized(const SparseMatrix& a) const;
 

@@ -50,6 +50,13 @@ class SerialProblem {
   double throughflow() const { return system_.throughflow(); }
   double rounding_floor() const { return system_.rounding_floor(); }
   double residual_sum() const { return system_.residual_sum(); }
+  /// Newton's forcing term for an iterative linear solver (ignored by direct ones). A confined
+  /// system is linear: one tight solve beats a sequence of loose restarts, so it keeps
+  /// iterative_tolerance.
+  void set_linear_tolerance(double relative) {
+    linear_.set_relative_tolerance(system_.symmetric() ? iterative_tolerance : relative);
+  }
+  int n_unknowns() const { return n_; }
   bool solve_linear(int& iterations) {
     if (!linear_.solve(system_.matrix(), system_.residual(), work_.update)) return false;
     iterations = linear_.last_iterations();

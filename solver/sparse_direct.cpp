@@ -134,6 +134,7 @@ class PicardKrylov final : public LinearSolver {
     return false;
   }
   std::string name() const override { return "bicgstab (Cholesky of the fixed-thickness matrix)"; }
+  void set_relative_tolerance(double t) override { krylov_.setTolerance(t); }
 
  private:
   /// Iterations beyond which the factorisation is renewed before the next solve; a solve
