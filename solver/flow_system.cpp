@@ -34,7 +34,7 @@ FlowSystem::FlowSystem(const Model& model, const SystemLayout& layout)
     pattern.emplace_back(u, u, 0.0);
     int k = 0;
     for_each_active_neighbour(model, c, [&](CellIndex nb, double factor) {
-      neighbours_[static_cast<std::size_t>(u * max_neighbours + k++)] = {nb, factor, -1};
+      neighbours_[static_cast<std::size_t>(u * max_neighbours + k++)] = {factor, nb, -1};
       const int v = layout.unknown_of_cell[at(nb)];
       if (v >= 0) pattern.emplace_back(u, v, 0.0);
     });
@@ -63,10 +63,10 @@ FlowSystem::FlowSystem(const Model& model, const SystemLayout& layout)
     fixed_cells_.push_back(c);
     int k = 0;
     for_each_active_neighbour(model, c, [&](CellIndex nb, double factor) {
-      if (!layout.fixed[at(nb)]) fixed_neighbours_.push_back({nb, factor, k});
+      if (!layout.fixed[at(nb)]) fixed_neighbours_.push_back({factor, nb, k});
       ++k;
     });
-    fixed_neighbours_.push_back({CellIndex{}, 0.0, -1});  // end of this cell's list
+    fixed_neighbours_.push_back({0.0, CellIndex{}, -1});  // end of this cell's list
   }
 }
 

@@ -49,11 +49,12 @@ class FlowSystem {
 
  private:
   static constexpr int max_neighbours = 4;
-  struct Neighbour {
-    CellIndex cell;
+  struct Neighbour {  // 16 bytes: the double first, so no padding
     double factor = 0.0;  ///< see Face::factor
+    CellIndex cell;
     int value = -1;  ///< position of the (row, neighbour) entry in the matrix values; -1 if fixed
   };
+  static_assert(sizeof(Neighbour) == 16);
 
   const Model& model_;
   const SystemLayout& layout_;
