@@ -55,7 +55,14 @@ class LinearSolver {
 /// Relative residual the iterative solvers reach; tight so that budgets still close.
 inline constexpr double iterative_tolerance = 1.0e-12;
 /// Size limits of the direct solvers under linear = "auto" (memory and fill-in on 2D grids).
-inline constexpr int cholmod_auto_limit = 5'000'000;
+/// Under linear = "auto" a symmetric system is factorised (CHOLMOD) when about this many
+/// bytes per unknown, for the whole run, fit in three quarters of the memory available; PCG
+/// otherwise. Measured peaks of the confined basin: 978 bytes per cell at 1e6 cells, 997 at
+/// 4e6 (docs/performance.md), growing slowly with the factor's log n.
+inline constexpr double cholmod_bytes_per_unknown = 1200.0;
+/// Bytes this process may still use: the smaller of the system's available memory
+/// (MemAvailable) and what its control group leaves; 0 when neither can be read.
+double available_memory_bytes();
 inline constexpr int umfpack_auto_limit = 300'000;
 
 std::unique_ptr<LinearSolver> make_cholmod_solver();
@@ -74,7 +81,11 @@ struct LinearSolverChoice {
   std::string reason;  ///< one line: why this backend
 };
 
-/// The backend for a system of n_unknowns equations, symmetric or not, as the user asked.
+/// The backend for a system of n_unknowns equations, symmetric or not, as the user asked,
+/// on a machine with memory_bytes available (see available_memory_bytes).
+LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int n_unknowns,
+                                        double memory_bytes);
+/// The same on this machine.
 LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int n_unknowns);
 
 }  // namespace aquiledger

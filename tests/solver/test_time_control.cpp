@@ -92,9 +92,15 @@ TEST_CASE("linear backends agree on the same system", "[linear]") {
 
 TEST_CASE("linear = auto picks by symmetry and size", "[linear]") {
   CHECK(choose_linear_solver(LinearChoice::automatic, true, 1000).solver->name() == "cholmod");
-  CHECK(
-      choose_linear_solver(LinearChoice::automatic, true, cholmod_auto_limit + 1).solver->name() ==
-      "pcg");
+  // A symmetric system is factorised while its factor fits in the memory available.
+  const double gib = 1024.0 * 1024.0 * 1024.0;
+  CHECK(choose_linear_solver(LinearChoice::automatic, true, 10'000'000, 20 * gib).solver->name() ==
+        "cholmod");
+  CHECK(choose_linear_solver(LinearChoice::automatic, true, 10'000'000, 8 * gib).solver->name() ==
+        "pcg");
+  CHECK(choose_linear_solver(LinearChoice::automatic, true, 100'000, 0.0).solver->name() ==
+        "cholmod");
+  CHECK(available_memory_bytes() > 0.0);  // Linux: /proc/meminfo
   CHECK(choose_linear_solver(LinearChoice::automatic, false, 1000).solver->name() == "umfpack");
   CHECK(
       choose_linear_solver(LinearChoice::automatic, false, umfpack_auto_limit + 1).solver->name() ==
