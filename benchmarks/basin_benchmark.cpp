@@ -20,6 +20,7 @@
 
 #include "benchmarks/basin_generator.hpp"
 #include "benchmarks/bench_support.hpp"
+#include "io/memory_guard.hpp"
 #include "solver/simulation.hpp"
 
 using namespace aquiledger;
@@ -77,7 +78,9 @@ CaseResult run_case(const bench::BasinSpec& spec, const CaseOptions& opt) {
   model.solver.threads = opt.threads;
   model.solver.linear = opt.linear;
   TimingObserver obs(model);
-  const RunResult r = run_simulation(model, obs);
+  SimulationOptions sim;
+  sim.memory_bytes = usable_memory_bytes().value_or(0.0);  // as the run command does
+  const RunResult r = run_simulation(model, obs, sim);
   out.cells = model.grid.n_cells();
   out.steps = static_cast<double>(obs.step_seconds.size());
   if (!obs.step_seconds.empty()) out.first_step_seconds = obs.step_seconds.front();

@@ -3,8 +3,6 @@
 #include <Eigen/IterativeLinearSolvers>
 #include <algorithm>
 #include <cstdio>
-#include <cstdlib>
-#include <fstream>
 
 namespace aquiledger {
 
@@ -74,20 +72,6 @@ std::unique_ptr<LinearSolver> make_bicgstab_solver() {
 
 namespace {
 
-/// The first number in a text file, or -1 (the word "max" of an unlimited control group too).
-double first_number(const char* path, const char* key) {
-  std::ifstream in(path);
-  std::string word;
-  while (in >> word) {
-    if (key != nullptr && word != key) continue;
-    if (key != nullptr && !(in >> word)) return -1.0;
-    char* end = nullptr;
-    const double v = std::strtod(word.c_str(), &end);
-    return end != word.c_str() ? v : -1.0;
-  }
-  return -1.0;
-}
-
 std::string gib(double bytes) {
   char text[32];
   std::snprintf(text, sizeof text, "%.1f GiB", bytes / (1024.0 * 1024.0 * 1024.0));
@@ -95,22 +79,6 @@ std::string gib(double bytes) {
 }
 
 }  // namespace
-
-double available_memory_bytes() {
-  double available = first_number("/proc/meminfo", "MemAvailable:");
-  if (available > 0.0) available *= 1024.0;  // kB
-  const double limit = first_number("/sys/fs/cgroup/memory.max", nullptr);
-  const double used = first_number("/sys/fs/cgroup/memory.current", nullptr);
-  if (limit > 0.0 && used >= 0.0) {
-    const double left = std::max(limit - used, 0.0);
-    available = available > 0.0 ? std::min(available, left) : left;
-  }
-  return std::max(available, 0.0);
-}
-
-LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int n) {
-  return choose_linear_solver(choice, symmetric, n, available_memory_bytes());
-}
 
 LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int n,
                                         double memory_bytes) {
@@ -130,13 +98,18 @@ LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int
   }
   if (symmetric) {
     const double needed = cholmod_bytes_per_unknown * n;
-    // Memory unknown (0): small systems are factorised, as any machine holds them.
-    const double usable = memory_bytes > 0.0 ? 0.75 * memory_bytes : 0.75 * 2.0e9;
-    const std::string fit = "needs about " + gib(needed) + " of " + gib(memory_bytes) + " available";
-    if (needed <= usable)
-      return {make_cholmod_solver(), "auto: symmetric (confined), " + size + ": Cholesky (" + fit + ")"};
-    return {make_pcg_solver(), "auto: symmetric (confined), " + size +
-                                   ": pcg (a Cholesky factor " + fit + ")"};
+    if (!(memory_bytes > 0.0)) {
+      if (n <= cholmod_auto_limit)
+        return {make_cholmod_solver(), "auto: symmetric (confined), " + size + ": Cholesky"};
+      return {make_pcg_solver(),
+              "auto: symmetric (confined), " + size + " (over the direct limit): pcg"};
+    }
+    const std::string fit = "needs about " + gib(needed) + " of " + gib(memory_bytes);
+    if (needed <= 0.75 * memory_bytes)
+      return {make_cholmod_solver(),
+              "auto: symmetric (confined), " + size + ": Cholesky (" + fit + ")"};
+    return {make_pcg_solver(),
+            "auto: symmetric (confined), " + size + ": pcg (a Cholesky factor " + fit + ")"};
   }
   if (n <= umfpack_auto_limit)
     return {make_umfpack_solver(), "auto: non-symmetric (upstream thickness), " + size + ": LU"};

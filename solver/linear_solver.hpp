@@ -56,13 +56,12 @@ class LinearSolver {
 inline constexpr double iterative_tolerance = 1.0e-12;
 /// Size limits of the direct solvers under linear = "auto" (memory and fill-in on 2D grids).
 /// Under linear = "auto" a symmetric system is factorised (CHOLMOD) when about this many
-/// bytes per unknown, for the whole run, fit in three quarters of the memory available; PCG
-/// otherwise. Measured peaks of the confined basin: 978 bytes per cell at 1e6 cells, 997 at
-/// 4e6 (docs/performance.md), growing slowly with the factor's log n.
+/// bytes per unknown, for the whole run, fit in three quarters of the memory the caller says
+/// the run may use; PCG otherwise. Measured peaks of the confined basin: 978 bytes per cell at
+/// 1e6 cells, 997 at 4e6, 991 at 1e7 (docs/performance.md).
 inline constexpr double cholmod_bytes_per_unknown = 1200.0;
-/// Bytes this process may still use: the smaller of the system's available memory
-/// (MemAvailable) and what its control group leaves; 0 when neither can be read.
-double available_memory_bytes();
+/// Without a memory figure, symmetric systems up to this size are factorised.
+inline constexpr int cholmod_auto_limit = 5'000'000;
 inline constexpr int umfpack_auto_limit = 300'000;
 
 std::unique_ptr<LinearSolver> make_cholmod_solver();
@@ -82,10 +81,8 @@ struct LinearSolverChoice {
 };
 
 /// The backend for a system of n_unknowns equations, symmetric or not, as the user asked,
-/// on a machine with memory_bytes available (see available_memory_bytes).
+/// for a run that may use memory_bytes (0: not known).
 LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int n_unknowns,
-                                        double memory_bytes);
-/// The same on this machine.
-LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int n_unknowns);
+                                        double memory_bytes = 0.0);
 
 }  // namespace aquiledger

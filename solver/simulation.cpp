@@ -179,7 +179,8 @@ RunResult run_simulation(const Model& model, SimulationObserver& observer,
   const SystemLayout layout = make_system_layout(model);
   FlowSystem system(model, layout);
   LinearSolverChoice choice =
-      choose_linear_solver(model.solver.linear, system.symmetric(), system.n_unknowns());
+      choose_linear_solver(model.solver.linear, system.symmetric(), system.n_unknowns(),
+                           options.memory_bytes);
   LinearSolver& linear = *choice.solver;
   const StartState* start = options.start ? &*options.start : nullptr;
   RunResult result;

@@ -81,6 +81,8 @@ struct SimulationOptions {
   /// last call, at the end of a planned step (after period_done at a period's end).
   int checkpoint_every = 0;
   std::function<void(const StartState&)> checkpoint;
+  /// Bytes the run may use, for linear = "auto" (whether a factorisation fits); 0: not known.
+  double memory_bytes = 0.0;
 };
 
 /// As above, optionally starting from a saved state and taking checkpoints. Counters in the

@@ -12,6 +12,7 @@
 #include "io/atomic_file.hpp"
 #include "io/check_report.hpp"
 #include "io/checkpoint.hpp"
+#include "io/memory_guard.hpp"
 #include "io/cli/distributed_run.hpp"
 #include "io/model_reader.hpp"
 #include "io/result_recorder.hpp"
@@ -164,6 +165,7 @@ int run_run_command(const RunOptions& options) {
       });
     }
     SimulationOptions sim;
+    sim.memory_bytes = usable_memory_bytes().value_or(0.0);
     if (resume_from) {
       if (resume_from->threads != model.solver.threads)
         std::fprintf(stderr, "warning: the checkpointed run used --threads %d, this one %d: results may "
