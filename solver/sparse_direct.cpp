@@ -37,11 +37,47 @@ void use_metis(cholmod_common& c) {
   c.postorder = 1;
 }
 
+/// CHOLMOD's supernodal Cholesky whose solves keep their result and workspace between calls
+/// (cholmod_solve2): a repeated solve allocates nothing, where cholmod_solve allocates and
+/// frees three dense blocks each time (benchmarks/step_allocations).
+class KeptCholesky : public Eigen::CholmodSupernodalLLT<SparseMatrix, Eigen::Lower> {
+ public:
+  KeptCholesky() = default;
+  KeptCholesky(const KeptCholesky&) = delete;
+  KeptCholesky& operator=(const KeptCholesky&) = delete;
+  ~KeptCholesky() {
+    cholmod_free_dense(&x_, &cholmod());
+    cholmod_free_dense(&y_, &cholmod());
+    cholmod_free_dense(&e_, &cholmod());
+  }
+  /// x = A^-1 b; false when CHOLMOD fails (x unchanged).
+  bool solve_into(const Eigen::VectorXd& b, Eigen::VectorXd& x) {
+    if (m_cholmodFactor == nullptr || info() != Eigen::Success) return false;
+    cholmod_dense rhs{};
+    rhs.nrow = rhs.d = static_cast<std::size_t>(b.size());
+    rhs.ncol = 1;
+    rhs.nzmax = rhs.nrow;
+    rhs.x = const_cast<double*>(b.data());
+    rhs.xtype = CHOLMOD_REAL;
+    rhs.dtype = CHOLMOD_DOUBLE;
+    if (!cholmod_solve2(CHOLMOD_A, m_cholmodFactor, &rhs, nullptr, &x_, nullptr, &y_, &e_,
+                        &cholmod()))
+      return false;
+    x = Eigen::Map<const Eigen::VectorXd>(static_cast<const double*>(x_->x), b.size());
+    return true;
+  }
+
+ private:
+  cholmod_dense* x_ = nullptr;
+  cholmod_dense* y_ = nullptr;
+  cholmod_dense* e_ = nullptr;
+};
+
 template <class Factorization>
 void configure(Factorization&, CholmodOrdering) {}
 
 template <>
-void configure(Eigen::CholmodSupernodalLLT<SparseMatrix, Eigen::Lower>& f, CholmodOrdering ordering) {
+void configure(KeptCholesky& f, CholmodOrdering ordering) {
   cholmod_common& c = f.cholmod();
   if (ordering == CholmodOrdering::automatic) return;
   use_metis(c);
@@ -52,7 +88,7 @@ template <class Factorization>
 void configure_for_size(Factorization&, CholmodOrdering, Eigen::Index) {}
 
 template <>
-void configure_for_size(Eigen::CholmodSupernodalLLT<SparseMatrix, Eigen::Lower>& f,
+void configure_for_size(KeptCholesky& f,
                         CholmodOrdering ordering, Eigen::Index n) {
   if (ordering == CholmodOrdering::automatic && n >= metis_ordering_from) use_metis(f.cholmod());
 }
@@ -76,9 +112,13 @@ class DirectSolver final : public LinearSolver {
     if (changed) factorization_.factorize(a);
     count_factorization(!changed);
     if (factorization_.info() != Eigen::Success) return false;
-    x = factorization_.solve(b);
     count_iterations(0);
-    return factorization_.info() == Eigen::Success && x.allFinite();
+    if constexpr (requires { factorization_.solve_into(b, x); }) {
+      return factorization_.solve_into(b, x) && x.allFinite();
+    } else {
+      x = factorization_.solve(b);
+      return factorization_.info() == Eigen::Success && x.allFinite();
+    }
   }
   std::string name() const override { return name_; }
   bool exact() const override { return true; }
@@ -94,7 +134,7 @@ class DirectSolver final : public LinearSolver {
 /// (compute() does nothing: the owner decides when to refactorise).
 class HeldCholesky {
  public:
-  using Factor = Eigen::CholmodSupernodalLLT<SparseMatrix, Eigen::Lower>;
+  using Factor = KeptCholesky;
   HeldCholesky() = default;
   void hold(const Factor* f) { factor_ = f; }
   template <class M> HeldCholesky& analyzePattern(const M&) { return *this; }
@@ -234,7 +274,7 @@ std::unique_ptr<LinearSolver> make_cholmod_solver(CholmodOrdering ordering) {
   const char* name = ordering == CholmodOrdering::metis ? "cholmod (METIS)"
                      : ordering == CholmodOrdering::amd ? "cholmod (AMD)"
                                                         : "cholmod";
-  return std::make_unique<DirectSolver<Eigen::CholmodSupernodalLLT<SparseMatrix, Eigen::Lower>>>(
+  return std::make_unique<DirectSolver<KeptCholesky>>(
       name, ordering);
 }
 
