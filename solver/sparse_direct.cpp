@@ -73,24 +73,17 @@ class KeptCholesky : public Eigen::CholmodSupernodalLLT<SparseMatrix, Eigen::Low
   cholmod_dense* e_ = nullptr;
 };
 
+/// The fill-reducing ordering of a factorisation of n unknowns, set before its analysis: the
+/// one asked for, or under `automatic` METIS from metis_ordering_from unknowns and CHOLMOD's
+/// own choice below. UMFPACK keeps its own.
 template <class Factorization>
-void configure(Factorization&, CholmodOrdering) {}
+void configure(Factorization&, CholmodOrdering, Eigen::Index) {}
 
 template <>
-void configure(KeptCholesky& f, CholmodOrdering ordering) {
-  cholmod_common& c = f.cholmod();
-  if (ordering == CholmodOrdering::automatic) return;
-  use_metis(c);
-  if (ordering == CholmodOrdering::amd) c.method[0].ordering = CHOLMOD_AMD;
-}
-
-template <class Factorization>
-void configure_for_size(Factorization&, CholmodOrdering, Eigen::Index) {}
-
-template <>
-void configure_for_size(KeptCholesky& f,
-                        CholmodOrdering ordering, Eigen::Index n) {
-  if (ordering == CholmodOrdering::automatic && n >= metis_ordering_from) use_metis(f.cholmod());
+void configure(KeptCholesky& f, CholmodOrdering ordering, Eigen::Index n) {
+  if (ordering == CholmodOrdering::automatic && n < metis_ordering_from) return;
+  use_metis(f.cholmod());
+  if (ordering == CholmodOrdering::amd) f.cholmod().method[0].ordering = CHOLMOD_AMD;
 }
 
 /// Symbolic analysis on the first call, numeric factorisation only when values changed.
@@ -98,13 +91,11 @@ template <class Factorization>
 class DirectSolver final : public LinearSolver {
  public:
   DirectSolver(std::string name, CholmodOrdering ordering)
-      : name_(std::move(name)), ordering_(ordering) {
-    configure(factorization_, ordering);
-  }
+      : name_(std::move(name)), ordering_(ordering) {}
   bool solve(const SparseMatrix& a, const Eigen::VectorXd& b, Eigen::VectorXd& x) override {
     set_blas_threads(1);
     if (!analysed_) {
-      configure_for_size(factorization_, ordering_, a.rows());
+      configure(factorization_, ordering_, a.rows());
       factorization_.analyzePattern(a);
       analysed_ = true;
     }
@@ -169,7 +160,7 @@ class PicardKrylov final : public LinearSolver {
     if (!analysed_) {
       mirror_ = transpose_positions(a);
       picard_ = a;
-      configure_for_size(factor_, CholmodOrdering::automatic, a.rows());
+      configure(factor_, CholmodOrdering::automatic, a.rows());
       factor_.analyzePattern(picard_);
       krylov_.setMaxIterations(max_iterations);
       analysed_ = true;
