@@ -191,6 +191,8 @@ TEST_CASE("BiCGSTAB with a Cholesky factor of the fixed-thickness matrix solves 
   REQUIRE(lu->solve(a, b, y));
   CHECK((a * x - b).norm() / b.norm() < 1e-11);
   CHECK((x - y).norm() / y.norm() < 1e-9);
+  // A preconditioner this close to the matrix converges in tens of iterations, not hundreds
+  // (common practice).
   CHECK(krylov->last_iterations() < 40);
   // A second solve with the same matrix reuses the factorisation.
   Eigen::VectorXd x2 = Eigen::VectorXd::Zero(n);
@@ -241,6 +243,8 @@ TEST_CASE("The fixed-thickness preconditioner holds where the symmetric part is 
   INFO("relative residual " << (a * x - b).norm() / b.norm() << " after " << krylov->last_iterations());
   CHECK((a * x - b).norm() / b.norm() < 1e-11);
   CHECK((x - y).norm() / y.norm() < 1e-9);
+  // A preconditioner this close to the matrix converges in tens of iterations, not hundreds
+  // (common practice).
   CHECK(krylov->last_iterations() < 40);
 }
 
