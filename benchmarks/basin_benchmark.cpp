@@ -4,6 +4,7 @@
 //
 //   basin_benchmark [--sizes 1e4,1e5,1e6,4e6] [--steps 30] [--variant both|confined|switching]
 //                   [--threads N] [--linear auto|direct|pcg|bicgstab] [--json FILE]
+//                   [--face-thickness mean|upstream]
 // Each case runs in its own child process (own peak memory); --steps is per period.
 #include <sys/resource.h>
 
@@ -70,6 +71,7 @@ double floor_bytes(double unknowns) { return unknowns * (5 * (8 + 4) + 4 + 2 * 8
 struct CaseOptions {
   int threads = 0;
   LinearChoice linear = LinearChoice::automatic;
+  FaceThickness face_thickness = FaceThickness::mean;
 };
 
 CaseResult run_case(const bench::BasinSpec& spec, const CaseOptions& opt) {
@@ -77,6 +79,7 @@ CaseResult run_case(const bench::BasinSpec& spec, const CaseOptions& opt) {
   Model model = bench::make_basin(spec);
   model.solver.threads = opt.threads;
   model.solver.linear = opt.linear;
+  model.solver.face_thickness = opt.face_thickness;
   TimingObserver obs(model);
   SimulationOptions sim;
   sim.memory_bytes = usable_memory_bytes().value_or(0.0);  // as the run command does
@@ -142,6 +145,8 @@ int main(int argc, char** argv) {
     else if (key == "--json") json_path = value;
     else if (key == "--threads") options.threads = std::stoi(value);
     else if (key == "--linear") options.linear = parse_linear(value);
+    else if (key == "--face-thickness")
+      options.face_thickness = value == "upstream" ? FaceThickness::upstream : FaceThickness::mean;
     else { std::fprintf(stderr, "unknown option %s\n", key.c_str()); return 64; }
   }
   if (argc % 2 == 0) { std::fprintf(stderr, "options come in pairs: --key value\n"); return 64; }

@@ -239,6 +239,9 @@ void settings_part(Report& r, const Model& m) {
   r.item("fields, budget", std::string(fields) + ", " + (m.output.budget ? "yes" : "no"));
   const char* linear[] = {"auto", "direct", "pcg", "bicgstab"};
   r.item("linear solver", linear[static_cast<int>(m.solver.linear)]);
+  if (m.aquifer.condition != Condition::confined)
+    r.item("face thickness",
+           m.solver.face_thickness == FaceThickness::upstream ? "upstream" : "mean");
   r.item("tolerances", "head " + g3(m.solver.head_tolerance) + " " + m.length_unit + ", flow " +
                            g3(m.solver.flow_tolerance));
   r.item("iterations, cutbacks",

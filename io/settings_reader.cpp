@@ -212,15 +212,17 @@ void read_solver(ReaderContext& ctx, const toml::table& root, Model& model) {
   const toml::table* t = optional_table(ctx, root, "solver");
   if (!t) return;
   const std::string path = "[solver]";
-  check_keys(
-      ctx, *t, path,
-      {"linear", "head_tolerance", "flow_tolerance", "max_iterations", "max_cutbacks", "threads"});
+  check_keys(ctx, *t, path,
+             {"linear", "head_tolerance", "flow_tolerance", "max_iterations", "max_cutbacks",
+              "threads", "face_thickness"});
   SolverSettings& s = model.solver;
   if (auto l = read_choice(ctx, *t, "linear", path, {"auto", "direct", "pcg", "bicgstab"}))
     s.linear = *l == "direct"     ? LinearChoice::direct
                : *l == "pcg"      ? LinearChoice::pcg
                : *l == "bicgstab" ? LinearChoice::bicgstab
                                   : LinearChoice::automatic;
+  if (auto f = read_choice(ctx, *t, "face_thickness", path, {"mean", "upstream"}))
+    s.face_thickness = *f == "upstream" ? FaceThickness::upstream : FaceThickness::mean;
   auto positive = [&](std::string_view key, double& into, const std::string& unit) {
     if (auto v = read_number(ctx, *t, key, path, false)) {
       if (*v > 0.0)

@@ -32,8 +32,8 @@ double theis_drawdown(double q, double transmissivity, double storativity, doubl
   return q / (4.0 * pi * transmissivity) * theis_well_function(u);
 }
 
-double papadopulos_drawdown(double q, double tx, double ty, double storativity, double x,
-                            double y, double t) {
+double papadopulos_drawdown(double q, double tx, double ty, double storativity, double x, double y,
+                            double t) {
   const double te = std::sqrt(tx * ty);
   const double u = storativity / (4.0 * t) * (x * x / tx + y * y / ty);
   return q / (4.0 * pi * te) * theis_well_function(u);
@@ -57,8 +57,23 @@ double dupuit_recharge_head(double h1, double h2, double length, double n, doubl
   return std::sqrt(h1 * h1 - (h1 * h1 - h2 * h2) * x / length + n / k * x * (length - x));
 }
 
-double glover_balmer_depletion_fraction(double distance, double transmissivity,
-                                        double storativity, double t) {
+double dupuit_two_zone_head(double h1, double h2, double length, double n, double k_west,
+                            double k_east, double interface, double x) {
+  const double a = interface;
+  const double q0 = (0.5 * (h1 * h1 - h2 * h2) - n * a * a / (2.0 * k_west) -
+                     n * (length * length - a * a) / (2.0 * k_east)) /
+                    (a / k_west + (length - a) / k_east);
+  auto west = [&](double s) { return h1 * h1 - 2.0 / k_west * (q0 * s + 0.5 * n * s * s); };
+  if (x <= a) return std::sqrt(west(x));
+  return std::sqrt(west(a) - 2.0 / k_east * (q0 * (x - a) + 0.5 * n * (x * x - a * a)));
+}
+
+double dupuit_thiem_head(double q, double k, double h_outer, double r_outer, double r) {
+  return std::sqrt(h_outer * h_outer - q / (pi * k) * std::log(r_outer / r));
+}
+
+double glover_balmer_depletion_fraction(double distance, double transmissivity, double storativity,
+                                        double t) {
   return complementary_error_function(
       std::sqrt(distance * distance * storativity / (4.0 * transmissivity * t)));
 }

@@ -14,17 +14,38 @@ struct CellRowInput {
   ValueSlope thickness;    ///< L and -, saturated thickness at head (unused when confined)
   double stress_q = 0.0;   ///< L3/T into the cell from every stress
   double stress_dq = 0.0;  ///< L2/T, its head derivative
-  const CellStorage* storage = nullptr;  ///< null for a steady step (no storage term)
-  double head_old = 0.0;                 ///< L, start of the step
-  double area = 0.0;                     ///< L2
-  double inv_dt = 0.0;                   ///< 1/T
+  const CellStorage* storage = nullptr;                ///< null for a steady step (no storage term)
+  double head_old = 0.0;                               ///< L, start of the step
+  double area = 0.0;                                   ///< L2
+  double inv_dt = 0.0;                                 ///< 1/T
+  FaceThickness face_thickness = FaceThickness::mean;  ///< unused when confined
 };
 
 struct CellRow {
   double residual = 0.0;      ///< L3/T: face flows + stresses + storage release rate
   double diagonal = 0.0;      ///< L2/T: dR/dh of the cell itself
   double budget_terms = 0.0;  ///< L3/T: |stresses| + |storage release|
+  double head_quantum = 0.0;  ///< L3/T: |diagonal| |head|, see rounding_floor
 };
+
+/// ~ 500 machine epsilons: the sum over a cell's terms and over all cells loses a few bits.
+inline constexpr double rounding_factor = 1.0e-13;
+
+/// Two machine epsilons (2^-51): the double nearest a head h lies within eps |h| of it.
+inline constexpr double head_quantum_factor = 0x1p-51;
+
+/// L3/T: the imbalance rounding alone can leave, so tolerances below it are not asked for.
+/// term_sum: sum of |stresses| and |storage release| (and fixed-head net flows); face_sum:
+/// sum of |face flows|; quantum_sum: sum over cells of |diagonal| |head| (CellRow). The
+/// first part is the rounding of evaluating the terms. The second is the quantisation of the
+/// heads themselves: at the double nearest the exact solution a cell's residual is still
+/// up to sum_j |J_ij| eps |h_j| <= 2 eps |J_ii| |h| (the Jacobian is diagonally dominant), a
+/// level no Newton update can go below. It decides only near an equilibrium, where every
+/// flow and storage change tends to zero while the heads stay finite (a strip that has
+/// filled to its canal's level, a basin at steady state in a transient period).
+inline double rounding_floor(double term_sum, double face_sum, double quantum_sum) {
+  return rounding_factor * (term_sum + face_sum) + head_quantum_factor * quantum_sum;
+}
 
 /// faces(visit) calls visit(k, factor, hj, bj) for each active neighbour k in the order W, E,
 /// N, S (factor: see Face::factor; hj its head; bj its saturated thickness when not confined);
@@ -35,8 +56,9 @@ inline CellRow cell_row(const CellRowInput& in, Faces&& faces, OffDiagonal&& off
                         double& face_sum) {
   CellRow row{in.stress_q, in.stress_dq, std::abs(in.stress_q)};
   faces([&](int k, double factor, double hj, ValueSlope bj) {
-    const FaceFlow f = Confined ? linear_face_flow(factor, in.head, hj)
-                                : upstream_face_flow(factor, in.head, in.thickness, hj, bj);
+    const FaceFlow f =
+        Confined ? linear_face_flow(factor, in.head, hj)
+                 : thickness_face_flow(in.face_thickness, factor, in.head, in.thickness, hj, bj);
     row.residual += f.q;
     face_sum += std::abs(f.q);
     row.diagonal += f.dq_dhi;
@@ -49,6 +71,7 @@ inline CellRow cell_row(const CellRowInput& in, Faces&& faces, OffDiagonal&& off
     row.diagonal -= in.area * stored_water_slope(*in.storage, in.head) * in.inv_dt;
     row.budget_terms += std::abs(release);
   }
+  row.head_quantum = std::abs(row.diagonal) * std::abs(in.head);
   return row;
 }
 

@@ -33,8 +33,9 @@ double face_factor(const Model& model, CellIndex i, CellIndex j, bool east_west)
 FaceFlow face_flow(const Model& model, const SystemLayout& layout, CellIndex i, CellIndex j,
                    double factor, double hi, double hj) {
   if (model.aquifer.condition == Condition::confined) return linear_face_flow(factor, hi, hj);
-  return upstream_face_flow(factor, hi, saturated_thickness(model, layout, i, hi), hj,
-                            saturated_thickness(model, layout, j, hj));
+  return thickness_face_flow(model.solver.face_thickness, factor, hi,
+                             saturated_thickness(model, layout, i, hi), hj,
+                             saturated_thickness(model, layout, j, hj));
 }
 
 /// Net flow (L3/T) from fixed cell c into its active non-fixed neighbours.

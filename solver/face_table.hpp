@@ -15,7 +15,7 @@ struct Face {
   CellIndex i;  ///< west or north cell
   CellIndex j;  ///< east or south cell
   /// Confined model: conductance (L2/T). Otherwise: conductance per unit saturated
-  /// thickness (L/T), multiplied by the upstream thickness.
+  /// thickness (L/T), multiplied by the face thickness (thickness_face_flow).
   double factor = 0.0;
 };
 

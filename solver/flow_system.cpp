@@ -84,17 +84,22 @@ void FlowSystem::assemble_cells(std::span<const double> head) {
   double* values = matrix_.valuePtr();
   double abs_sum = 0.0;
   double face_sum = 0.0;
+  double quantum_sum = 0.0;
   double sum = 0.0;
   const bool transient = !steady_;
   const double inv_dt = transient ? 1.0 / dt_ : 0.0;
-#pragma omp parallel for schedule(static) reduction(+ : abs_sum, sum, face_sum)
+  const FaceThickness face_thickness = model_.solver.face_thickness;
+#pragma omp parallel for schedule(static) reduction(+ : abs_sum, sum, face_sum, quantum_sum)
   for (int u = 0; u < n; ++u) {
     const CellIndex c = layout_.cell_of_unknown[static_cast<std::size_t>(u)];
     const std::size_t i = at(c);
     const Neighbour* nbs = &neighbours_[static_cast<std::size_t>(u * max_neighbours)];
     CellRowInput in;
     in.head = head[i];
-    if constexpr (!Confined) in.thickness = thickness_[i];
+    if constexpr (!Confined) {
+      in.thickness = thickness_[i];
+      in.face_thickness = face_thickness;
+    }
     in.stress_q = stress_q_[i];
     in.stress_dq = stress_dq_[i];
     if (transient) {
@@ -122,10 +127,12 @@ void FlowSystem::assemble_cells(std::span<const double> head) {
     values[diagonal_[static_cast<std::size_t>(u)]] = -row.diagonal;
     residual_[u] = row.residual;
     abs_sum += row.budget_terms;
+    quantum_sum += row.head_quantum;
     sum += row.residual;
   }
   abs_sum_ = abs_sum;
   face_sum_ = face_sum;
+  quantum_sum_ = quantum_sum;
   residual_sum_ = sum;
 }
 
@@ -141,8 +148,9 @@ void FlowSystem::assemble(std::span<const double> head) {
 #pragma omp parallel for schedule(static)
     for (std::ptrdiff_t i = 0; i < n_cells; ++i)
       if (model_.grid.is_active(CellIndex{static_cast<std::int32_t>(i)}))
-        thickness_[static_cast<std::size_t>(i)] = saturated_thickness(
-            model_, layout_, CellIndex{static_cast<std::int32_t>(i)}, head[static_cast<std::size_t>(i)]);
+        thickness_[static_cast<std::size_t>(i)] =
+            saturated_thickness(model_, layout_, CellIndex{static_cast<std::int32_t>(i)},
+                                head[static_cast<std::size_t>(i)]);
   }
   if (confined)
     assemble_cells<true>(head);
@@ -161,7 +169,7 @@ void FlowSystem::assemble(std::span<const double> head) {
     abs_sum += std::abs(net);
   }
   throughflow_ = 0.5 * abs_sum;
-  rounding_floor_ = rounding_factor * (abs_sum + face_sum_);
+  rounding_floor_ = aquiledger::rounding_floor(abs_sum, face_sum_, quantum_sum_);
 }
 
 }  // namespace aquiledger

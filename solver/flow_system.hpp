@@ -44,8 +44,6 @@ class FlowSystem {
   int n_unknowns() const { return layout_.n_unknowns(); }
   const SystemLayout& layout() const { return layout_; }
   const Model& model() const { return model_; }
-  /// ~ 500 machine epsilons: the sum over a cell's terms and over all cells loses a few bits.
-  static constexpr double rounding_factor = 1.0e-13;
 
  private:
   static constexpr int max_neighbours = 4;
@@ -66,7 +64,7 @@ class FlowSystem {
   std::vector<double> stress_q_, stress_dq_;  ///< per grid cell
   std::vector<std::uint8_t> parallel_recharge_;  ///< per recharge: cells distinct
   std::vector<ValueSlope> thickness_;  ///< L and -, per grid cell at the assembled heads
-  double abs_sum_ = 0.0, face_sum_ = 0.0;  ///< L3/T, partial sums of the cell loop
+  double abs_sum_ = 0.0, face_sum_ = 0.0, quantum_sum_ = 0.0;  ///< L3/T, sums of the cell loop
   /// The loop over unknowns: residual, matrix values, budget sums.
   template <bool Confined>
   void assemble_cells(std::span<const double> head);

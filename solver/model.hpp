@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "mesh/rectilinear_grid.hpp"
+#include "solver/face_conductance.hpp"
 #include "solver/period_values.hpp"
 
 namespace aquiledger {
@@ -139,6 +140,8 @@ struct SolverSettings {
   int max_iterations = 50;
   int max_cutbacks = 5;
   int threads = 0;  ///< 0 = all cores
+  /// Saturated thickness of faces between water-table or dewatered switching cells.
+  FaceThickness face_thickness = FaceThickness::mean;
 };
 
 /// Zone numbers of an aquifer property given as { zones, values }, kept for reports.

@@ -200,7 +200,8 @@ struct DistributedEngine::Impl {
   }
 
   template <bool Confined>
-  void assemble_rows(CellValues h, double& abs_sum, double& face_sum, double& sum) {
+  void assemble_rows(CellValues h, double& abs_sum, double& face_sum, double& quantum_sum,
+                     double& sum) {
     const std::size_t n_owned = part.n_owned();
     const auto first = static_cast<std::size_t>(part.first_owned());
     const bool transient = !steady;
@@ -224,8 +225,10 @@ struct DistributedEngine::Impl {
         const Neighbour* nbs = &neighbours[k * max_neighbours];
         CellRowInput in;
         in.head = h[i];
-        if constexpr (!Confined)
+        if constexpr (!Confined) {
           in.thickness = thickness[i - static_cast<std::size_t>(part.first_held())];
+          in.face_thickness = model.solver.face_thickness;
+        }
         in.stress_q = stress_q[k];
         in.stress_dq = stress_dq[k];
         if (transient) {
@@ -255,6 +258,7 @@ struct DistributedEngine::Impl {
         vals[n++] = -cr.diagonal;
         r[k] = cr.residual;
         abs_sum += cr.budget_terms;
+        quantum_sum += cr.head_quantum;
         sum += cr.residual;
       }
       double* last = &last_values[k * (max_neighbours + 1)];
@@ -288,18 +292,18 @@ struct DistributedEngine::Impl {
         if (model.grid.is_active(c)) thickness[k] = saturated_thickness(model, layout, c, h[at(c)]);
       }
     }
-    double sums[3] = {0.0, 0.0, 0.0};  // budget terms, face flows, residuals
+    double sums[4] = {0.0, 0.0, 0.0, 0.0};  // budget terms, face flows, head quanta, residuals
     if (confined)
-      assemble_rows<true>(h, sums[0], sums[1], sums[2]);
+      assemble_rows<true>(h, sums[0], sums[1], sums[2], sums[3]);
     else
-      assemble_rows<false>(h, sums[0], sums[1], sums[2]);
+      assemble_rows<false>(h, sums[0], sums[1], sums[2], sums[3]);
     // Fixed heads enter the budget as the net flow of each fixed cell to its neighbours.
     for (CellIndex c : fixed_owned) sums[0] += std::abs(fixed_cell_net_flow(model, layout, c, h));
     check(VecRestoreArrayRead(head_local, &x), "VecRestoreArrayRead");
-    MPI_Allreduce(MPI_IN_PLACE, sums, 3, MPI_DOUBLE, MPI_SUM, comm);
+    MPI_Allreduce(MPI_IN_PLACE, sums, 4, MPI_DOUBLE, MPI_SUM, comm);
     throughflow = 0.5 * sums[0];
-    rounding_floor = FlowSystem::rounding_factor * (sums[0] + sums[1]);
-    residual_sum = sums[2];
+    rounding_floor = aquiledger::rounding_floor(sums[0], sums[1], sums[2]);
+    residual_sum = sums[3];
   }
 
   ResidualNorms norms() const {

@@ -13,6 +13,7 @@
 #include <vector>
 
 #include "postproc/water_budget.hpp"
+#include "solver/cell_balance.hpp"
 #include "solver/distributed/petsc_engine.hpp"
 #include "solver/face_table.hpp"
 #include "solver/flow_system.hpp"
@@ -72,7 +73,7 @@ struct Comparison {
 };
 
 /// Relative agreement, except that a difference below the serial engine's own rounding floor
-/// for the step counts as none (FlowSystem::rounding_floor: rounding_factor times every
+/// for the step counts as none (rounding_floor in cell_balance.hpp: rounding_factor times every
 /// budget term and every face flow of every unknown, what rounding alone leaves): a column
 /// that is zero in one run and 1e-10 of a 1e3 throughflow in the other is rounding.
 void close(double a, double b, double floor, double& worst, double& worst_raw) {
@@ -124,8 +125,8 @@ Comparison compare_engines(const Model& model) {
         std::max(c.max_head_difference, head_difference(serial.heads[s], distributed.heads[s]));
     const WaterBudget& a = serial.budgets[s];
     const WaterBudget& b = distributed.budgets[s];
-    const double floor = FlowSystem::rounding_factor *
-                         (a.total_in() + a.total_out() + face_terms(model, serial.heads[s]));
+    const double floor =
+        rounding_factor * (a.total_in() + a.total_out() + face_terms(model, serial.heads[s]));
     double& worst = c.max_budget_relative;
     double& raw = c.max_budget_relative_raw;
     for (std::size_t k = 0; k < n_budget_components; ++k) {

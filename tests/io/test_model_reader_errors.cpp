@@ -384,6 +384,20 @@ TEST_CASE("bad 70: non-positive head tolerance", "[reader][errors]") {
                   {"value 0", "> 0 m"});
 }
 
+TEST_CASE("bad 70a: unknown face thickness scheme", "[reader][errors]") {
+  expect_rejected(base + "\n[solver]\nface_thickness = \"harmonic\"\n", "[solver].face_thickness",
+                  {"\"harmonic\"", "mean, upstream"});
+}
+TEST_CASE("face thickness: mean by default, upstream on request", "[reader][accept]") {
+  const auto plain = read(base);
+  REQUIRE(plain.model.has_value());
+  CHECK(plain.model->solver.face_thickness == aquiledger::FaceThickness::mean);
+  const auto upstream = read(base + "\n[solver]\nface_thickness = \"upstream\"\n");
+  INFO(all_messages(upstream));
+  REQUIRE(upstream.model.has_value());
+  CHECK(upstream.model->solver.face_thickness == aquiledger::FaceThickness::upstream);
+}
+
 // --- all errors together (STYLE.md habit 6) ---
 TEST_CASE("bad 71: every error of a file is reported in one read", "[reader][errors]") {
   std::string text = edit(edit(edit(base, "k = 5.0", "k = -5.0"), "steps = 2", "steps = 0"),

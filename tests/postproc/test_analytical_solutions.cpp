@@ -39,3 +39,37 @@ TEST_CASE("drawdown solutions reduce to each other where they must", "[analytica
   CHECK(dupuit_recharge_head(10.0, 6.0, 200.0, 0.002, 5.0, 200.0) == Approx(6.0));
   CHECK(dupuit_recharge_head(10.0, 6.0, 200.0, 0.0, 5.0, 100.0) == Approx(std::sqrt(68.0)));
 }
+
+TEST_CASE("two-zone Dupuit strip: ends, one-zone limit, continuity at the interface",
+          "[analytical]") {
+  // The closed form is derived in analytical_solutions.hpp from Dupuit's discharge law
+  // q = -k d(h^2 / 2)/dx (Dupuit, 1863; Forchheimer, 1886); check what the derivation imposes.
+  const double h1 = 20.0, h2 = 12.0, length = 1500.0, n = 2e-3, a = 750.0;
+  CHECK(dupuit_two_zone_head(h1, h2, length, n, 20.0, 5.0, a, 0.0) == Approx(h1));
+  CHECK(dupuit_two_zone_head(h1, h2, length, n, 20.0, 5.0, a, length) == Approx(h2));
+  for (double x : {100.0, 749.0, 1200.0})
+    CHECK(dupuit_two_zone_head(h1, h2, length, n, 7.0, 7.0, a, x) ==
+          Approx(dupuit_recharge_head(h1, h2, length, n, 7.0, x)).epsilon(1e-12));
+  // Discharge continuity: k (h^2)' equal on both sides of the interface; and the discharge
+  // grows by the recharge between two points, q(x2) - q(x1) = n (x2 - x1).
+  auto discharge = [&](double x, double k) {
+    const double d = 1e-4;
+    const double hp = dupuit_two_zone_head(h1, h2, length, n, 20.0, 5.0, a, x + d);
+    const double hm = dupuit_two_zone_head(h1, h2, length, n, 20.0, 5.0, a, x - d);
+    return -k * (hp * hp - hm * hm) / (4.0 * d);
+  };
+  // Across the interface (2 mm apart) the discharge grows only by the recharge between,
+  // 4e-6 m2/d. The central differences are exact for the quadratic h^2; rounding of h^2
+  // ~ 300 m2 over 2e-4 m, times k, leaves ~ 2e-9 m2/d: margin 1e-8.
+  CHECK(discharge(a + 1e-3, 5.0) - discharge(a - 1e-3, 20.0) == Approx(n * 2e-3).margin(1e-8));
+  CHECK(discharge(1300.0, 5.0) - discharge(200.0, 20.0) == Approx(n * 1100.0).epsilon(1e-6));
+}
+
+TEST_CASE("Dupuit-Thiem head: outer head and the h^2 logarithm", "[analytical]") {
+  // Thiem (1906) with Dupuit's (1863) assumption: h^2 - h_w^2 = q / (pi k) ln(r / r_w).
+  CHECK(dupuit_thiem_head(1000.0, 10.0, 20.0, 2000.0, 2000.0) == Approx(20.0));
+  const double h10 = dupuit_thiem_head(1000.0, 10.0, 20.0, 2000.0, 10.0);
+  const double h100 = dupuit_thiem_head(1000.0, 10.0, 20.0, 2000.0, 100.0);
+  CHECK(h100 * h100 - h10 * h10 ==
+        Approx(1000.0 / (3.14159265358979323846 * 10.0) * std::log(10.0)));
+}

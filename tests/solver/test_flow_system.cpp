@@ -109,11 +109,15 @@ double jacobian_error(const Model& m, bool steady) {
 TEST_CASE("exact Jacobian matches finite differences of the residual", "[flow_system]") {
   // Central differences with h = 1e-7 on functions that are smooth at every evaluated head
   // (kinks kept > 1e-4 away) carry truncation ~ h^2 and rounding ~ 1e-16 R / h ~ 1e-8.
-  for (Condition c : {Condition::switching, Condition::water_table, Condition::confined}) {
-    const Model m = switching_model(c);
-    CHECK(jacobian_error(m, false) < 1e-6);
-    CHECK(jacobian_error(m, true) < 1e-6);
-  }
+  // Both face-thickness schemes; the heads put faces at wet, drying (thin against thick, in
+  // the blend of the mean scheme) and dry states.
+  for (Condition c : {Condition::switching, Condition::water_table, Condition::confined})
+    for (FaceThickness f : {FaceThickness::mean, FaceThickness::upstream}) {
+      Model m = switching_model(c);
+      m.solver.face_thickness = f;
+      CHECK(jacobian_error(m, false) < 1e-6);
+      CHECK(jacobian_error(m, true) < 1e-6);
+    }
 }
 
 TEST_CASE("confined Jacobian is symmetric", "[flow_system]") {
