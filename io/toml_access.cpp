@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <charconv>
+#include <cmath>
 #include <sstream>
 #include <vector>
 
@@ -94,7 +95,7 @@ std::string type_name(const toml::node& node) {
     case toml::node_type::integer:
       return "integer";
     case toml::node_type::floating_point:
-      return "number";
+      return std::isfinite(node.as_floating_point()->get()) ? "number" : "non-finite number";
     case toml::node_type::boolean:
       return "boolean";
     case toml::node_type::date:
@@ -125,8 +126,10 @@ void render(const toml::node& node, std::string& out, std::size_t limit) {
   if (out.size() > limit) return;
   if (auto s = node.as_string()) {
     out += '"' + s->get() + '"';
-  } else if (auto v = number_of(node)) {
-    out += show_number(*v);
+  } else if (auto i = node.as_integer()) {
+    out += show_number(static_cast<double>(i->get()));
+  } else if (auto f = node.as_floating_point()) {
+    out += show_number(f->get());
   } else if (auto b = node.as_boolean()) {
     out += b->get() ? "true" : "false";
   } else if (auto a = node.as_array()) {
@@ -167,7 +170,9 @@ std::string show(const toml::node& node) {
 
 std::optional<double> number_of(const toml::node& node) {
   if (auto i = node.as_integer()) return static_cast<double>(i->get());
-  if (auto f = node.as_floating_point()) return f->get();
+  // TOML allows inf and nan; no quantity of a model is either, so they are not numbers here
+  // and every caller reports them where it reports a wrong type, with file, line and key.
+  if (auto f = node.as_floating_point(); f && std::isfinite(f->get())) return f->get();
   return std::nullopt;
 }
 

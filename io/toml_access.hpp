@@ -43,7 +43,7 @@ std::optional<std::string> read_string(ReaderContext& ctx, const toml::table& ta
 std::optional<std::string> read_choice(ReaderContext& ctx, const toml::table& table,
                                        std::string_view key, const std::string& path,
                                        std::initializer_list<std::string_view> allowed);
-/// Number of a node (integer or float), no message.
+/// Number of a node (integer or finite float; inf and nan are not numbers), no message.
 std::optional<double> number_of(const toml::node& node);
 
 /// Key path "section.key" for messages.

@@ -12,9 +12,10 @@
 #include "io/atomic_file.hpp"
 #include "io/check_report.hpp"
 #include "io/checkpoint.hpp"
-#include "io/memory_guard.hpp"
 #include "io/cli/distributed_run.hpp"
+#include "io/memory_guard.hpp"
 #include "io/model_reader.hpp"
+#include "io/output_lock.hpp"
 #include "io/result_recorder.hpp"
 #include "io/run_report.hpp"
 #include "io/summary_json.hpp"
@@ -96,11 +97,19 @@ int run_run_command(const RunOptions& options) {
   const bool quiet = options.quiet || !root;
   const bool terminal = isatty(fileno(stderr)) && !quiet;
   std::string folder_error;
+  // Held until the run ends: a second run into the same folder is refused (rank 0 holds it
+  // for a distributed run).
+  std::optional<OutputFolderLock> lock;
   try {
     check_output_folder_writable(folder);
+    if (root) lock.emplace(folder);
   } catch (const OutputError& e) {
     folder_error = e.what();
   }
+  if (lock && !lock->stale_owner().empty() && !quiet)
+    std::fprintf(stderr,
+                 "note: took over the output folder's lock left by a run that ended early (%s)\n",
+                 lock->stale_owner().c_str());
   if (engine->any(!folder_error.empty())) {
     if (root || !folder_error.empty())
       std::fprintf(stderr, "error: %s\nNothing was run.\n",
