@@ -11,4 +11,11 @@ class OutputError : public std::runtime_error {
   using std::runtime_error::runtime_error;
 };
 
+/// In a distributed run: another process could not write its part (that process reports
+/// its own OutputError); thrown on the processes whose own writes succeeded.
+class PeerOutputError : public OutputError {
+ public:
+  PeerOutputError() : OutputError("another process could not write its results") {}
+};
+
 }  // namespace aquiledger

@@ -46,8 +46,10 @@ void ResultRecorder::collectively(Write&& write) {
   } catch (const OutputError& e) {
     error = e.what();
   }
-  if (reduction_->any(!error.empty()))
-    throw OutputError(error.empty() ? "another process could not write its results" : error);
+  if (reduction_->any(!error.empty())) {
+    if (error.empty()) throw PeerOutputError();
+    throw OutputError(error);
+  }
 }
 
 void ResultRecorder::reduce(std::vector<double>& values) {

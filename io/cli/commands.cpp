@@ -191,12 +191,23 @@ int run_run_command(const RunOptions& options) {
     run = engine->run(model, *recorder, sim);
     if (terminal) std::fputs("\r\033[K", stderr);
     recorder->flush();
+  } catch (const PeerOutputError&) {
+    // Writes are agreed on by every process (ResultRecorder::collectively): all arrive here
+    // or below, and the process that failed names the file.
+    if (terminal) std::fputs("\n", stderr);
+    return exit_output_failure;
   } catch (const OutputError& e) {
     if (terminal) std::fputs("\n", stderr);
-    if (root)
-      std::fprintf(stderr, "error: %s\nResults written before this point are complete.\n",
-                   e.what());
+    std::fprintf(stderr, "error: %s%s\nResults written before this point are complete.\n",
+                 engine->process_label().c_str(), e.what());
     return exit_output_failure;
+  } catch (const std::exception& e) {
+    // A PETSc or MPI call failed, possibly on this process alone: the others may already
+    // wait for it in a collective call, so the whole run ends here, with one message.
+    if (terminal) std::fputs("\n", stderr);
+    std::fprintf(stderr, "error: %s%s\nResults written before this point are complete.\n",
+                 engine->process_label().c_str(), e.what());
+    return engine->fail_everywhere(exit_not_converged);
   }
   const double wall = std::chrono::duration<double>(Clock::now() - start).count();
   const RecorderStatistics& stats = recorder->statistics();

@@ -1,6 +1,9 @@
 // Compiled only with -DAQUILEDGER_WITH_PETSC=ON.
 #include "io/cli/distributed_run.hpp"
 
+#include <cstdio>
+#include <string>
+
 #include "solver/distributed/petsc_engine.hpp"
 
 namespace aquiledger {
@@ -27,6 +30,16 @@ class PetscRunEngine final : public RunEngine {
     return engine_->run(recorder);
   }
   bool any(bool flag) override { return runtime_.reduction().any(flag); }
+  std::string process_label() const override {
+    return "rank " + std::to_string(runtime_.rank()) + " of " + std::to_string(runtime_.n_ranks()) +
+           ": ";
+  }
+  int fail_everywhere(int status) override {
+    std::fflush(stdout);
+    std::fflush(stderr);
+    if (runtime_.n_ranks() > 1) PetscRuntime::abort_all(status);
+    return status;
+  }
 
  private:
   PetscRuntime runtime_;

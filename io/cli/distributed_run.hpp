@@ -32,6 +32,11 @@ class RunEngine {
   }
   /// True on every process when flag is true on any (a distributed run decides together).
   virtual bool any(bool flag) { return flag; }
+  /// "" for the serial engine, "rank 1 of 2: " for a distributed run's process (messages).
+  virtual std::string process_label() const { return {}; }
+  /// Ends the run on every process with this status after a failure on this process
+  /// alone; the serial engine only returns the status.
+  virtual int fail_everywhere(int status) { return status; }
 };
 
 /// One rank of the distributed engine; starts PETSc and MPI (only in a PETSc build).

@@ -33,6 +33,10 @@ void check(PetscErrorCode code, const char* what) {
   if (code != 0) throw std::runtime_error(std::string("PETSc failed: ") + what);
 }
 
+void check_mpi(int code, const char* what) {
+  if (code != MPI_SUCCESS) throw std::runtime_error(std::string("MPI failed: ") + what);
+}
+
 constexpr int max_neighbours = 4;
 
 struct Neighbour {
@@ -152,6 +156,8 @@ struct DistributedEngine::Impl {
   }
 
   ~Impl() {
+    // Codes of the destroy calls are not checked: a destructor cannot throw, and a run that
+    // ends has nothing left to protect.
     KSPDestroy(&ksp);
     MatDestroy(&matrix);
     VecDestroy(&base);
@@ -166,11 +172,11 @@ struct DistributedEngine::Impl {
     KSPType type;
     PC pc;
     PCType pc_type;
-    KSPGetType(ksp, &type);
-    KSPGetPC(ksp, &pc);
-    PCGetType(pc, &pc_type);
+    check(KSPGetType(ksp, &type), "KSPGetType");
+    check(KSPGetPC(ksp, &pc), "KSPGetPC");
+    check(PCGetType(pc, &pc_type), "PCGetType");
     int size = 1;
-    MPI_Comm_size(comm, &size);
+    check_mpi(MPI_Comm_size(comm, &size), "MPI_Comm_size");
     return std::string("PETSc ") + type + " + " + pc_type + " (" + std::to_string(size) +
            (size == 1 ? " rank)" : " ranks)");
   }
@@ -270,7 +276,8 @@ struct DistributedEngine::Impl {
     check(MatAssemblyBegin(matrix, MAT_FINAL_ASSEMBLY), "MatAssemblyBegin");
     check(MatAssemblyEnd(matrix, MAT_FINAL_ASSEMBLY), "MatAssemblyEnd");
     int any = changed ? 1 : 0;
-    MPI_Allreduce(MPI_IN_PLACE, &any, 1, MPI_INT, MPI_LOR, comm);
+    check_mpi(MPI_Allreduce(MPI_IN_PLACE, &any, 1, MPI_INT, MPI_LOR, comm),
+              "MPI_Allreduce (matrix changed)");
     values_changed = any != 0;
   }
 
@@ -300,7 +307,8 @@ struct DistributedEngine::Impl {
     // Fixed heads enter the budget as the net flow of each fixed cell to its neighbours.
     for (CellIndex c : fixed_owned) sums[0] += std::abs(fixed_cell_net_flow(model, layout, c, h));
     check(VecRestoreArrayRead(head_local, &x), "VecRestoreArrayRead");
-    MPI_Allreduce(MPI_IN_PLACE, sums, 4, MPI_DOUBLE, MPI_SUM, comm);
+    check_mpi(MPI_Allreduce(MPI_IN_PLACE, sums, 4, MPI_DOUBLE, MPI_SUM, comm),
+              "MPI_Allreduce (budget sums)");
     throughflow = 0.5 * sums[0];
     rounding_floor = aquiledger::rounding_floor(sums[0], sums[1], sums[2]);
     residual_sum = sums[3];
@@ -308,7 +316,7 @@ struct DistributedEngine::Impl {
 
   ResidualNorms norms() const {
     const PetscScalar* r;
-    VecGetArrayRead(residual, &r);
+    check(VecGetArrayRead(residual, &r), "VecGetArrayRead");
     double sum_sq = 0.0;
     struct {
       double value;
@@ -323,9 +331,11 @@ struct DistributedEngine::Impl {
       // Ties go to the lowest cell, as in the serial scan.
       if (a > largest.value) largest = {a, static_cast<int>(i)};
     }
-    VecRestoreArrayRead(residual, &r);
-    MPI_Allreduce(MPI_IN_PLACE, &sum_sq, 1, MPI_DOUBLE, MPI_SUM, comm);
-    MPI_Allreduce(MPI_IN_PLACE, &largest, 1, MPI_DOUBLE_INT, MPI_MAXLOC, comm);
+    check(VecRestoreArrayRead(residual, &r), "VecRestoreArrayRead");
+    check_mpi(MPI_Allreduce(MPI_IN_PLACE, &sum_sq, 1, MPI_DOUBLE, MPI_SUM, comm),
+              "MPI_Allreduce (residual norm)");
+    check_mpi(MPI_Allreduce(MPI_IN_PLACE, &largest, 1, MPI_DOUBLE_INT, MPI_MAXLOC, comm),
+              "MPI_Allreduce (largest residual)");
     const bool any = largest.value >= 0.0;
     return {std::max(largest.value, 0.0), std::sqrt(sum_sq), any ? largest.cell : -1};
   }
@@ -338,11 +348,13 @@ struct DistributedEngine::Impl {
           "KSPSetReusePreconditioner");
     check(KSPSetOperators(ksp, matrix, matrix), "KSPSetOperators");
     reuse ? ++reuses : ++setups;
+    // A solve PETSc reports as failed is a failed linear solve (Newton cuts the step back),
+    // as in the serial engine; its reason is read below.
     if (KSPSolve(ksp, residual, update) != 0) return false;
     KSPConvergedReason reason;
     PetscInt its;
-    KSPGetConvergedReason(ksp, &reason);
-    KSPGetIterationNumber(ksp, &its);
+    check(KSPGetConvergedReason(ksp, &reason), "KSPGetConvergedReason");
+    check(KSPGetIterationNumber(ksp, &its), "KSPGetIterationNumber");
     iterations = static_cast<int>(its);
     linear_total += its;
     return reason > 0;

@@ -24,6 +24,9 @@ class PetscRuntime {
   int n_ranks() const { return n_ranks_; }
   /// Sums and flags over every rank of the run.
   ResultReduction& reduction() { return *reduction_; }
+  /// Ends every rank of the run at once with this exit status (MPI_Abort): for a failure on
+  /// some ranks only, where the others would wait for them in a collective call forever.
+  [[noreturn]] static void abort_all(int status);
 
  private:
   int rank_ = 0;
