@@ -257,6 +257,94 @@ Checkpoint read_checkpoint(const std::filesystem::path& folder) {
   }
 }
 
+namespace {
+constexpr std::string_view set_magic = "AQLCKSET";
+constexpr std::string_view part_magic = "AQLCKPRT";
+
+/// Checks a magic string; false (nothing thrown) when it does not match.
+bool has_magic(BinaryReader& r, std::string_view expected) {
+  for (char ch : expected)
+    if (r.get<char>() != ch) return false;
+  return true;
+}
+}  // namespace
+
+std::string checkpoint_part_name(std::uint64_t generation, int rank) {
+  return fmt::format("checkpoint_s{}_r{:04d}.aqck", generation % 2, rank);
+}
+
+void write_checkpoint_part(const std::filesystem::path& folder, const CheckpointSet& set, int rank,
+                           const Checkpoint& checkpoint) {
+  BinaryWriter w;
+  for (char ch : part_magic) w.put(ch);
+  w.put<std::int32_t>(rank);
+  w.put<std::int32_t>(set.n_ranks);
+  w.put(set.generation);
+  write_file_atomically(folder / checkpoint_part_name(set.generation, rank),
+                        w.bytes() + encode_checkpoint(checkpoint));
+}
+
+void write_checkpoint_set(const std::filesystem::path& folder, const CheckpointSet& set) {
+  BinaryWriter w;
+  for (char ch : set_magic) w.put(ch);
+  w.put<std::int32_t>(set.n_ranks);
+  w.put(set.generation);
+  w.put(fnv1a(w.bytes()));
+  write_file_atomically(folder / checkpoint_set_file_name, w.bytes());
+}
+
+CheckpointSet read_checkpoint_set(const std::filesystem::path& folder) {
+  const std::filesystem::path file = folder / checkpoint_set_file_name;
+  const auto bytes = read_bytes(file);
+  if (!bytes)
+    throw CheckpointError(
+        fmt::format("no checkpoint '{}' of a distributed run to resume from "
+                    "(run with --checkpoint-every N first)",
+                    file.string()));
+  try {
+    BinaryReader r(*bytes);
+    if (!has_magic(r, set_magic))
+      throw CheckpointError("not the index of an aquiledger checkpoint set");
+    CheckpointSet set;
+    set.n_ranks = r.get<std::int32_t>();
+    set.generation = r.get<std::uint64_t>();
+    const std::string_view body = std::string_view(*bytes).substr(0, set_magic.size() + 12);
+    if (r.get<std::uint64_t>() != fnv1a(body) || !r.at_end() || set.n_ranks < 1)
+      throw CheckpointError("damaged (its fingerprint does not match)");
+    return set;
+  } catch (const FormatError& e) {
+    throw CheckpointError(fmt::format("'{}': damaged: {}", file.string(), e.what()));
+  } catch (const CheckpointError& e) {
+    throw CheckpointError(fmt::format("'{}': {}", file.string(), e.what()));
+  }
+}
+
+Checkpoint read_checkpoint_part(const std::filesystem::path& folder, const CheckpointSet& set,
+                                int rank) {
+  const std::filesystem::path file = folder / checkpoint_part_name(set.generation, rank);
+  const auto bytes = read_bytes(file);
+  if (!bytes)
+    throw CheckpointError(
+        fmt::format("the part '{}' of the checkpoint set is missing", file.string()));
+  try {
+    BinaryReader r(*bytes);
+    if (!has_magic(r, part_magic)) throw CheckpointError("not a part of a checkpoint set");
+    const int part_rank = r.get<std::int32_t>();
+    const int part_ranks = r.get<std::int32_t>();
+    const auto generation = r.get<std::uint64_t>();
+    if (part_rank != rank || part_ranks != set.n_ranks || generation != set.generation)
+      throw CheckpointError(fmt::format(
+          "it holds rank {} of {} from checkpoint {}, the index names rank {} of {} from "
+          "checkpoint {}",
+          part_rank, part_ranks, generation, rank, set.n_ranks, set.generation));
+    return decode_checkpoint(r.rest());
+  } catch (const FormatError& e) {
+    throw CheckpointError(fmt::format("'{}': damaged: {}", file.string(), e.what()));
+  } catch (const CheckpointError& e) {
+    throw CheckpointError(fmt::format("'{}': {}", file.string(), e.what()));
+  }
+}
+
 std::optional<std::string> checkpoint_mismatch(const InputFingerprint& saved,
                                                const InputFingerprint& now,
                                                const std::filesystem::path& model_file) {

@@ -53,6 +53,34 @@ void write_checkpoint(const std::filesystem::path& folder, const Checkpoint& che
 /// Reads folder/checkpoint.aqck; throws CheckpointError (missing, damaged).
 Checkpoint read_checkpoint(const std::filesystem::path& folder);
 
+/// A distributed run's checkpoint is a set: one part per rank (that rank's rows and its
+/// recorder, `checkpoint_sSLOT_rRRRR.aqck`, each a complete checkpoint file behind a header
+/// naming the rank, the rank count and the set's generation) and the index
+/// `checkpoint_set.aqck`, written last by rank 0 once every part is on disk. Generations
+/// alternate between two slots, so the parts the index names are never the ones being
+/// written: a run killed at any moment leaves the last complete set.
+inline constexpr std::string_view checkpoint_set_file_name = "checkpoint_set.aqck";
+
+/// The index of a checkpoint set.
+struct CheckpointSet {
+  int n_ranks = 1;
+  std::uint64_t generation = 0;  ///< 1 for the first set of a run
+};
+
+/// Name of a part of generation `generation` for `rank`.
+std::string checkpoint_part_name(std::uint64_t generation, int rank);
+/// Writes this rank's part atomically; throws OutputError.
+void write_checkpoint_part(const std::filesystem::path& folder, const CheckpointSet& set, int rank,
+                           const Checkpoint& checkpoint);
+/// Writes the index atomically (rank 0, after every part is on disk); throws OutputError.
+void write_checkpoint_set(const std::filesystem::path& folder, const CheckpointSet& set);
+/// Reads the index; throws CheckpointError (missing, damaged).
+CheckpointSet read_checkpoint_set(const std::filesystem::path& folder);
+/// Reads this rank's part of the set; throws CheckpointError when it is missing, damaged, or
+/// of another rank, rank count or generation.
+Checkpoint read_checkpoint_part(const std::filesystem::path& folder, const CheckpointSet& set,
+                                int rank);
+
 /// Why the checkpoint does not belong to these input files (naming the first changed file),
 /// or nullopt when it does.
 std::optional<std::string> checkpoint_mismatch(const InputFingerprint& saved,

@@ -65,11 +65,6 @@ int run_run_command(const RunOptions& options) {
   std::unique_ptr<RunEngine> engine;
   if (options.engine == "petsc") {
 #ifdef AQUILEDGER_WITH_PETSC
-    if (options.resume || options.checkpoint_every > 0) {
-      std::fputs("error: --checkpoint-every and --resume are not available with --engine petsc\n",
-                 stderr);
-      return exit_usage;
-    }
     engine = make_distributed_engine();
 #else
     std::fputs(
@@ -119,21 +114,45 @@ int run_run_command(const RunOptions& options) {
   }
 
   // Checkpoints fingerprint the input files; a resumed run must read the same ones.
+  // A distributed run's checkpoint is a set of one part per rank (io/checkpoint.hpp).
+  const bool distributed = engine->n_ranks() > 1 || options.engine == "petsc";
   std::optional<InputFingerprint> fingerprint;
   std::optional<Checkpoint> resume_from;
+  std::uint64_t checkpoint_generation = 0;
+  std::string checkpoint_error;
   try {
     if (options.resume || options.checkpoint_every > 0) fingerprint = fingerprint_inputs(model);
     if (options.resume) {
-      resume_from = read_checkpoint(folder);
+      if (distributed) {
+        const CheckpointSet set = read_checkpoint_set(folder);
+        if (set.n_ranks != engine->n_ranks())
+          throw CheckpointError(fmt::format(
+              "cannot resume: the checkpoint in '{}' was written by a run on {} rank(s), this "
+              "run has {}; resume it on {}",
+              folder.string(), set.n_ranks, engine->n_ranks(), set.n_ranks));
+        resume_from = read_checkpoint_part(folder, set, engine->rank());
+        checkpoint_generation = set.generation;
+      } else {
+        resume_from = read_checkpoint(folder);
+      }
       if (auto why = checkpoint_mismatch(resume_from->inputs, *fingerprint, options.model_file))
         throw CheckpointError(fmt::format("cannot resume: {}; the checkpoint in '{}' belongs to another "
                                           "model (run without --resume to start over)",
                                           *why, folder.string()));
-      if (resume_from->state.head.size() != static_cast<std::size_t>(model.grid.n_cells()))
+      if (!distributed &&
+          resume_from->state.head.size() != static_cast<std::size_t>(model.grid.n_cells()))
         throw CheckpointError("cannot resume: the checkpoint's heads do not fit the grid");
     }
   } catch (const CheckpointError& e) {
-    std::fprintf(stderr, "error: %s\nNothing was run.\n", e.what());
+    checkpoint_error = e.what();
+  }
+  // Every rank decides together; rank 0 says why, or the ranks that failed when it did not.
+  const bool failed = !checkpoint_error.empty();
+  const bool root_failed = engine->any(root && failed);
+  if (engine->any(failed)) {
+    if (failed && (root || !root_failed))
+      std::fprintf(stderr, "error: %s%s\nNothing was run.\n",
+                   root ? "" : engine->process_label().c_str(), checkpoint_error.c_str());
     return exit_bad_checkpoint;
   }
 
@@ -185,7 +204,30 @@ int run_run_command(const RunOptions& options) {
     if (options.checkpoint_every > 0) {
       sim.checkpoint_every = options.checkpoint_every;
       sim.checkpoint = [&](const StartState& state) {
-        write_checkpoint(folder, Checkpoint{*fingerprint, model.solver.threads, state, recorder->state()});
+        const Checkpoint checkpoint{*fingerprint, model.solver.threads, state, recorder->state()};
+        if (!distributed) return write_checkpoint(folder, checkpoint);
+        // Every part on disk before rank 0 replaces the index (a killed run leaves the last
+        // complete set); the other slot's parts are the ones overwritten.
+        const CheckpointSet set{engine->n_ranks(), ++checkpoint_generation};
+        std::string error;
+        try {
+          write_checkpoint_part(folder, set, engine->rank(), checkpoint);
+        } catch (const OutputError& e) {
+          error = e.what();
+        }
+        if (engine->any(!error.empty())) {
+          if (error.empty()) throw PeerOutputError();
+          throw OutputError(error);
+        }
+        try {
+          if (root) write_checkpoint_set(folder, set);
+        } catch (const OutputError& e) {
+          error = e.what();
+        }
+        if (engine->any(!error.empty())) {
+          if (error.empty()) throw PeerOutputError();
+          throw OutputError(error);
+        }
       };
     }
     run = engine->run(model, *recorder, sim);

@@ -26,9 +26,11 @@ class PetscRunEngine final : public RunEngine {
     engine_ = std::make_unique<DistributedEngine>(model);
     recorder.emplace(model, folder, engine_->part(), runtime_.reduction());
   }
-  RunResult run(const Model&, ResultRecorder& recorder, const SimulationOptions&) override {
-    return engine_->run(recorder);
+  RunResult run(const Model&, ResultRecorder& recorder, const SimulationOptions& options) override {
+    return engine_->run(recorder, options);
   }
+  int rank() const override { return runtime_.rank(); }
+  int n_ranks() const override { return runtime_.n_ranks(); }
   bool any(bool flag) override { return runtime_.reduction().any(flag); }
   std::string process_label() const override {
     return "rank " + std::to_string(runtime_.rank()) + " of " + std::to_string(runtime_.n_ranks()) +

@@ -32,6 +32,9 @@ class RunEngine {
   }
   /// True on every process when flag is true on any (a distributed run decides together).
   virtual bool any(bool flag) { return flag; }
+  /// This process's rank and the number of processes of the run (0 and 1 when serial).
+  virtual int rank() const { return 0; }
+  virtual int n_ranks() const { return 1; }
   /// "" for the serial engine, "rank 1 of 2: " for a distributed run's process (messages).
   virtual std::string process_label() const { return {}; }
   /// Ends the run on every process with this status after a failure on this process

@@ -67,6 +67,18 @@ struct DistributedEngine::Impl {
   std::vector<std::uint8_t> parallel_recharge;
   std::vector<double> last_values;  ///< matrix row values of the last assembly (reuse test)
   bool values_changed = true;
+  /// Set at a checkpoint: the solver is made anew and the next solve builds the multigrid
+  /// hierarchy from nothing, as a run resumed there does. Without this the hierarchy would
+  /// carry its history (GAMG reuses its interpolation across set-ups, the smoothers their
+  /// eigenvalue estimates), and a resumed run would differ from the uninterrupted one in the
+  /// last digits.
+  bool fresh_setup = false;
+
+  void forget_preconditioner() {
+    check(KSPDestroy(&ksp), "KSPDestroy");
+    make_solver();
+    fresh_setup = true;
+  }
   // Per held cell.
   std::vector<ValueSlope> thickness;
   std::vector<CellIndex> fixed_owned;  ///< fixed cells this rank owns
@@ -132,6 +144,11 @@ struct DistributedEngine::Impl {
     if (!confined) thickness.resize(part.n_held());
     last_values.assign(n_owned * (max_neighbours + 1), std::nan(""));
 
+    make_solver();
+  }
+
+  /// The Krylov solver and its multigrid preconditioner, as configured from nothing.
+  void make_solver() {
     check(KSPCreate(comm, &ksp), "KSPCreate");
     // Confined: symmetric positive definite, CG. Otherwise upstream weighting makes the matrix
     // non-symmetric: GMRES, right-preconditioned so that the test is on the true residual.
@@ -343,7 +360,8 @@ struct DistributedEngine::Impl {
   bool solve_linear(int& iterations) {
     // A matrix equal to the last one keeps its multigrid hierarchy (as the serial direct
     // solver keeps its factorisation).
-    const bool reuse = !values_changed && setups > 0;
+    const bool reuse = !values_changed && setups > 0 && !fresh_setup;
+    fresh_setup = false;
     check(KSPSetReusePreconditioner(ksp, reuse ? PETSC_TRUE : PETSC_FALSE),
           "KSPSetReusePreconditioner");
     check(KSPSetOperators(ksp, matrix, matrix), "KSPSetOperators");
@@ -394,8 +412,24 @@ class DistributedProblem {
 class DistributedStepper {
  public:
   DistributedStepper(DistributedEngine::Impl& e, const NewtonSettings& settings,
-                     SimulationObserver& observer, std::vector<double>& head)
-      : e_(e), settings_(settings), observer_(observer), head_(head), trial_(head) {}
+                     SimulationObserver& observer, const SimulationOptions& options,
+                     std::vector<double>& head, const RunResult& base)
+      : e_(e),
+        settings_(settings),
+        observer_(observer),
+        options_(options),
+        head_(head),
+        base_(base),
+        trial_(head) {}
+
+  /// Continues a run whose last accepted step (of `period`) started from previous_head.
+  void resume_after(std::size_t period, const std::vector<double>& previous_head,
+                    double previous_dt) {
+    if (!(previous_dt > 0.0) || previous_head.size() != head_prev_.size()) return;
+    head_prev_ = previous_head;
+    dt_prev_ = previous_dt;
+    period_prev_ = period;
+  }
 
   void apply_fixed_heads(std::size_t period) {
     aquiledger::apply_fixed_heads(e_.model, period, CellWindow<double>(head_, e_.part.first_held()),
@@ -425,11 +459,25 @@ class DistributedStepper {
     period_prev_ = info.period;
   }
   void period_done(std::size_t period) { observer_.period_done(period); }
-  void checkpoint(std::size_t, int, double, const RunResult&) {}
+  /// Collective: every rank hands its rows' state to options.checkpoint at the same step.
+  void checkpoint(std::size_t period, int step_in_period, double time, const RunResult& so_far) {
+    StartState state;
+    state.period = period;
+    state.step_in_period = step_in_period;
+    state.time = time;
+    state.head = head_;
+    if (step_in_period > 0 && period == period_prev_ && dt_prev_ > 0.0) {
+      state.previous_head = head_prev_;
+      state.previous_dt = dt_prev_;
+    }
+    state.so_far = so_far;
+    options_.checkpoint(state);
+    e_.forget_preconditioner();
+  }
   RunResult finish(RunResult r) const {
-    r.linear_iterations = e_.linear_total;
-    r.factorizations = e_.setups;
-    r.factorization_reuses = e_.reuses;
+    r.linear_iterations = base_.linear_iterations + e_.linear_total;
+    r.factorizations = base_.factorizations + e_.setups;
+    r.factorization_reuses = base_.factorization_reuses + e_.reuses;
     return r;
   }
 
@@ -437,7 +485,9 @@ class DistributedStepper {
   DistributedEngine::Impl& e_;
   const NewtonSettings& settings_;
   SimulationObserver& observer_;
+  const SimulationOptions& options_;
   std::vector<double>& head_;
+  const RunResult& base_;  ///< counters of the run before this call (a resumed run's)
   std::vector<double> trial_;
   std::vector<double> head_prev_ = std::vector<double>(trial_.size(), std::nan(""));
   double dt_prev_ = 0.0;
@@ -451,20 +501,36 @@ DistributedEngine::~DistributedEngine() = default;
 
 const GridPart& DistributedEngine::part() const { return impl_->part; }
 
-RunResult DistributedEngine::run(SimulationObserver& observer) {
+RunResult DistributedEngine::run(SimulationObserver& observer, const SimulationOptions& options) {
   Impl& e = *impl_;
   const Model& model = e.model;
   // One thread per rank unless asked: ranks already share the cores.
   omp_set_num_threads(model.solver.threads > 0 ? model.solver.threads : 1);
+  const StartState* start = options.start ? &*options.start : nullptr;
   RunResult result;
+  if (start) result = start->so_far;
+  result.converged = true;
+  result.failure.clear();
   result.linear_solver = e.solver_name();
   result.linear_reason = "distributed engine: Krylov solver with algebraic multigrid";
+  const RunResult base = result;  // counters before this call
   const NewtonSettings settings{model.solver.head_tolerance, model.solver.flow_tolerance,
                                 model.solver.max_iterations};
   std::vector<double> head(e.part.n_held(), std::nan(""));
   const CellWindow<double> window(head, e.part.first_held());
-  DistributedStepper stepper(e, settings, observer, head);
-  if (model.initial.steady) {
+  DistributedStepper stepper(e, settings, observer, options, head, base);
+  std::size_t first_period = 0;
+  int first_step = 0;
+  if (start) {
+    if (start->head.size() != head.size())
+      return stepper.finish(mark_failed(result, start->period, 0, start->time,
+                                        "start state does not fit this rank's rows"));
+    head = start->head;
+    first_period = start->period;
+    first_step = start->step_in_period;
+    if (first_step > 0)
+      stepper.resume_after(first_period, start->previous_head, start->previous_dt);
+  } else if (model.initial.steady) {
     steady_guess(model, e.layout, window, e.part);
     aquiledger::apply_fixed_heads(model, 0, window, e.part);
     e.head_old = head;
@@ -487,8 +553,9 @@ RunResult DistributedEngine::run(SimulationObserver& observer) {
       if (model.grid.is_active(CellIndex{static_cast<std::int32_t>(first + k)}))
         head[k] = model.initial.head[first + k];
   }
-  observer.initial_state(head);
-  return run_periods(model, stepper, result, 0, 0, 0);
+  if (!start) observer.initial_state(head);
+  return run_periods(model, stepper, result, first_period, first_step,
+                     options.checkpoint ? options.checkpoint_every : 0);
 }
 
 }  // namespace aquiledger

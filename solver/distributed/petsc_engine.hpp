@@ -42,8 +42,11 @@ class DistributedEngine {
   /// The rows this rank owns and holds; the observer's heads are over part().window.
   const GridPart& part() const;
   /// Collective: runs every period as run_simulation does (same convergence test, cutbacks
-  /// and failure reports); the observer gets each rank's window of heads.
-  RunResult run(SimulationObserver& observer);
+  /// and failure reports); the observer gets each rank's window of heads. options.start and
+  /// options.checkpoint work as in run_simulation, with every head vector of StartState (head,
+  /// previous_head) holding this rank's held rows (part().first_held() on) and linear_start
+  /// unused (each Krylov solve starts from zero).
+  RunResult run(SimulationObserver& observer, const SimulationOptions& options = {});
 
   struct Impl;  ///< PETSc's objects and the rank's tables (petsc_engine.cpp)
 

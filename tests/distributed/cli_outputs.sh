@@ -31,12 +31,6 @@ grep -q "did not converge\|linear solver failed" "$work/bad.err"
 [ "$(wc -l < "$work/bad/budget_steps.csv")" -eq 4 ] || { echo "budget_steps.csv:"; cat "$work/bad/budget_steps.csv"; exit 1; }
 [ ! -e "$work/bad/summary.json" ] || grep -q '"converged": false' "$work/bad/summary.json"
 
-# Options the distributed engine does not have are usage errors.
-set +e
-"${mpi[@]}" "$bin" run "$model" -o "$work/ck" --engine petsc --checkpoint-every 2 -q 2> /dev/null
-status=$?
-set -e
-[ "$status" -eq 64 ] || { echo "expected exit status 64 for --checkpoint-every, got $status"; exit 1; }
 # More ranks than grid rows (nonconvergent.toml has 5): a usage error naming both counts.
 if [ "$ranks" -eq 2 ]; then
   set +e

@@ -7,7 +7,7 @@ exe=$1
 src=$2
 t=$(mktemp -d)
 first=""
-trap '[[ -n $first ]] && kill -9 "$first" 2>/dev/null; rm -rf "$t"' EXIT
+trap 'if [[ -n $first ]]; then kill -9 "$first" 2>/dev/null || true; fi; rm -rf "$t"' EXIT
 fail() { echo "FAIL: $*"; exit 1; }
 cp "$src/tests/data/robust/restart.toml" "$t/model.toml"
 lock="$t/out/.aquiledger-run.lock"
