@@ -128,6 +128,10 @@ struct OutputSettings {
   std::filesystem::path folder = "results";  ///< absolute, or relative to the model file
   FieldCadence fields = FieldCadence::period_end;
   bool budget = true;
+  /// Times (T, ascending) at which heads are written as arrays a model can start from: at
+  /// the end of the first step that reaches each (0: the initial heads).
+  std::vector<double> head_array_times;
+  bool head_arrays_at_period_ends = false;  ///< also at the end of every period
 };
 
 enum class LinearChoice { automatic, direct, pcg, bicgstab };

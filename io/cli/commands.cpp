@@ -24,9 +24,11 @@ namespace aquiledger {
 
 namespace {
 
-/// Prints every diagnostic (when print is set); returns true when the model is usable.
+/// Prints the diagnostics of a model that cannot be used (every error, and the warnings
+/// with them; when print is set); returns true when the model is usable. The warnings of a
+/// usable model are printed once, by the command (model.warnings, with file and line).
 bool report_diagnostics(const ReadResult& result, bool print = true) {
-  if (!print) return result.ok();
+  if (!print || result.ok()) return result.ok();
   int errors = 0;
   std::vector<Diagnostic> sorted = result.diagnostics;
   std::stable_sort(sorted.begin(), sorted.end(), [](const Diagnostic& a, const Diagnostic& b) {
@@ -53,8 +55,14 @@ double median(std::vector<int> v) {
 int run_check_command(const CheckOptions& options) {
   const ReadResult result = read_model_file(options.model_file);
   if (!report_diagnostics(result)) return exit_invalid_model;
-  std::fputs(format_check_report(*result.model).c_str(), stdout);
-  std::fputs("The model is valid.\n", stdout);
+  const Model& model = *result.model;
+  if (!options.quiet) std::fputs(format_check_report(model).c_str(), stdout);
+  std::fputs(model.warnings.empty()
+                 ? "The model is valid.\n"
+                 : fmt::format("The model is valid ({} warning{}).\n", model.warnings.size(),
+                               model.warnings.size() == 1 ? "" : "s")
+                       .c_str(),
+             stdout);
   return exit_success;
 }
 
@@ -195,7 +203,12 @@ int run_run_command(const RunOptions& options) {
   RunSummary summary;
   summary.version = version_string;
   summary.title = model.title;
-  summary.model_file = options.model_file.string();
+  // Absolute, so that `report` finds the model from the results folder wherever it runs.
+  std::error_code path_error;
+  const std::filesystem::path model_path =
+      std::filesystem::weakly_canonical(std::filesystem::absolute(options.model_file), path_error);
+  summary.model_file =
+      path_error ? std::filesystem::absolute(options.model_file).string() : model_path.string();
   summary.length_unit = model.length_unit;
   summary.time_unit = model.time_unit;
   summary.unknowns = recorder->layout().n_unknowns();
@@ -211,7 +224,7 @@ int run_run_command(const RunOptions& options) {
   summary.newton_iterations_per_step = stats.newton_iterations;
   summary.linear_solver = run.linear_solver;
   summary.linear_reason = run.linear_reason;
-  summary.max_abs_discrepancy_percent = stats.max_abs_discrepancy_percent;
+  summary.max_abs_imbalance_percent = stats.max_abs_imbalance_percent;
   summary.converged = run.converged;
   summary.failure = run.failure;
   summary.warnings = model.warnings;
@@ -234,7 +247,7 @@ int run_run_command(const RunOptions& options) {
     std::fputs(fmt::format("  Newton         median {:g}, largest {} iterations per step\n",
                            median(stats.newton_iterations), stats.max_newton_iterations).c_str(), stdout);
     std::fputs(fmt::format("  linear solver  {} ({})\n", run.linear_solver, run.linear_reason).c_str(), stdout);
-    std::fputs(fmt::format("  largest step imbalance {:.3g} %\n", stats.max_abs_discrepancy_percent).c_str(), stdout);
+    std::fputs(fmt::format("  largest step imbalance {:.3g} %\n", stats.max_abs_imbalance_percent).c_str(), stdout);
     if (summary.well_shortfall_volume > 0.0)
       std::fputs(fmt::format("  well shortfall {:.4g} {}3 not delivered where cells ran dry\n",
                              summary.well_shortfall_volume, model.length_unit).c_str(), stdout);

@@ -18,12 +18,18 @@ int main(int argc, char** argv) {
   app.require_subcommand(1);
   app.footer(
       "Exit status: 0 success; 1 invalid model file (nothing run); 2 the run did not converge "
-      "(results up to the last converged step are kept); 3 results could not be written; 4 --resume "
-      "found no checkpoint it could use; 5 verify: a benchmark fell outside its tolerance.");
+      "(results up to the last converged step are kept); 3 results could not be written (or, for "
+      "report, read); 4 --resume found no checkpoint it could use; 5 verify: a benchmark fell "
+      "outside its tolerance; 64 the command line was wrong. `aquiledger COMMAND --help` lists the "
+      "codes each command returns.");
 
   CheckOptions check_options;
   auto* check = app.add_subcommand("check", "Validate a model file and print what it describes.");
   check->add_option("MODEL", check_options.model_file, "Model definition (TOML)")->required();
+  check->add_flag("-q,--quiet", check_options.quiet,
+                  "Print only errors and the final status line, not the description");
+  check->footer("Exit status: 0 the model is valid (warnings may be printed); 1 it is not (every "
+                "error is printed with file, line and key); 64 the command line was wrong.");
 
   RunOptions run_options;
   auto* run = app.add_subcommand("run", "Validate and run a model, writing results.");
@@ -45,6 +51,11 @@ int main(int argc, char** argv) {
                   "(mpirun -np N aquiledger run MODEL --engine petsc; needs a build with "
                   "-DAQUILEDGER_WITH_PETSC=ON)")
       ->check(CLI::IsMember({"serial", "petsc"}));
+  run->footer(
+      "Exit status: 0 the run finished; 1 invalid model file (nothing run); 2 the run did not "
+      "converge (results up to the last converged step are kept, complete and readable); 3 "
+      "results could not be written; 4 --resume found no checkpoint it could use; 64 the command "
+      "line was wrong, or this build lacks the engine asked for.");
 
   VerifyOptions verify_options;
   auto* verify = app.add_subcommand(
@@ -52,6 +63,9 @@ int main(int argc, char** argv) {
                 "published solutions.");
   verify->add_option("-o,--out", verify_options.output_folder,
                      "Folder for the comparison CSV files and verify.html (default: verify-results)");
+  verify->add_flag("-q,--quiet", verify_options.quiet, "Print only failures and the final line");
+  verify->footer("Exit status: 0 every benchmark passes; 3 the comparisons could not be written; "
+                 "5 a benchmark fell outside its tolerance; 64 the command line was wrong.");
 
   ReportOptions report_options;
   auto* report = app.add_subcommand("report", "Write a self-contained HTML report of a results folder.");
@@ -59,6 +73,14 @@ int main(int argc, char** argv) {
   report->add_option("-o,--out", report_options.output_file, "HTML file (default: RESULTS/report.html)");
   report->add_option("-m,--model", report_options.model_file,
                      "Model file, for measured heads (default: model_file in RESULTS/summary.json)");
+  report->add_flag("--without-model", report_options.without_model,
+                   "Do not read the model: a report without measured heads")
+      ->excludes("--model");
+  report->add_flag("-q,--quiet", report_options.quiet, "Print only errors");
+  report->footer(
+      "Exit status: 0 the report was written; 1 the model for the measured heads could not be "
+      "read, or is not known (nothing was written, an earlier report is kept); 3 the results "
+      "folder could not be read or the report not written; 64 the command line was wrong.");
 
   try {
     app.parse(argc, argv);

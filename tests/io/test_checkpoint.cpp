@@ -34,7 +34,7 @@ Checkpoint sample() {
   c.recorder.initial_observed = {35.0, 34.5};
   c.recorder.fields.head = awkward;
   c.recorder.fields.compaction = {0.0, 1e-7, std::nan("")};
-  BudgetStepRow step{1, 3, 13.0217, 4.1, {}};
+  BudgetStepRow step{1, 3, 13.0217, 4.1, {}, 6, 2, {40, 9, 1}};
   step.rates.components[2] = {1.5, 0.25};
   step.rates.features = {{1.0, 2.0}};
   c.recorder.step_rows = {step};
@@ -46,6 +46,7 @@ Checkpoint sample() {
   c.recorder.time = 13.0217;
   c.recorder.stats.steps = 3;
   c.recorder.stats.newton_iterations = {4, 3, 5};
+  c.recorder.head_arrays_done = 2;
   return c;
 }
 
@@ -71,6 +72,12 @@ TEST_CASE("a checkpoint reads back bit for bit", "[io][checkpoint]") {
   REQUIRE(d.recorder.step_rows.size() == 1);
   CHECK(d.recorder.step_rows[0].rates.components[2].in == 1.5);
   CHECK(d.recorder.step_rows[0].rates.features.size() == 1);
+  CHECK(d.recorder.step_rows[0].newton_iterations == 6);
+  CHECK(d.recorder.step_rows[0].cutbacks == 2);
+  CHECK(d.recorder.step_rows[0].cells.confined == 40);
+  CHECK(d.recorder.step_rows[0].cells.water_table == 9);
+  CHECK(d.recorder.step_rows[0].cells.dry == 1);
+  CHECK(d.recorder.head_arrays_done == 2);
   CHECK(d.recorder.period_rows[0].name == "pumping \"season\"");
   CHECK(d.recorder.field_entries[1].file == "fields_0001.vtr");
   CHECK(d.recorder.period_open);

@@ -30,14 +30,14 @@ TEST_CASE("a cell pumped dry wets again under recharge", "[time_control]") {
   // must fall short, and the reported shortfall plus the delivered rate is the asked rate.
   const WaterBudget& dry = obs.budgets[end_of_pumping];
   std::printf("drying: centre head %.4f m, delivered %.4f, shortfall %.4f m3/d\n",
-              obs.heads[end_of_pumping][centre], dry[BudgetComponent::wells].out,
+              obs.heads[end_of_pumping][centre], dry[BudgetComponent::well].out,
               dry.well_shortfall);
   CHECK(dry.well_shortfall > 10.0);
-  CHECK(dry[BudgetComponent::wells].out + dry.well_shortfall == Approx(20.0).epsilon(1e-9));
+  CHECK(dry[BudgetComponent::well].out + dry.well_shortfall == Approx(20.0).epsilon(1e-9));
   CHECK(obs.heads[end_of_pumping][centre] < 0.1);  // within the reduction length of the base
   // Recharge 0.01 m/d for 40 d refills Sy-storage by 4 m of head at most; the centre wets.
   CHECK(obs.last_head[centre] > 1.0);
-  CHECK(obs.max_discrepancy < 1e-6);
+  CHECK(obs.max_imbalance < 1e-6);
 }
 
 TEST_CASE("non-convergence is a status with a named place, steps kept", "[time_control]") {
