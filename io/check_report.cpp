@@ -139,23 +139,28 @@ void zone_part(Report& r, const Model& m) {
     for (const auto& [zone, list] : cells) {
       auto range = [&](auto value_of) {
         std::pair<double, double> mm{INFINITY, -INFINITY};
-        for (std::size_t c : list) mm = {std::min(mm.first, value_of(c)), std::max(mm.second, value_of(c))};
+        for (std::size_t c : list)
+          mm = {std::min(mm.first, value_of(c)), std::max(mm.second, value_of(c))};
         return mm;
       };
       std::string text = std::to_string(list.size()) + " cells; ";
       if (zm.key == "k") {
         text += "Kx " + range_text(range([&](std::size_t c) { return a.kx[c]; }), L + "/" + T);
         if (!std::isnan(a.top[list.front()]))
-          text += ", T " + range_text(range([&](std::size_t c) { return a.kx[c] * (a.top[c] - a.bottom[c]); }),
-                                      L + "2/" + T);
+          text +=
+              ", T " +
+              range_text(range([&](std::size_t c) { return a.kx[c] * (a.top[c] - a.bottom[c]); }),
+                         L + "2/" + T);
       } else if (zm.key == "specific_yield") {
         text += "Sy " + range_text(range([&](std::size_t c) { return a.specific_yield[c]; }), "");
       } else {
-        text += "Ss " + range_text(range([&](std::size_t c) { return a.specific_storage[c]; }), "1/" + L);
+        text += "Ss " +
+                range_text(range([&](std::size_t c) { return a.specific_storage[c]; }), "1/" + L);
         if (!std::isnan(a.top[list.front()]))
           text += ", S " + range_text(range([&](std::size_t c) {
                                         return a.specific_storage[c] * (a.top[c] - a.bottom[c]);
-                                      }), "");
+                                      }),
+                                      "");
       }
       r.item("  " + zm.key + " zone " + std::to_string(zone), text);
     }
@@ -236,9 +241,8 @@ void feature_part(Report& r, const Model& m) {
     r.item("external_head \"" + f.name + "\"",
            cells(f.cells) + "; head " + range_text(value_range(f.head), L));
   for (const Evapotranspiration& f : m.evapotranspiration)
-    r.item(
-        "evapotranspiration \"" + f.name + "\"",
-        cells(f.cells) + "; max rate " + range_text(value_range(f.max_rate), L + "/" + T));
+    r.item("evapotranspiration \"" + f.name + "\"",
+           cells(f.cells) + "; max rate " + range_text(value_range(f.max_rate), L + "/" + T));
   if (m.leakage)
     r.item("leakage", cells(m.leakage->cells) + "; leakance " +
                           range_text(value_range(m.leakage->leakance), "1/" + T) +

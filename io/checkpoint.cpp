@@ -1,10 +1,10 @@
 #include "io/checkpoint.hpp"
 
+#include <fmt/format.h>
+
 #include <algorithm>
 #include <fstream>
 #include <sstream>
-
-#include <fmt/format.h>
 
 #include "io/atomic_file.hpp"
 #include "io/binary_stream.hpp"
@@ -172,13 +172,14 @@ InputFingerprint fingerprint_inputs(const Model& model) {
   InputFingerprint f;
   const auto model_bytes = read_bytes(model.source_file);
   if (!model_bytes)
-    throw CheckpointError(fmt::format("cannot read the model file '{}'", model.source_file.string()));
+    throw CheckpointError(
+        fmt::format("cannot read the model file '{}'", model.source_file.string()));
   f.model = fnv1a(*model_bytes);
   for (const auto& file : model.input_files) {
     const auto bytes = read_bytes(file);
     if (!bytes)
-      throw CheckpointError(fmt::format("cannot read input file '{}' (deleted since the model was read?)",
-                                        file.string()));
+      throw CheckpointError(fmt::format(
+          "cannot read input file '{}' (deleted since the model was read?)", file.string()));
     f.files.emplace_back(file.string(), fnv1a(*bytes));
   }
   return f;
@@ -219,8 +220,9 @@ Checkpoint decode_checkpoint(std::string_view bytes) {
       if (r.get<char>() != ch) throw CheckpointError("not an aquiledger checkpoint file");
     const auto version = r.get<std::uint32_t>();
     if (version != checkpoint_format_version)
-      throw CheckpointError(fmt::format("checkpoint format version {}; this program reads version {}",
-                                        version, checkpoint_format_version));
+      throw CheckpointError(
+          fmt::format("checkpoint format version {}; this program reads version {}", version,
+                      checkpoint_format_version));
     if (r.get<std::uint32_t>() != byte_order_mark)
       throw CheckpointError("checkpoint written on a machine of another byte order");
     Checkpoint c;
@@ -258,8 +260,10 @@ Checkpoint read_checkpoint(const std::filesystem::path& folder) {
   const std::filesystem::path file = folder / checkpoint_file_name;
   const auto bytes = read_bytes(file);
   if (!bytes)
-    throw CheckpointError(fmt::format("no checkpoint '{}' to resume from (run with "
-                                      "--checkpoint-every N first)", file.string()));
+    throw CheckpointError(
+        fmt::format("no checkpoint '{}' to resume from (run with "
+                    "--checkpoint-every N first)",
+                    file.string()));
   try {
     return decode_checkpoint(*bytes);
   } catch (const CheckpointError& e) {

@@ -1,5 +1,7 @@
 #include "io/feature_placement.hpp"
 
+#include <fmt/format.h>
+
 #include <algorithm>
 #include <array>
 #include <cmath>
@@ -68,11 +70,11 @@ void warn_far_edge_cells(ReaderContext& ctx, const toml::node& node, const std::
   const RowCol rc = g.row_col(where);
   ctx.warning(ctx.spot(node), path + ".edge",
               std::to_string(far) + " of the " + std::to_string(cells.size()) +
-                  " cells of edge = \"" + edge + "\" lie more than " + show_number(limit) + " " +
-                  ctx.length_unit + " (a tenth of the grid) inside the grid's " + edge +
-                  " edge, the farthest " + show_number(farthest) + " " + ctx.length_unit +
-                  " (row " + std::to_string(rc.row + 1) + ", column " +
-                  std::to_string(rc.col + 1) +
+                  " cells of edge = \"" + edge + "\" lie more than " +
+                  fmt::format("{:.4g}", limit) + " " + ctx.length_unit +
+                  " (a tenth of the grid) inside the grid's " + edge + " edge, the farthest " +
+                  fmt::format("{:.4g}", farthest) + " " + ctx.length_unit + " (row " +
+                  std::to_string(rc.row + 1) + ", column " + std::to_string(rc.col + 1) +
                   "): the active outline turns away there; use cells, mask or polyline to place "
                   "the boundary exactly");
 }

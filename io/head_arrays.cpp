@@ -13,7 +13,9 @@ namespace aquiledger {
 namespace {
 
 /// The reader's test of a raster's cell size (io/field_value.cpp): within 1e-6 relative.
-bool same_size(double a, double b) { return std::abs(a - b) <= 1.0e-6 * std::max(1.0, std::abs(b)); }
+bool same_size(double a, double b) {
+  return std::abs(a - b) <= 1.0e-6 * std::max(1.0, std::abs(b));
+}
 
 void append_rows(std::string& out, const RectilinearGrid& g, std::span<const double> head,
                  const char* separator) {
@@ -50,9 +52,9 @@ std::optional<std::string> head_ascii_grid(const Model& model, std::span<const d
     if (!same_size(w, size)) return std::nullopt;
   for (double h : g.row_heights())
     if (!same_size(h, size)) return std::nullopt;
-  std::string out = fmt::format(
-      "ncols {}\nnrows {}\nxllcorner {}\nyllcorner {}\ncellsize {}\nNODATA_value {}\n", g.n_cols(),
-      g.n_rows(), g.x_min(), g.y_min(), size, head_array_no_value);
+  std::string out =
+      fmt::format("ncols {}\nnrows {}\nxllcorner {}\nyllcorner {}\ncellsize {}\nNODATA_value {}\n",
+                  g.n_cols(), g.n_rows(), g.x_min(), g.y_min(), size, head_array_no_value);
   append_rows(out, g, head, " ");
   return out;
 }

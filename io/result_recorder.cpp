@@ -1,8 +1,8 @@
 #include "io/result_recorder.hpp"
 
-#include <cmath>
-
 #include <fmt/format.h>
+
+#include <cmath>
 
 #include "io/head_arrays.hpp"
 
@@ -114,10 +114,10 @@ void ResultRecorder::step_done(const StepInfo& info, std::span<const double> hea
   prow.volumes.add_scaled(rates, info.dt);
   prow.end = info.time;
   time_ = info.time;
-  step_rows_.push_back({info.period + 1, info.step, info.time, info.dt, std::move(rates),
-                        info.newton_iterations, info.cutbacks,
-                        CellStateCounts{std::lround(counts[0]), std::lround(counts[1]),
-                                        std::lround(counts[2])}});
+  step_rows_.push_back(
+      {info.period + 1, info.step, info.time, info.dt, std::move(rates), info.newton_iterations,
+       info.cutbacks,
+       CellStateCounts{std::lround(counts[0]), std::lround(counts[1]), std::lround(counts[2])}});
 
   // Cell fields exist only for the field files; compaction accumulates inside them.
   if (model_.output.fields != FieldCadence::none)
@@ -126,8 +126,8 @@ void ResultRecorder::step_done(const StepInfo& info, std::span<const double> hea
   std::vector<double> observed = sampler_.sample(window(head_new), part_);
   reduce(observed);
   for (std::size_t k = 0; k < observed.size(); ++k)
-    observation_rows_.push_back(
-        {k, info.period + 1, info.step, info.time, observed[k], initial_observed_[k] - observed[k]});
+    observation_rows_.push_back({k, info.period + 1, info.step, info.time, observed[k],
+                                 initial_observed_[k] - observed[k]});
 
   if (model_.output.fields == FieldCadence::every_step) write_fields(info.time);
   // Heads at the end of the first step that reaches each chosen time (to round-off in the
@@ -210,9 +210,9 @@ void ResultRecorder::write_head_arrays_at(double time, std::span<const double> h
 }
 
 RecorderState ResultRecorder::state() const {
-  return {initial_head_, initial_observed_, fields_,        step_rows_, period_rows_,
-          observation_rows_, field_entries_, current_period_, period_open_, time_,
-          stats_,        head_arrays_done_};
+  return {
+      initial_head_,  initial_observed_, fields_,      step_rows_, period_rows_, observation_rows_,
+      field_entries_, current_period_,   period_open_, time_,      stats_,       head_arrays_done_};
 }
 
 void ResultRecorder::restore(RecorderState s) {

@@ -118,8 +118,7 @@ std::string balance_steps_csv(const std::vector<BudgetStepRow>& rows) {
 }
 
 std::string balance_periods_csv(const std::vector<BudgetPeriodRow>& rows) {
-  std::string out =
-      "period,period_name,start,end,into_aquifer,out_of_aquifer,imbalance_percent\n";
+  std::string out = "period,period_name,start,end,into_aquifer,out_of_aquifer,imbalance_percent\n";
   for (const BudgetPeriodRow& row : rows) {
     out += period_lead(row);
     append_in_out(out, {row.volumes.total_in(), row.volumes.total_out()});

@@ -25,8 +25,8 @@ struct BudgetStepRow {
   double dt = 0.0;         ///< T
   WaterBudget rates;       ///< L3/T
   int newton_iterations = 0;
-  int cutbacks = 0;        ///< step halvings before the step was accepted
-  CellStateCounts cells;   ///< states of the active cells at the end of the step
+  int cutbacks = 0;       ///< step halvings before the step was accepted
+  CellStateCounts cells;  ///< states of the active cells at the end of the step
 };
 
 /// One period: volumes over the period (L3).

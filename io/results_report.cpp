@@ -80,9 +80,10 @@ void add_period_budget(HtmlReport& page, const CsvTable& periods, const Units& u
     }
   }
   page.add_heading("Water budget by stress period");
-  page.add_chart("Volume by component in each period: into the aquifer (or released from storage) "
-                 "above zero, out of it (or taken into storage) below",
-                 stacked_bar_spec(bars, "stress period", fmt::format("volume ({}3)", u.length)));
+  page.add_chart(
+      "Volume by component in each period: into the aquifer (or released from storage) "
+      "above zero, out of it (or taken into storage) below",
+      stacked_bar_spec(bars, "stress period", fmt::format("volume ({}3)", u.length)));
 }
 
 void add_step_charts(HtmlReport& page, const CsvTable& steps, const CsvTable& balance,
@@ -91,8 +92,10 @@ void add_step_charts(HtmlReport& page, const CsvTable& steps, const CsvTable& ba
   const std::map<std::string, ComponentSeries> series = by_component(steps);
   std::vector<ChartSeries> storage;
   const std::pair<const char*, const char*> mechanisms[] = {
-      {"storage_skeleton", "skeleton compression"}, {"storage_water", "water expansion"},
-      {"storage_elastic", "elastic (undivided)"}, {"storage_drainage", "drainage of pores"}};
+      {"storage_skeleton", "skeleton compression"},
+      {"storage_water", "water expansion"},
+      {"storage_elastic", "elastic (undivided)"},
+      {"storage_drainage", "drainage of pores"}};
   for (const auto& [component, label] : mechanisms) {
     const auto found = series.find(component);
     if (found == series.end()) continue;
@@ -187,7 +190,8 @@ void add_maps(HtmlReport& page, const std::filesystem::path& folder, const Units
   if (files.size() > 1 && files.back() != chosen.front()) chosen.push_back(files.back());
   for (const auto& f : chosen) {
     const FieldMap head = read_field_vtr(f, "head"), drawdown = read_field_vtr(f, "drawdown");
-    page.add_heading(fmt::format("Maps at t = {:g} {} ({})", head.time, u.time, f.filename().string()));
+    page.add_heading(
+        fmt::format("Maps at t = {:g} {} ({})", head.time, u.time, f.filename().string()));
     page.add_chart(fmt::format("Head at t = {:g} {}", head.time, u.time),
                    heatmap_spec(head.x_edges, head.y_edges, head.values,
                                 fmt::format("head ({})", u.length), u.length, "viridis"));
@@ -249,8 +253,8 @@ ResultsReportSummary write_results_report(const ResultsReportOptions& options) {
   add_period_budget(page, read_csv_file(folder / "budget_periods.csv"), u);
   add_step_charts(page, read_csv_file(folder / "budget_steps.csv"),
                   read_csv_file(folder / "balance_steps.csv"), u);
-  summary.observations_with_measurements =
-      add_hydrographs(page, read_csv_file(folder / "observations.csv"), model ? &*model : nullptr, u);
+  summary.observations_with_measurements = add_hydrographs(
+      page, read_csv_file(folder / "observations.csv"), model ? &*model : nullptr, u);
   add_maps(page, folder, u);
   page.write(options.output_file);
   summary.charts = page.charts();

@@ -11,9 +11,9 @@ namespace aquiledger {
 
 struct ResultsReportOptions {
   std::filesystem::path results_folder;
-  std::filesystem::path output_file;                 ///< the HTML page
-  std::optional<std::filesystem::path> model_file;   ///< for measured heads (else summary.json)
-  bool without_model = false;  ///< no measured heads: the model is not read
+  std::filesystem::path output_file;                ///< the HTML page
+  std::optional<std::filesystem::path> model_file;  ///< for measured heads (else summary.json)
+  bool without_model = false;                       ///< no measured heads: the model is not read
 };
 
 /// The model whose measured heads the report should show cannot be read (or is not known):

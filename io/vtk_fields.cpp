@@ -331,9 +331,8 @@ FieldMap read_field_vtr(const std::filesystem::path& path, const std::string& ar
     for (int i = 0; i < n_cols; ++i) {
       const int row = n_rows - 1 - j;  // VTK's j grows northward
       const vtkIdType id = j * n_cols + i;
-      const bool hidden =
-          ghost != nullptr &&
-          (static_cast<int>(ghost->GetTuple1(id)) & vtkDataSetAttributes::HIDDENCELL) != 0;
+      const bool hidden = ghost != nullptr && (static_cast<int>(ghost->GetTuple1(id)) &
+                                               vtkDataSetAttributes::HIDDENCELL) != 0;
       map.values[static_cast<std::size_t>(row * n_cols + i)] =
           hidden ? nan_value : values->GetTuple1(id);
     }

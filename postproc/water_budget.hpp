@@ -15,8 +15,18 @@ namespace aquiledger {
 /// Budget components (the `component` column of the budget tables; io/result_tables.hpp
 /// lists them in the results contract's order).
 enum class BudgetComponent {
-  storage_skeleton, storage_water, storage_drainage, storage_elastic, fixed_head, well,
-  recharge, river, drain, external_head, evapotranspiration, leakage
+  storage_skeleton,
+  storage_water,
+  storage_drainage,
+  storage_elastic,
+  fixed_head,
+  well,
+  recharge,
+  river,
+  drain,
+  external_head,
+  evapotranspiration,
+  leakage
 };
 inline constexpr std::size_t n_budget_components = 12;
 
@@ -38,7 +48,9 @@ struct WaterBudget {
   double well_shortfall = 0.0;  ///< same unit as the components
 
   InOut& operator[](BudgetComponent c) { return components[static_cast<std::size_t>(c)]; }
-  const InOut& operator[](BudgetComponent c) const { return components[static_cast<std::size_t>(c)]; }
+  const InOut& operator[](BudgetComponent c) const {
+    return components[static_cast<std::size_t>(c)];
+  }
   double total_in() const;
   double total_out() const;
   /// 100 (in - out) / ((in + out) / 2); 0 when both are 0.

@@ -15,11 +15,11 @@ enum class Condition { confined, water_table, switching };
 
 /// Compressibility route inputs (Jacob, 1940): Ss = rho g (alpha + n beta).
 struct Compressibility {
-  double skeleton = 0.0;  ///< alpha, 1/Pa (uniform value used for reporting; per cell below)
-  double porosity = 0.0;  ///< n, -
-  double water = 4.6e-10; ///< beta, 1/Pa
-  double density = 998.2; ///< rho, kg/m3
-  double gravity = 9.80665; ///< g, m/s2
+  double skeleton = 0.0;     ///< alpha, 1/Pa (uniform value used for reporting; per cell below)
+  double porosity = 0.0;     ///< n, -
+  double water = 4.6e-10;    ///< beta, 1/Pa
+  double density = 998.2;    ///< rho, kg/m3
+  double gravity = 9.80665;  ///< g, m/s2
 };
 
 struct Aquifer {
@@ -39,8 +39,8 @@ struct Aquifer {
 };
 
 struct Initial {
-  bool steady = false;        ///< start from the steady state of period 1's stresses
-  std::vector<double> head;   ///< L, n_cells (empty when steady)
+  bool steady = false;       ///< start from the steady state of period 1's stresses
+  std::vector<double> head;  ///< L, n_cells (empty when steady)
 };
 
 struct Period {
@@ -56,7 +56,7 @@ struct Well {
   std::string name;
   double x = 0.0, y = 0.0;  ///< L
   CellIndex cell;
-  PeriodValues rate;        ///< L3/T, positive = withdrawal
+  PeriodValues rate;  ///< L3/T, positive = withdrawal
 };
 
 struct FixedHead {
@@ -74,10 +74,10 @@ struct Recharge {
 struct River {
   std::string name;
   std::vector<CellIndex> cells;
-  std::vector<double> length;    ///< L of channel in each cell (1 per cell for cells/mask placement)
-  PeriodValues stage;            ///< L
-  PeriodValues bed_bottom;       ///< L
-  PeriodValues conductance;      ///< L2/T per cell (per-length conductance times length)
+  std::vector<double> length;  ///< L of channel in each cell (1 per cell for cells/mask placement)
+  PeriodValues stage;          ///< L
+  PeriodValues bed_bottom;     ///< L
+  PeriodValues conductance;    ///< L2/T per cell (per-length conductance times length)
 };
 
 struct Drain {

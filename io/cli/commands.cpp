@@ -12,8 +12,8 @@
 #include "io/atomic_file.hpp"
 #include "io/check_report.hpp"
 #include "io/checkpoint.hpp"
-#include "io/memory_guard.hpp"
 #include "io/cli/distributed_run.hpp"
+#include "io/memory_guard.hpp"
 #include "io/model_reader.hpp"
 #include "io/result_recorder.hpp"
 #include "io/run_report.hpp"
@@ -99,7 +99,8 @@ int run_run_command(const RunOptions& options) {
     if (root) std::fprintf(stderr, "error: %s\nNothing was run.\n", why.c_str());
     return exit_usage;
   }
-  const std::filesystem::path folder = options.output_folder ? *options.output_folder : model.output.folder;
+  const std::filesystem::path folder =
+      options.output_folder ? *options.output_folder : model.output.folder;
 
   const bool quiet = options.quiet || !root;
   const bool terminal = isatty(fileno(stderr)) && !quiet;
@@ -125,9 +126,10 @@ int run_run_command(const RunOptions& options) {
     if (options.resume) {
       resume_from = read_checkpoint(folder);
       if (auto why = checkpoint_mismatch(resume_from->inputs, *fingerprint, options.model_file))
-        throw CheckpointError(fmt::format("cannot resume: {}; the checkpoint in '{}' belongs to another "
-                                          "model (run without --resume to start over)",
-                                          *why, folder.string()));
+        throw CheckpointError(
+            fmt::format("cannot resume: {}; the checkpoint in '{}' belongs to another "
+                        "model (run without --resume to start over)",
+                        *why, folder.string()));
       if (resume_from->state.head.size() != static_cast<std::size_t>(model.grid.n_cells()))
         throw CheckpointError("cannot resume: the checkpoint's heads do not fit the grid");
     }
@@ -145,8 +147,9 @@ int run_run_command(const RunOptions& options) {
                stdout);
     for (const auto& w : model.warnings) std::fprintf(stdout, "  warning: %s\n", w.c_str());
     if (resume_from)
-      std::fputs(fmt::format("  resumed at period {}, step {}, t = {:g} {}\n", resume_from->state.period + 1,
-                             resume_from->state.step_in_period, resume_from->state.time, model.time_unit)
+      std::fputs(fmt::format("  resumed at period {}, step {}, t = {:g} {}\n",
+                             resume_from->state.period + 1, resume_from->state.step_in_period,
+                             resume_from->state.time, model.time_unit)
                      .c_str(),
                  stdout);
     std::fflush(stdout);
@@ -176,15 +179,18 @@ int run_run_command(const RunOptions& options) {
     sim.memory_bytes = usable_memory_bytes().value_or(0.0);
     if (resume_from) {
       if (resume_from->threads != model.solver.threads)
-        std::fprintf(stderr, "warning: the checkpointed run used --threads %d, this one %d: results may "
-                             "differ in the last digits\n", resume_from->threads, model.solver.threads);
+        std::fprintf(stderr,
+                     "warning: the checkpointed run used --threads %d, this one %d: results may "
+                     "differ in the last digits\n",
+                     resume_from->threads, model.solver.threads);
       recorder->restore(std::move(resume_from->recorder));
       sim.start = std::move(resume_from->state);
     }
     if (options.checkpoint_every > 0) {
       sim.checkpoint_every = options.checkpoint_every;
       sim.checkpoint = [&](const StartState& state) {
-        write_checkpoint(folder, Checkpoint{*fingerprint, model.solver.threads, state, recorder->state()});
+        write_checkpoint(folder,
+                         Checkpoint{*fingerprint, model.solver.threads, state, recorder->state()});
       };
     }
     run = engine->run(model, *recorder, sim);
@@ -214,7 +220,8 @@ int run_run_command(const RunOptions& options) {
   summary.unknowns = recorder->layout().n_unknowns();
   summary.linear_iterations = run.linear_iterations;
   summary.cutbacks = run.cutbacks;
-  for (const auto& row : recorder->period_rows()) summary.well_shortfall_volume += row.volumes.well_shortfall;
+  for (const auto& row : recorder->period_rows())
+    summary.well_shortfall_volume += row.volumes.well_shortfall;
   summary.cells = model.grid.n_cells();
   summary.active_cells = model.grid.n_active();
   summary.periods = static_cast<int>(model.periods.size());
@@ -243,17 +250,32 @@ int run_run_command(const RunOptions& options) {
   if (!quiet) {
     std::fputs("\n", stdout);
     std::fputs(format_period_budget_table(model, recorder->period_rows()).c_str(), stdout);
-    std::fputs(fmt::format("\n  steps          {} accepted, {} with cut-backs\n", stats.steps, run.cutbacks).c_str(), stdout);
+    std::fputs(fmt::format("\n  steps          {} accepted, {} with cut-backs\n", stats.steps,
+                           run.cutbacks)
+                   .c_str(),
+               stdout);
     std::fputs(fmt::format("  Newton         median {:g}, largest {} iterations per step\n",
-                           median(stats.newton_iterations), stats.max_newton_iterations).c_str(), stdout);
-    std::fputs(fmt::format("  linear solver  {} ({})\n", run.linear_solver, run.linear_reason).c_str(), stdout);
-    std::fputs(fmt::format("  largest step imbalance {:.3g} %\n", stats.max_abs_imbalance_percent).c_str(), stdout);
+                           median(stats.newton_iterations), stats.max_newton_iterations)
+                   .c_str(),
+               stdout);
+    std::fputs(
+        fmt::format("  linear solver  {} ({})\n", run.linear_solver, run.linear_reason).c_str(),
+        stdout);
+    std::fputs(
+        fmt::format("  largest step imbalance {:.3g} %\n", stats.max_abs_imbalance_percent).c_str(),
+        stdout);
     if (summary.well_shortfall_volume > 0.0)
       std::fputs(fmt::format("  well shortfall {:.4g} {}3 not delivered where cells ran dry\n",
-                             summary.well_shortfall_volume, model.length_unit).c_str(), stdout);
+                             summary.well_shortfall_volume, model.length_unit)
+                     .c_str(),
+                 stdout);
     std::fputs(fmt::format("  wall time      {:.2f} s ({:.0f} % writing results)\n", wall,
-                           wall > 0 ? 100.0 * stats.output_seconds / wall : 0.0).c_str(), stdout);
-    std::fputs(fmt::format("  results in     {}\n\n{}\n", folder.string(), professional_caution).c_str(), stdout);
+                           wall > 0 ? 100.0 * stats.output_seconds / wall : 0.0)
+                   .c_str(),
+               stdout);
+    std::fputs(
+        fmt::format("  results in     {}\n\n{}\n", folder.string(), professional_caution).c_str(),
+        stdout);
   }
   if (!run.converged) {
     if (root)

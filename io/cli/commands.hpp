@@ -26,8 +26,8 @@ struct RunOptions {
   std::optional<std::filesystem::path> output_folder;
   std::optional<int> threads;
   bool quiet = false;
-  int checkpoint_every = 0;  ///< write a checkpoint every N accepted steps (0: never)
-  bool resume = false;       ///< continue from the output folder's checkpoint
+  int checkpoint_every = 0;       ///< write a checkpoint every N accepted steps (0: never)
+  bool resume = false;            ///< continue from the output folder's checkpoint
   std::string engine = "serial";  ///< "serial", or "petsc" (distributed, under mpirun)
 };
 

@@ -58,7 +58,8 @@ TEST_CASE("the report shows the compressibility shares", "[check_report]") {
 }
 
 TEST_CASE("the Marrow Basin demo is accepted and reported", "[check_report]") {
-  auto r = read_model_file(std::string(AQUILEDGER_SOURCE_DIR) + "/cases/01-marrow-basin/model.toml");
+  auto r =
+      read_model_file(std::string(AQUILEDGER_SOURCE_DIR) + "/cases/01-marrow-basin/model.toml");
   for (const auto& d : r.diagnostics) INFO(d.to_string());
   REQUIRE(r.ok());
   const Model& m = *r.model;

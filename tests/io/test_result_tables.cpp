@@ -51,9 +51,8 @@ std::vector<std::string> lines_of_text(const std::string& text) {
 
 /// The budget tables' columns as the format contract fixes them (model-format.md,
 /// "Results", version 2), written out here rather than taken from the code under test.
-const std::vector<std::string> step_columns = {"period",       "step",           "time",
-                                               "dt",           "component",      "into_aquifer",
-                                               "out_of_aquifer", "unit"};
+const std::vector<std::string> step_columns = {
+    "period", "step", "time", "dt", "component", "into_aquifer", "out_of_aquifer", "unit"};
 const std::vector<std::string> period_columns = {
     "period", "period_name", "start", "end", "component", "into_aquifer", "out_of_aquifer", "unit"};
 
@@ -70,16 +69,15 @@ WaterBudget odd_budget(double scale) {
 
 /// A layout as a confined model with compressibilities, wells and a river would have.
 BudgetTableLayout split_layout() {
-  return {{BudgetComponent::storage_skeleton, BudgetComponent::storage_water,
-           BudgetComponent::well, BudgetComponent::river},
+  return {{BudgetComponent::storage_skeleton, BudgetComponent::storage_water, BudgetComponent::well,
+           BudgetComponent::river},
           "m3/d",
           "m3"};
 }
 
 }  // namespace
 
-TEST_CASE("budget step table is long, one row per component and step with its unit",
-          "[io][csv]") {
+TEST_CASE("budget step table is long, one row per component and step with its unit", "[io][csv]") {
   const auto folder = scratch_folder("budget-steps");
   std::vector<BudgetStepRow> rows(1);
   rows[0].period = 1;
@@ -94,8 +92,8 @@ TEST_CASE("budget step table is long, one row per component and step with its un
   const auto lines = lines_of(folder / "budget_steps.csv");
   REQUIRE(lines.size() == 1 + 5);  // header, four components, total
   CHECK(fields_of(lines[0]) == step_columns);
-  const std::vector<std::string> components = {"storage_skeleton", "storage_water", "well",
-                                               "river", "total"};
+  const std::vector<std::string> components = {"storage_skeleton", "storage_water", "well", "river",
+                                               "total"};
   const WaterBudget& b = rows[0].rates;
   for (std::size_t k = 0; k < components.size(); ++k) {
     const auto f = fields_of(lines[1 + k]);
@@ -177,8 +175,7 @@ TEST_CASE("balance tables report the hand-computed imbalance, iterations and cel
   std::filesystem::remove_all(folder);
 }
 
-TEST_CASE("budget period table quotes names and writes volumes with the volume unit",
-          "[io][csv]") {
+TEST_CASE("budget period table quotes names and writes volumes with the volume unit", "[io][csv]") {
   const auto folder = scratch_folder("budget-periods");
   BudgetPeriodRow row;
   row.period = 2;
@@ -187,10 +184,10 @@ TEST_CASE("budget period table quotes names and writes volumes with the volume u
   row.end = 485.0;
   row.volumes[BudgetComponent::well] = {1.0, 99.0};
   row.volumes[BudgetComponent::recharge] = {100.0, 0.0};
-  const BudgetTableLayout layout{{BudgetComponent::storage_elastic, BudgetComponent::well,
-                                  BudgetComponent::recharge},
-                                 "ft3/s",
-                                 "ft3"};
+  const BudgetTableLayout layout{
+      {BudgetComponent::storage_elastic, BudgetComponent::well, BudgetComponent::recharge},
+      "ft3/s",
+      "ft3"};
   write_budget_periods_csv(folder / "budget_periods.csv", layout, {row});
   const auto lines = lines_of(folder / "budget_periods.csv");
   REQUIRE(lines.size() == 1 + 4);
@@ -224,11 +221,10 @@ TEST_CASE("a model's budget layout lists storage always and only the stresses it
   m.wells.push_back(Well{});
   m.rivers.push_back(River{});
   l = budget_table_layout(m);
-  CHECK(l.components ==
-        std::vector<BudgetComponent>{BudgetComponent::storage_skeleton,
-                                     BudgetComponent::storage_water,
-                                     BudgetComponent::storage_drainage, BudgetComponent::well,
-                                     BudgetComponent::river});
+  CHECK(l.components == std::vector<BudgetComponent>{
+                            BudgetComponent::storage_skeleton, BudgetComponent::storage_water,
+                            BudgetComponent::storage_drainage, BudgetComponent::well,
+                            BudgetComponent::river});
   // The names in the tables are the contract's (model-format.md, "Results").
   std::vector<std::string> names;
   for (BudgetComponent c : l.components) names.emplace_back(component_label(c));

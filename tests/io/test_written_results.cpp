@@ -219,8 +219,7 @@ TEST_CASE("written budget of recharge draining to a fixed head balances one-side
   const double recharge = 0.001 * 6 * 50.0 * 40.0;
   CHECK(budget_value(budget, "recharge", "into_aquifer") == Approx(recharge).epsilon(1e-12));
   CHECK(budget_value(budget, "fixed_head", "out_of_aquifer") == Approx(recharge).epsilon(1e-5));
-  CHECK(budget_value(budget, "fixed_head", "into_aquifer") ==
-        Approx(0.0).margin(1e-5 * recharge));
+  CHECK(budget_value(budget, "fixed_head", "into_aquifer") == Approx(0.0).margin(1e-5 * recharge));
   std::filesystem::remove_all(folder);
 }
 
@@ -256,8 +255,8 @@ TEST_CASE("the recorder's files read back by the contract's names and agree with
   REQUIRE(balance.size() == 1 + 4);
   REQUIRE(balance_p.size() == 1 + 1);
   // storage_elastic (no compressibilities), storage_drainage, fixed_head, well, total.
-  const std::vector<std::string> components = {"storage_elastic", "storage_drainage",
-                                               "fixed_head", "well", "total"};
+  const std::vector<std::string> components = {"storage_elastic", "storage_drainage", "fixed_head",
+                                               "well", "total"};
   REQUIRE(steps.size() == 1 + 4 * components.size());
   REQUIRE(periods.size() == 1 + components.size());
   CHECK(features[0] == std::vector<std::string>{"period", "period_name", "feature", "kind",

@@ -43,7 +43,7 @@ class BudgetObserver : public SimulationObserver {
   std::vector<std::vector<double>> heads;
   std::vector<double> last_head;
   std::vector<std::size_t> periods_done;
-  WaterBudget cumulative;        ///< volumes (L3) since the start
+  WaterBudget cumulative;      ///< volumes (L3) since the start
   double max_imbalance = 0.0;  ///< percent
 
  private:
