@@ -35,12 +35,14 @@ void append_rows(std::string& out, const RectilinearGrid& g, std::span<const dou
 
 std::string head_text_array(const Model& model, std::span<const double> head, double time) {
   const RectilinearGrid& g = model.grid;
+  std::string title = model.title;  // one comment line
+  std::replace_if(
+      title.begin(), title.end(), [](char ch) { return ch == '\n' || ch == '\r'; }, ' ');
   std::string out = fmt::format(
       "# aquiledger heads ({}) at t = {} {}, model \"{}\"\n"
       "# {} rows (northern row first) of {} columns; inactive cells hold {} (ignored when read)\n"
       "# start a model from it: [initial] head = {{ file = \"...\" }}\n",
-      model.length_unit, time, model.time_unit, model.title, g.n_rows(), g.n_cols(),
-      head_array_no_value);
+      model.length_unit, time, model.time_unit, title, g.n_rows(), g.n_cols(), head_array_no_value);
   append_rows(out, g, head, " ");
   return out;
 }
