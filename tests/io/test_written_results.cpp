@@ -286,7 +286,10 @@ TEST_CASE("the recorder's files read back by the contract's names and agree with
     // s + 1; file 0 is time 0).
     const FieldMap state = read_field_vtr(folder / field_file_name(s + 1), "state");
     long counted[3] = {0, 0, 0};
-    for (double v : state.values) counted[static_cast<int>(v)] += 1;
+    for (double v : state.values) {
+      REQUIRE((v == 0.0 || v == 1.0 || v == 2.0));  // every cell is active here
+      counted[static_cast<int>(v)] += 1;
+    }
     CHECK(num(balance[1 + s][column(balance[0], "dry_cells")]) == counted[0]);
     CHECK(num(balance[1 + s][column(balance[0], "water_table_cells")]) == counted[1]);
     CHECK(num(balance[1 + s][column(balance[0], "confined_cells")]) == counted[2]);
