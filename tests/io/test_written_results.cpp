@@ -193,8 +193,8 @@ TEST_CASE("written fields, budget and observations of a steady strip obey Darcy'
 }
 
 // One-sided budget: steady recharge R over a strip closed on three sides leaves only through
-// the fixed-head column, so the written fixed_head_out equals R times the recharged area and
-// fixed_head_in is zero (conservation of mass in a steady state; no storage term).
+// the fixed-head column, so the fixed_head row's out_of_aquifer equals R times the area and
+// its into_aquifer is zero (conservation of mass in a steady state; no storage term).
 // Tolerance: the steady Newton solve stops at flow_tolerance 1e-6 of the throughflow, well
 // below 1e-5 relative.
 TEST_CASE("written budget of recharge draining to a fixed head balances one-sidedly",
