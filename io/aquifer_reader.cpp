@@ -2,6 +2,7 @@
 #include <cmath>
 
 #include "io/field_value.hpp"
+#include "io/head_arrays.hpp"
 #include "io/section_readers.hpp"
 #include "io/toml_access.hpp"
 
@@ -200,7 +201,10 @@ void read_aquifer(ReaderContext& ctx, const toml::table& root, Model& model) {
   a.ky = k->values;
   for (const auto* f : {&k, &sy, &ss})
     if (*f && !(*f)->zone.empty())
-      model.zone_maps.push_back({f == &k ? "k" : f == &sy ? "specific_yield" : "specific_storage", (*f)->zone});
+      model.zone_maps.push_back({f == &k    ? "k"
+                                 : f == &sy ? "specific_yield"
+                                            : "specific_storage",
+                                 (*f)->zone});
   if (ratio)
     for (std::size_t c = 0; c < n; ++c) a.ky[c] *= ratio->values[c];
   a.bottom = std::move(bottom->values);
@@ -235,6 +239,13 @@ void read_initial(ReaderContext& ctx, const toml::table& root, Model& model) {
   if (!check_field(
           ctx, *head, path + ".head", [](double v) { return std::isfinite(v); },
           "a head in " + ctx.length_unit))
+    return;
+  // A head array written by a run whose active cells differ marks its inactive cells with
+  // the no-value number: such a cell active here has no head to start from.
+  if (!check_field(
+          ctx, *head, path + ".head", [](double v) { return v != head_array_no_value; },
+          "a head; " + show_number(head_array_no_value) +
+              " marks a cell that was inactive in the run that wrote the head array"))
     return;
   if (!ctx.diagnostics.has_errors()) model.initial.head = std::move(head->values);
 }

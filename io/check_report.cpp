@@ -1,5 +1,6 @@
 #include "io/check_report.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <map>
@@ -118,7 +119,7 @@ void aquifer_part(Report& r, const Model& m) {
            range_text({100.0 * share.first, 100.0 * share.second}, "%") + " : " +
                range_text({100.0 * (1.0 - share.second), 100.0 * (1.0 - share.first)}, "%"));
   } else if (a.condition != Condition::water_table) {
-    r.item("storage route", "specific storage given (one elastic budget column)");
+    r.item("storage route", "specific storage given (budget component storage_elastic)");
   }
 }
 
@@ -138,23 +139,28 @@ void zone_part(Report& r, const Model& m) {
     for (const auto& [zone, list] : cells) {
       auto range = [&](auto value_of) {
         std::pair<double, double> mm{INFINITY, -INFINITY};
-        for (std::size_t c : list) mm = {std::min(mm.first, value_of(c)), std::max(mm.second, value_of(c))};
+        for (std::size_t c : list)
+          mm = {std::min(mm.first, value_of(c)), std::max(mm.second, value_of(c))};
         return mm;
       };
       std::string text = std::to_string(list.size()) + " cells; ";
       if (zm.key == "k") {
         text += "Kx " + range_text(range([&](std::size_t c) { return a.kx[c]; }), L + "/" + T);
         if (!std::isnan(a.top[list.front()]))
-          text += ", T " + range_text(range([&](std::size_t c) { return a.kx[c] * (a.top[c] - a.bottom[c]); }),
-                                      L + "2/" + T);
+          text +=
+              ", T " +
+              range_text(range([&](std::size_t c) { return a.kx[c] * (a.top[c] - a.bottom[c]); }),
+                         L + "2/" + T);
       } else if (zm.key == "specific_yield") {
         text += "Sy " + range_text(range([&](std::size_t c) { return a.specific_yield[c]; }), "");
       } else {
-        text += "Ss " + range_text(range([&](std::size_t c) { return a.specific_storage[c]; }), "1/" + L);
+        text += "Ss " +
+                range_text(range([&](std::size_t c) { return a.specific_storage[c]; }), "1/" + L);
         if (!std::isnan(a.top[list.front()]))
           text += ", S " + range_text(range([&](std::size_t c) {
                                         return a.specific_storage[c] * (a.top[c] - a.bottom[c]);
-                                      }), "");
+                                      }),
+                                      "");
       }
       r.item("  " + zm.key + " zone " + std::to_string(zone), text);
     }
@@ -190,37 +196,55 @@ std::string cell_text(const RectilinearGrid& g, CellIndex c) {
   return "row " + std::to_string(rc.row + 1) + ", column " + std::to_string(rc.col + 1);
 }
 
+/// "rows 3-17, columns 1-4": the rows and columns a feature's cells span (1-based).
+std::string span_text(const RectilinearGrid& g, const std::vector<CellIndex>& cells) {
+  if (cells.empty()) return "no cells";
+  int r0 = g.n_rows(), r1 = -1, c0 = g.n_cols(), c1 = -1;
+  for (CellIndex c : cells) {
+    const RowCol rc = g.row_col(c);
+    r0 = std::min(r0, rc.row), r1 = std::max(r1, rc.row);
+    c0 = std::min(c0, rc.col), c1 = std::max(c1, rc.col);
+  }
+  auto range = [](const char* what, int a, int b) {
+    return a == b ? std::string(what) + " " + std::to_string(a + 1)
+                  : std::string(what) + "s " + std::to_string(a + 1) + "-" + std::to_string(b + 1);
+  };
+  return range("row", r0, r1) + ", " + range("column", c0, c1);
+}
+
 void feature_part(Report& r, const Model& m) {
   const std::string L = m.length_unit, T = m.time_unit;
   r.heading("Features");
-  auto cells = [](std::size_t n) { return std::to_string(n) + (n == 1 ? " cell" : " cells"); };
+  auto cells_only = [](std::size_t n) { return std::to_string(n) + (n == 1 ? " cell" : " cells"); };
+  auto cells = [&](const std::vector<CellIndex>& list) {
+    return cells_only(list.size()) + " (" + span_text(m.grid, list) + ")";
+  };
   for (const Well& w : m.wells)
     r.item("well \"" + w.name + "\"",
            cell_text(m.grid, w.cell) + "; rate " + range_text(value_range(w.rate), L + "3/" + T));
   for (const FixedHead& f : m.fixed_heads)
     r.item("fixed_head \"" + f.name + "\"",
-           cells(f.cells.size()) + "; head " + range_text(value_range(f.head), L));
+           cells(f.cells) + "; head " + range_text(value_range(f.head), L));
   for (const Recharge& f : m.recharges)
     r.item("recharge \"" + f.name + "\"",
-           cells(f.cells.size()) + "; rate " + range_text(value_range(f.rate), L + "/" + T));
+           cells(f.cells) + "; rate " + range_text(value_range(f.rate), L + "/" + T));
   for (const River& f : m.rivers) {
     double total = 0.0;
     for (double l : f.length) total += l;
-    r.item("river \"" + f.name + "\"", cells(f.cells.size()) + "; channel " + g3(total) + " " + L +
+    r.item("river \"" + f.name + "\"", cells(f.cells) + "; channel " + g3(total) + " " + L +
                                            "; stage " + range_text(value_range(f.stage), L));
   }
   for (const Drain& f : m.drains)
     r.item("drain \"" + f.name + "\"",
-           cells(f.cells.size()) + "; elevation " + range_text(value_range(f.elevation), L));
+           cells(f.cells) + "; elevation " + range_text(value_range(f.elevation), L));
   for (const ExternalHead& f : m.external_heads)
     r.item("external_head \"" + f.name + "\"",
-           cells(f.cells.size()) + "; head " + range_text(value_range(f.head), L));
+           cells(f.cells) + "; head " + range_text(value_range(f.head), L));
   for (const Evapotranspiration& f : m.evapotranspiration)
-    r.item(
-        "evapotranspiration \"" + f.name + "\"",
-        cells(f.cells.size()) + "; max rate " + range_text(value_range(f.max_rate), L + "/" + T));
+    r.item("evapotranspiration \"" + f.name + "\"",
+           cells(f.cells) + "; max rate " + range_text(value_range(f.max_rate), L + "/" + T));
   if (m.leakage)
-    r.item("leakage", cells(m.leakage->cells.size()) + "; leakance " +
+    r.item("leakage", cells(m.leakage->cells) + "; leakance " +
                           range_text(value_range(m.leakage->leakance), "1/" + T) +
                           "; source head " + range_text(value_range(m.leakage->source_head), L));
   for (const Observation& o : m.observations)

@@ -1,10 +1,10 @@
 #include "io/checkpoint.hpp"
 
+#include <fmt/format.h>
+
 #include <algorithm>
 #include <fstream>
 #include <sstream>
-
-#include <fmt/format.h>
 
 #include "io/atomic_file.hpp"
 #include "io/binary_stream.hpp"
@@ -81,6 +81,10 @@ void put_recorder(BinaryWriter& w, const RecorderState& s) {
     w.put(row.time);
     w.put(row.dt);
     put_budget(w, row.rates);
+    w.put<std::int32_t>(row.newton_iterations);
+    w.put<std::int32_t>(row.cutbacks);
+    for (long n : {row.cells.confined, row.cells.water_table, row.cells.dry})
+      w.put<std::int64_t>(n);
   }
   w.put_size(s.period_rows.size());
   for (const BudgetPeriodRow& row : s.period_rows) {
@@ -107,9 +111,10 @@ void put_recorder(BinaryWriter& w, const RecorderState& s) {
   w.put<std::int32_t>(s.stats.steps);
   w.put<std::int32_t>(s.stats.max_newton_iterations);
   w.put_vector(s.stats.newton_iterations);
-  w.put(s.stats.max_abs_discrepancy_percent);
+  w.put(s.stats.max_abs_imbalance_percent);
   w.put<std::int32_t>(s.stats.field_files);
   w.put(s.stats.output_seconds);
+  w.put_size(s.head_arrays_done);
 }
 
 RecorderState get_recorder(BinaryReader& r) {
@@ -124,6 +129,10 @@ RecorderState get_recorder(BinaryReader& r) {
     row.time = r.get<double>();
     row.dt = r.get<double>();
     row.rates = get_budget(r);
+    row.newton_iterations = r.get<std::int32_t>();
+    row.cutbacks = r.get<std::int32_t>();
+    for (long* n : {&row.cells.confined, &row.cells.water_table, &row.cells.dry})
+      *n = static_cast<long>(r.get<std::int64_t>());
   }
   s.period_rows.resize(r.get_size());
   for (BudgetPeriodRow& row : s.period_rows) {
@@ -150,9 +159,10 @@ RecorderState get_recorder(BinaryReader& r) {
   s.stats.steps = r.get<std::int32_t>();
   s.stats.max_newton_iterations = r.get<std::int32_t>();
   s.stats.newton_iterations = r.get_vector<int>();
-  s.stats.max_abs_discrepancy_percent = r.get<double>();
+  s.stats.max_abs_imbalance_percent = r.get<double>();
   s.stats.field_files = r.get<std::int32_t>();
   s.stats.output_seconds = r.get<double>();
+  s.head_arrays_done = static_cast<std::size_t>(r.get<std::uint64_t>());
   return s;
 }
 
@@ -162,13 +172,14 @@ InputFingerprint fingerprint_inputs(const Model& model) {
   InputFingerprint f;
   const auto model_bytes = read_bytes(model.source_file);
   if (!model_bytes)
-    throw CheckpointError(fmt::format("cannot read the model file '{}'", model.source_file.string()));
+    throw CheckpointError(
+        fmt::format("cannot read the model file '{}'", model.source_file.string()));
   f.model = fnv1a(*model_bytes);
   for (const auto& file : model.input_files) {
     const auto bytes = read_bytes(file);
     if (!bytes)
-      throw CheckpointError(fmt::format("cannot read input file '{}' (deleted since the model was read?)",
-                                        file.string()));
+      throw CheckpointError(fmt::format(
+          "cannot read input file '{}' (deleted since the model was read?)", file.string()));
     f.files.emplace_back(file.string(), fnv1a(*bytes));
   }
   return f;
@@ -209,8 +220,9 @@ Checkpoint decode_checkpoint(std::string_view bytes) {
       if (r.get<char>() != ch) throw CheckpointError("not an aquiledger checkpoint file");
     const auto version = r.get<std::uint32_t>();
     if (version != checkpoint_format_version)
-      throw CheckpointError(fmt::format("checkpoint format version {}; this program reads version {}",
-                                        version, checkpoint_format_version));
+      throw CheckpointError(
+          fmt::format("checkpoint format version {}; this program reads version {}", version,
+                      checkpoint_format_version));
     if (r.get<std::uint32_t>() != byte_order_mark)
       throw CheckpointError("checkpoint written on a machine of another byte order");
     Checkpoint c;
@@ -248,8 +260,10 @@ Checkpoint read_checkpoint(const std::filesystem::path& folder) {
   const std::filesystem::path file = folder / checkpoint_file_name;
   const auto bytes = read_bytes(file);
   if (!bytes)
-    throw CheckpointError(fmt::format("no checkpoint '{}' to resume from (run with "
-                                      "--checkpoint-every N first)", file.string()));
+    throw CheckpointError(
+        fmt::format("no checkpoint '{}' to resume from (run with "
+                    "--checkpoint-every N first)",
+                    file.string()));
   try {
     return decode_checkpoint(*bytes);
   } catch (const CheckpointError& e) {

@@ -1,5 +1,7 @@
 #include "io/feature_placement.hpp"
 
+#include <fmt/format.h>
+
 #include <algorithm>
 #include <array>
 #include <cmath>
@@ -32,6 +34,49 @@ std::vector<CellIndex> edge_cells(const RectilinearGrid& g, const std::string& e
     }
   }
   return cells;
+}
+
+/// Distance (L) from the grid's own edge to the outer face of an edge cell.
+double inset_from_grid_edge(const RectilinearGrid& g, const std::string& edge, CellIndex c) {
+  const RowCol rc = g.row_col(c);
+  const auto xe = g.x_edges();
+  const auto ye = g.y_edges();  // north first
+  if (edge == "west") return xe[std::size_t(rc.col)] - g.x_min();
+  if (edge == "east") return g.x_max() - xe[std::size_t(rc.col) + 1];
+  if (edge == "north") return g.y_max() - ye[std::size_t(rc.row)];
+  return ye[std::size_t(rc.row) + 1] - g.y_min();
+}
+
+/// With an irregular active mask, `edge` takes the outermost active cell of every row or
+/// column, which can lie deep inside the grid (where the model's outline turns away from
+/// that side). Warns when the farthest lies more than a tenth of the grid's extent across
+/// that side inside the grid's edge (our threshold: far enough that the cells no longer
+/// trace the side the user named).
+void warn_far_edge_cells(ReaderContext& ctx, const toml::node& node, const std::string& path,
+                         const std::string& edge, const std::vector<CellIndex>& cells) {
+  const RectilinearGrid& g = *ctx.grid;
+  const bool across_x = edge == "west" || edge == "east";
+  const double extent = across_x ? g.x_max() - g.x_min() : g.y_max() - g.y_min();
+  const double limit = 0.1 * extent;
+  int far = 0;
+  double farthest = 0.0;
+  CellIndex where{0};
+  for (CellIndex c : cells) {
+    const double d = inset_from_grid_edge(g, edge, c);
+    if (d > limit) ++far;
+    if (d > farthest) farthest = d, where = c;
+  }
+  if (far == 0) return;
+  const RowCol rc = g.row_col(where);
+  ctx.warning(ctx.spot(node), path + ".edge",
+              std::to_string(far) + " of the " + std::to_string(cells.size()) +
+                  " cells of edge = \"" + edge + "\" lie more than " +
+                  fmt::format("{:.4g}", limit) + " " + ctx.length_unit +
+                  " (a tenth of the grid) inside the grid's " + edge + " edge, the farthest " +
+                  fmt::format("{:.4g}", farthest) + " " + ctx.length_unit + " (row " +
+                  std::to_string(rc.row + 1) + ", column " + std::to_string(rc.col + 1) +
+                  "): the active outline turns away there; use cells, mask or polyline to place "
+                  "the boundary exactly");
 }
 
 std::optional<std::vector<CellIndex>> listed_cells(ReaderContext& ctx, const toml::node& node,
@@ -214,7 +259,10 @@ std::optional<Placement> read_placement(ReaderContext& ctx, const toml::table& t
   std::optional<std::vector<CellIndex>> cells;
   if (which == "edge") {
     auto edge = read_choice(ctx, table, "edge", path, {"north", "south", "east", "west"});
-    if (edge) cells = edge_cells(*ctx.grid, *edge);
+    if (edge) {
+      cells = edge_cells(*ctx.grid, *edge);
+      warn_far_edge_cells(ctx, node, path, *edge, *cells);
+    }
   } else if (which == "cells") {
     cells = listed_cells(ctx, node, key);
   } else {

@@ -58,9 +58,16 @@ ReadResult read_parsed(ReaderContext& ctx, const toml::table& root) {
   ReadResult result;
   if (!ctx.diagnostics.has_errors()) {
     for (auto& w : plausibility_warnings(model)) ctx.warning(ctx.file_spot(), w.key, w.message);
-    for (const Diagnostic& d : ctx.diagnostics.items())
-      if (d.severity == Severity::warning)
-        model.warnings.push_back((d.key.empty() ? "" : d.key + ": ") + d.message);
+    // Each warning once, with where it comes from (a message the reader gave twice, e.g.
+    // for two features, is listed once).
+    for (const Diagnostic& d : ctx.diagnostics.items()) {
+      if (d.severity != Severity::warning) continue;
+      std::string text = d.to_string();
+      if (const auto at = text.find(": warning: "); at != std::string::npos)
+        text.replace(at, 11, ": ");
+      if (std::find(model.warnings.begin(), model.warnings.end(), text) == model.warnings.end())
+        model.warnings.push_back(std::move(text));
+    }
     result.model = std::move(model);
   }
   result.diagnostics = ctx.diagnostics.take();

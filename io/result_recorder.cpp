@@ -1,8 +1,10 @@
 #include "io/result_recorder.hpp"
 
+#include <fmt/format.h>
+
 #include <cmath>
 
-#include <fmt/format.h>
+#include "io/head_arrays.hpp"
 
 namespace aquiledger {
 
@@ -27,6 +29,7 @@ ResultRecorder::ResultRecorder(const Model& model, std::filesystem::path folder)
       folder_(std::move(folder)),
       layout_(make_system_layout(model)),
       features_(list_features(model)),
+      table_layout_(budget_table_layout(model)),
       sampler_(model.grid, model.observations),
       part_(GridPart::whole(model.grid)) {}
 
@@ -68,13 +71,16 @@ void ResultRecorder::initial_state(std::span<const double> head) {
   reduce(initial_observed_);
   for (std::size_t k = 0; k < initial_observed_.size(); ++k)
     observation_rows_.push_back({k, 0, 0, 0.0, initial_observed_[k], 0.0});
-  BudgetStepRow row{0, 0, 0.0, 0.0, empty_budget(features_.size())};
-  step_rows_.push_back(std::move(row));
   if (model_.output.fields != FieldCadence::none) {
     collectively([&] {
       if (writes_tables()) write_static_vtr(folder_ / "aquifer_properties.vtr", model_);
     });
     write_fields(0.0);
+  }
+  const std::vector<double>& times = model_.output.head_array_times;
+  if (head_arrays_done_ < times.size() && times[head_arrays_done_] <= 0.0) {
+    write_head_arrays_at(0.0, head);
+    while (head_arrays_done_ < times.size() && times[head_arrays_done_] <= 0.0) ++head_arrays_done_;
   }
   flush();
   stats_.output_seconds += seconds_since(start);
@@ -95,8 +101,13 @@ void ResultRecorder::step_done(const StepInfo& info, std::span<const double> hea
   WaterBudget rates = step_budget(model_, layout_, part_, info.period, info.steady, info.dt,
                                   window(head_old), window(head_new));
   reduce(rates);
-  const double discrepancy = std::abs(rates.discrepancy_percent());
-  stats_.max_abs_discrepancy_percent = std::max(stats_.max_abs_discrepancy_percent, discrepancy);
+  const double imbalance = std::abs(rates.imbalance_percent());
+  stats_.max_abs_imbalance_percent = std::max(stats_.max_abs_imbalance_percent, imbalance);
+  const CellStateCounts counted = count_cell_states(model_, part_, window(head_new));
+  std::vector<double> counts = {static_cast<double>(counted.confined),
+                                static_cast<double>(counted.water_table),
+                                static_cast<double>(counted.dry)};
+  reduce(counts);
   stats_.steps += 1;
   stats_.newton_iterations.push_back(info.newton_iterations);
   stats_.max_newton_iterations = std::max(stats_.max_newton_iterations, info.newton_iterations);
@@ -105,7 +116,10 @@ void ResultRecorder::step_done(const StepInfo& info, std::span<const double> hea
   prow.volumes.add_scaled(rates, info.dt);
   prow.end = info.time;
   time_ = info.time;
-  step_rows_.push_back({info.period + 1, info.step, info.time, info.dt, std::move(rates)});
+  step_rows_.push_back(
+      {info.period + 1, info.step, info.time, info.dt, std::move(rates), info.newton_iterations,
+       info.cutbacks,
+       CellStateCounts{std::lround(counts[0]), std::lround(counts[1]), std::lround(counts[2])}});
 
   // Cell fields exist only for the field files; compaction accumulates inside them.
   if (model_.output.fields != FieldCadence::none)
@@ -114,10 +128,20 @@ void ResultRecorder::step_done(const StepInfo& info, std::span<const double> hea
   std::vector<double> observed = sampler_.sample(window(head_new), part_);
   reduce(observed);
   for (std::size_t k = 0; k < observed.size(); ++k)
-    observation_rows_.push_back(
-        {k, info.period + 1, info.step, info.time, observed[k], initial_observed_[k] - observed[k]});
+    observation_rows_.push_back({k, info.period + 1, info.step, info.time, observed[k],
+                                 initial_observed_[k] - observed[k]});
 
   if (model_.output.fields == FieldCadence::every_step) write_fields(info.time);
+  // Heads at the end of the first step that reaches each chosen time (to round-off in the
+  // step ends: a time equal to a period end is met by that period's last step).
+  const std::vector<double>& times = model_.output.head_array_times;
+  const double reach = info.time * (1.0 + 1.0e-12);
+  if (head_arrays_done_ < times.size() && times[head_arrays_done_] <= reach) {
+    write_head_arrays_at(info.time, head_new);
+    while (head_arrays_done_ < times.size() && times[head_arrays_done_] <= reach)
+      ++head_arrays_done_;
+  }
+  if (model_.output.head_arrays_at_period_ends) last_head_.assign(head_new.begin(), head_new.end());
   stats_.output_seconds += seconds_since(start);
   if (progress_) progress_(info);
 }
@@ -127,6 +151,8 @@ void ResultRecorder::period_done(std::size_t period) {
   if (!period_open_ || current_period_ != period) start_period_row(period);  // zero-step guard
   period_open_ = false;
   if (model_.output.fields == FieldCadence::period_end) write_fields(time_);
+  if (model_.output.head_arrays_at_period_ends && !last_head_.empty())
+    write_head_arrays_at(time_, last_head_);
   flush();
   stats_.output_seconds += seconds_since(start);
 }
@@ -167,10 +193,28 @@ void ResultRecorder::write_fields(double time) {
   stats_.field_files = static_cast<int>(field_entries_.size());
 }
 
+void ResultRecorder::write_head_arrays_at(double time, std::span<const double> head) {
+  if (reduction_ == nullptr) {
+    write_head_arrays(folder_, model_, head, time);
+    return;
+  }
+  // Each rank adds its owned rows into a whole-grid array (zero elsewhere); inactive cells
+  // are blanked by the writer, so their NaN is kept out of the sum.
+  std::vector<double> whole(static_cast<std::size_t>(model_.grid.n_cells()), 0.0);
+  const CellValues mine = window(head);
+  for (std::int32_t i = part_.first_owned(); i < part_.end_owned(); ++i)
+    if (model_.grid.is_active(CellIndex{i}))
+      whole[static_cast<std::size_t>(i)] = mine[static_cast<std::size_t>(i)];
+  reduction_->sum(whole);
+  collectively([&] {
+    if (writes_tables()) write_head_arrays(folder_, model_, whole, time);
+  });
+}
+
 RecorderState ResultRecorder::state() const {
-  return {initial_head_, initial_observed_, fields_,        step_rows_, period_rows_,
-          observation_rows_, field_entries_, current_period_, period_open_, time_,
-          stats_};
+  return {
+      initial_head_,  initial_observed_, fields_,      step_rows_, period_rows_, observation_rows_,
+      field_entries_, current_period_,   period_open_, time_,      stats_,       head_arrays_done_};
 }
 
 void ResultRecorder::restore(RecorderState s) {
@@ -185,15 +229,19 @@ void ResultRecorder::restore(RecorderState s) {
   period_open_ = s.period_open;
   time_ = s.time;
   stats_ = std::move(s.stats);
+  head_arrays_done_ = s.head_arrays_done;
 }
 
 void ResultRecorder::flush() {
   collectively([&] {
     if (!writes_tables()) return;
     if (model_.output.budget) {
-      write_budget_steps_csv(folder_ / "budget_steps.csv", step_rows_);
-      write_budget_periods_csv(folder_ / "budget_periods.csv", period_rows_);
-      write_budget_features_csv(folder_ / "budget_features.csv", features_, period_rows_);
+      write_budget_steps_csv(folder_ / "budget_steps.csv", table_layout_, step_rows_);
+      write_budget_periods_csv(folder_ / "budget_periods.csv", table_layout_, period_rows_);
+      write_balance_steps_csv(folder_ / "balance_steps.csv", step_rows_);
+      write_balance_periods_csv(folder_ / "balance_periods.csv", period_rows_);
+      write_budget_features_csv(folder_ / "budget_features.csv", features_, period_rows_,
+                                table_layout_.volume_unit);
     }
     if (!model_.observations.empty())
       write_observations_csv(folder_ / "observations.csv", model_.observations, observation_rows_);

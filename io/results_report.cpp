@@ -44,53 +44,83 @@ struct Units {
   std::string time = "d";
 };
 
-/// Per-period volumes by component: released/in stacked up, stored/out stacked down.
+/// Rows of a long budget table (budget_periods.csv, budget_steps.csv) of one component:
+/// net values into the aquifer (into_aquifer - out_of_aquifer) with the rows' times.
+struct ComponentSeries {
+  std::vector<double> into, out_of;
+  std::vector<std::size_t> rows;  ///< row numbers in the table
+};
+
+std::map<std::string, ComponentSeries> by_component(const CsvTable& table) {
+  const std::vector<std::string> component = table.texts("component");
+  const std::vector<double> into = table.numbers("into_aquifer");
+  const std::vector<double> out_of = table.numbers("out_of_aquifer");
+  std::map<std::string, ComponentSeries> series;
+  for (std::size_t i = 0; i < component.size() && i < into.size() && i < out_of.size(); ++i) {
+    ComponentSeries& s = series[component[i]];
+    s.into.push_back(into[i]);
+    s.out_of.push_back(out_of[i]);
+    s.rows.push_back(i);
+  }
+  return series;
+}
+
+/// Per-period volumes by component: into the aquifer stacked up, out of it stacked down.
 void add_period_budget(HtmlReport& page, const CsvTable& periods, const Units& u) {
-  const std::vector<std::string> names = periods.texts("name");
+  const std::vector<std::string> names = periods.texts("period_name");
   const std::vector<double> index = periods.numbers("period");
   std::vector<BarValue> bars;
-  for (std::size_t k = 0; k < n_budget_components; ++k) {
-    const std::string stem(component_label(static_cast<BudgetComponent>(k)));
-    const std::vector<double> in = periods.numbers(stem + "_in"), out = periods.numbers(stem + "_out");
-    for (std::size_t p = 0; p < names.size() && p < in.size(); ++p) {
-      const std::string cat = fmt::format("{} {}", index[p], names[p]);
-      if (in[p] != 0.0) bars.push_back({cat, stem, in[p]});
-      if (out[p] != 0.0) bars.push_back({cat, stem, -out[p]});
+  for (const auto& [component, s] : by_component(periods)) {
+    if (component == "total") continue;
+    for (std::size_t k = 0; k < s.rows.size(); ++k) {
+      const std::size_t row = s.rows[k];
+      const std::string cat = fmt::format("{} {}", index[row], names[row]);
+      if (s.into[k] != 0.0) bars.push_back({cat, component, s.into[k]});
+      if (s.out_of[k] != 0.0) bars.push_back({cat, component, -s.out_of[k]});
     }
   }
   page.add_heading("Water budget by stress period");
-  page.add_chart("Volume by component in each period: into the aquifer (or released from storage) "
-                 "above zero, out of it (or taken into storage) below",
-                 stacked_bar_spec(bars, "stress period", fmt::format("volume ({}3)", u.length)));
+  page.add_chart(
+      "Volume by component in each period: into the aquifer (or released from storage) "
+      "above zero, out of it (or taken into storage) below",
+      stacked_bar_spec(bars, "stress period", fmt::format("volume ({}3)", u.length)));
 }
 
-void add_step_charts(HtmlReport& page, const CsvTable& steps, const Units& u) {
+void add_step_charts(HtmlReport& page, const CsvTable& steps, const CsvTable& balance,
+                     const Units& u) {
   const std::vector<double> time = steps.numbers("time");
+  const std::map<std::string, ComponentSeries> series = by_component(steps);
   std::vector<ChartSeries> storage;
   const std::pair<const char*, const char*> mechanisms[] = {
-      {"storage_skeleton", "skeleton compression"}, {"storage_water", "water expansion"},
-      {"storage_elastic", "elastic (undivided)"}, {"storage_drainage", "drainage of pores"}};
-  for (const auto& [stem, label] : mechanisms) {
-    const std::vector<double> in = steps.numbers(std::string(stem) + "_in");
-    const std::vector<double> out = steps.numbers(std::string(stem) + "_out");
-    ChartSeries s{label, time, {}, SeriesStyle::line};
+      {"storage_skeleton", "skeleton compression"},
+      {"storage_water", "water expansion"},
+      {"storage_elastic", "elastic (undivided)"},
+      {"storage_drainage", "drainage of pores"}};
+  for (const auto& [component, label] : mechanisms) {
+    const auto found = series.find(component);
+    if (found == series.end()) continue;
+    const ComponentSeries& c = found->second;
+    ChartSeries s{label, {}, {}, SeriesStyle::line};
     bool any = false;
-    for (std::size_t i = 0; i < in.size(); ++i) {
-      s.y.push_back(in[i] - out[i]);
+    for (std::size_t k = 0; k < c.rows.size(); ++k) {
+      s.x.push_back(time[c.rows[k]]);
+      s.y.push_back(c.into[k] - c.out_of[k]);
       any |= s.y.back() != 0.0;
     }
     if (any) storage.push_back(s);
   }
   page.add_heading("Storage released by mechanism");
-  if (storage.empty()) storage.push_back({"no storage change", time, std::vector<double>(time.size(), 0.0)});
+  const std::vector<double> step_time = balance.numbers("time");
+  if (storage.empty())
+    storage.push_back({"no storage change", step_time, std::vector<double>(step_time.size(), 0.0)});
   page.add_chart("Net release from storage at the end of each step (negative: taken into storage)",
                  line_chart_spec(storage, {fmt::format("time ({})", u.time)},
                                  {fmt::format("release rate ({}3/{})", u.length, u.time)}));
   page.add_heading("Mass balance");
-  page.add_chart("Budget discrepancy of each step, 100 (in - out) / ((in + out) / 2)",
-                 line_chart_spec({{"discrepancy", time, steps.numbers("discrepancy_percent"),
+  page.add_chart("Imbalance of each step, 100 (into - out of the aquifer) / their mean",
+                 line_chart_spec({{"imbalance", step_time, balance.numbers("imbalance_percent"),
                                    SeriesStyle::points}},
-                                 {fmt::format("time ({})", u.time)}, {"discrepancy (%)"}, 620, 200));
+                                 {fmt::format("time ({})", u.time)}, {"imbalance (%)"}, 620, 200));
 }
 
 int add_hydrographs(HtmlReport& page, const CsvTable& obs, const Model* model, const Units& u) {
@@ -160,7 +190,8 @@ void add_maps(HtmlReport& page, const std::filesystem::path& folder, const Units
   if (files.size() > 1 && files.back() != chosen.front()) chosen.push_back(files.back());
   for (const auto& f : chosen) {
     const FieldMap head = read_field_vtr(f, "head"), drawdown = read_field_vtr(f, "drawdown");
-    page.add_heading(fmt::format("Maps at t = {:g} {} ({})", head.time, u.time, f.filename().string()));
+    page.add_heading(
+        fmt::format("Maps at t = {:g} {} ({})", head.time, u.time, f.filename().string()));
     page.add_chart(fmt::format("Head at t = {:g} {}", head.time, u.time),
                    heatmap_spec(head.x_edges, head.y_edges, head.values,
                                 fmt::format("head ({})", u.length), u.length, "viridis"));
@@ -172,6 +203,22 @@ void add_maps(HtmlReport& page, const std::filesystem::path& folder, const Units
 
 }  // namespace
 
+std::filesystem::path report_model_path(const ResultsReportOptions& options,
+                                        const std::string& summary_json) {
+  if (options.without_model) return {};
+  if (options.model_file) return *options.model_file;
+  const std::filesystem::path recorded(json_text_value(summary_json, "model_file"));
+  if (recorded.empty())
+    throw ReportModelError(fmt::format(
+        "{} names no model file: give the model with --model, or --without-model for a report "
+        "without measured heads; no report was written",
+        (options.results_folder / "summary.json").string()));
+  // Summaries before results version 2 held the path as given on the command line.
+  if (recorded.is_relative() && std::filesystem::exists(options.results_folder / recorded))
+    return options.results_folder / recorded;
+  return recorded;
+}
+
 ResultsReportSummary write_results_report(const ResultsReportOptions& options) {
   const std::filesystem::path& folder = options.results_folder;
   ResultsReportSummary summary;
@@ -181,30 +228,33 @@ ResultsReportSummary write_results_report(const ResultsReportOptions& options) {
   if (auto t = json_text_value(json, "time_unit"); !t.empty()) u.time = t;
   const std::string title = json_text_value(json, "model_title");
 
-  // Measured heads come from the model (its observations name the measured files).
+  // Measured heads come from the model (its observations name the measured files). A model
+  // that should be shown but cannot be read stops the report before anything is written.
   std::optional<Model> model;
-  std::filesystem::path model_path =
-      options.model_file ? *options.model_file : std::filesystem::path(json_text_value(json, "model_file"));
-  if (!model_path.empty() && !std::filesystem::exists(model_path) && model_path.is_relative() &&
-      std::filesystem::exists(folder / model_path))
-    model_path = folder / model_path;
+  const std::filesystem::path model_path = report_model_path(options, json);
   if (!model_path.empty()) {
     ReadResult read = read_model_file(model_path);
-    if (read.ok())
-      model = std::move(*read.model);
-    else
-      summary.note = "the model " + model_path.string() + " could not be read: no measured heads";
+    if (!read.ok()) {
+      std::string why;
+      for (const Diagnostic& d : read.diagnostics)
+        if (d.severity == Severity::error) why += "\n  " + d.to_string();
+      throw ReportModelError(fmt::format(
+          "the model {} (for the measured heads) cannot be read; no report was written{}",
+          model_path.string(), why));
+    }
+    model = std::move(*read.model);
   } else {
-    summary.note = "no model file known: no measured heads";
+    summary.note = "no model file given (--without-model): no measured heads";
   }
 
   HtmlReport page("aquiledger results: " + (title.empty() ? folder.string() : title));
   page.add_paragraph(fmt::format("Results folder {}; model {}. Units: length {}, time {}.",
                                  folder.string(), model_path.string(), u.length, u.time));
   add_period_budget(page, read_csv_file(folder / "budget_periods.csv"), u);
-  add_step_charts(page, read_csv_file(folder / "budget_steps.csv"), u);
-  summary.observations_with_measurements =
-      add_hydrographs(page, read_csv_file(folder / "observations.csv"), model ? &*model : nullptr, u);
+  add_step_charts(page, read_csv_file(folder / "budget_steps.csv"),
+                  read_csv_file(folder / "balance_steps.csv"), u);
+  summary.observations_with_measurements = add_hydrographs(
+      page, read_csv_file(folder / "observations.csv"), model ? &*model : nullptr, u);
   add_maps(page, folder, u);
   page.write(options.output_file);
   summary.charts = page.charts();

@@ -1,18 +1,32 @@
 #pragma once
 // `aquiledger report`: one self-contained HTML page from a results folder (budgets,
-// storage release by mechanism, discrepancy, hydrographs with measured heads and residual
+// storage release by mechanism, imbalance, hydrographs with measured heads and residual
 // statistics, head and drawdown maps).
 #include <filesystem>
 #include <optional>
+#include <stdexcept>
 #include <string>
 
 namespace aquiledger {
 
 struct ResultsReportOptions {
   std::filesystem::path results_folder;
-  std::filesystem::path output_file;                 ///< the HTML page
-  std::optional<std::filesystem::path> model_file;   ///< for measured heads (else summary.json)
+  std::filesystem::path output_file;                ///< the HTML page
+  std::optional<std::filesystem::path> model_file;  ///< for measured heads (else summary.json)
+  bool without_model = false;                       ///< no measured heads: the model is not read
 };
+
+/// The model whose measured heads the report should show cannot be read (or is not known):
+/// nothing was written.
+struct ReportModelError : std::runtime_error {
+  using std::runtime_error::runtime_error;
+};
+
+/// The model file the report reads: --model, else summary.json's model_file (absolute since
+/// results version 2, so found from any working folder); empty with without_model. Throws
+/// ReportModelError when summary.json names none.
+std::filesystem::path report_model_path(const ResultsReportOptions& options,
+                                        const std::string& summary_json);
 
 /// What the page holds, for the command's message.
 struct ResultsReportSummary {
@@ -22,7 +36,8 @@ struct ResultsReportSummary {
 };
 
 /// Builds and writes the page; throws OutputError naming the file that could not be read
-/// or written.
+/// or written, ReportModelError when the model for the measured heads cannot be read (an
+/// existing page is then left as it was).
 ResultsReportSummary write_results_report(const ResultsReportOptions& options);
 
 /// The string value of a top-level key of a JSON object text ("" when absent or null).

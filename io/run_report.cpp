@@ -1,8 +1,8 @@
 #include "io/run_report.hpp"
 
-#include <algorithm>
-
 #include <fmt/format.h>
+
+#include <algorithm>
 
 #include "postproc/water_budget.hpp"
 
@@ -22,26 +22,35 @@ std::string volume(double v) { return fmt::format("{:.4g}", v); }
 
 }  // namespace
 
-std::string format_period_budget_table(const Model& model, const std::vector<BudgetPeriodRow>& rows) {
+std::string format_period_budget_table(const Model& model,
+                                       const std::vector<BudgetPeriodRow>& rows) {
   const std::string vu = model.length_unit + "3";
   std::size_t name_width = 6;
   for (const auto& r : rows) name_width = std::max(name_width, r.name.size());
   name_width = std::min<std::size_t>(name_width, 24);
 
-  std::string out = fmt::format("Water budget per period (volumes in {}; storage + = released)\n", vu);
-  out += fmt::format("  {:>3}  {:<{}}  {:>10}  {:>11}  {:>11}  {:>11}  {:>11}  {:>11}  {:>12}\n", "#",
-                     "period", name_width, fmt::format("end ({})", model.time_unit), "inflow",
-                     "outflow", "net storage", "drainage", "wells out", "imbalance %");
+  // The words of the result files: into / out of the aquifer, storage released (net).
+  std::string out = fmt::format(
+      "Water budget per period (volumes in {}; balance_periods.csv and budget_periods.csv hold "
+      "them all)\n",
+      vu);
+  out +=
+      fmt::format("  {:>3}  {:<{}}  {:>10}  {:>12}  {:>14}  {:>13}  {:>11}  {:>11}  {:>10}\n", "#",
+                  "period", name_width, fmt::format("end ({})", model.time_unit), "into aquifer",
+                  "out of aquifer", "storage, net", "of it pores", "pumped", "imbalance");
   for (const auto& r : rows) {
     const WaterBudget& b = r.volumes;
     const std::string name = r.name.size() > name_width ? r.name.substr(0, name_width) : r.name;
-    out += fmt::format("  {:>3}  {:<{}}  {:>10.4g}  {:>11}  {:>11}  {:>11}  {:>11}  {:>11}  {:>12.2e}\n",
-                       r.period, name, name_width, r.end, volume(b.total_in()), volume(b.total_out()),
-                       volume(storage_net_release(b)),
-                       volume(b[BudgetComponent::storage_drainage].in -
-                              b[BudgetComponent::storage_drainage].out),
-                       volume(b[BudgetComponent::wells].out), b.discrepancy_percent());
+    out += fmt::format(
+        "  {:>3}  {:<{}}  {:>10.4g}  {:>12}  {:>14}  {:>13}  {:>11}  {:>11}  {:>9.2e}%\n", r.period,
+        name, name_width, r.end, volume(b.total_in()), volume(b.total_out()),
+        volume(storage_net_release(b)),
+        volume(b[BudgetComponent::storage_drainage].in - b[BudgetComponent::storage_drainage].out),
+        volume(b[BudgetComponent::well].out), b.imbalance_percent());
   }
+  out +=
+      "  (storage, net: released minus taken into storage; of it pores: by draining pores at the "
+      "water table)\n";
   return out;
 }
 

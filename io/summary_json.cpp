@@ -93,6 +93,8 @@ std::string summary_json(const RunSummary& s) {
   o.text("model_file", s.model_file);
   o.text("length_unit", s.length_unit);
   o.text("time_unit", s.time_unit);
+  o.text("volume_unit", s.length_unit + "3");
+  o.text("rate_unit", s.length_unit + "3/" + s.time_unit);
   o.integer("cells", s.cells);
   o.integer("active_cells", s.active_cells);
   o.integer("unknowns", s.unknowns);
@@ -107,7 +109,7 @@ std::string summary_json(const RunSummary& s) {
   o.integer("cutbacks", s.cutbacks);
   o.text("linear_solver", s.linear_solver);
   o.text("linear_solver_reason", s.linear_reason);
-  o.number("largest_discrepancy_percent", s.max_abs_discrepancy_percent);
+  o.number("largest_imbalance_percent", s.max_abs_imbalance_percent);
   o.number("well_shortfall_volume", s.well_shortfall_volume);
   o.boolean("converged", s.converged);
   o.raw("failure", s.converged && s.failure.empty() ? "null" : json_string(s.failure));

@@ -12,9 +12,9 @@ namespace aquiledger {
 /// Member names follow the program's driver (io/cli); JSON keys are listed in
 /// summary_json.cpp. Counts left at their defaults are written as they are.
 struct RunSummary {
-  std::string version;  ///< program version
-  std::string title;    ///< model title
-  std::string model_file;
+  std::string version;     ///< program version
+  std::string title;       ///< model title
+  std::string model_file;  ///< absolute path of the model file
   std::string length_unit;
   std::string time_unit;
   int cells = 0;
@@ -29,8 +29,8 @@ struct RunSummary {
   int cutbacks = 0;                             ///< step halvings over the run
   std::string linear_solver;
   std::string linear_reason;
-  double max_abs_discrepancy_percent = 0.0;  ///< %, largest |discrepancy| over the steps
-  double well_shortfall_volume = 0.0;        ///< L3, withdrawal not delivered (dry cells)
+  double max_abs_imbalance_percent = 0.0;  ///< %, largest |imbalance| of a step
+  double well_shortfall_volume = 0.0;      ///< L3, withdrawal not delivered (dry cells)
   bool converged = true;
   std::string failure;  ///< empty when converged
   std::vector<std::string> warnings;

@@ -6,6 +6,7 @@
 #include <vtkDoubleArray.h>
 #include <vtkErrorCode.h>
 #include <vtkFieldData.h>
+#include <vtkIntArray.h>
 #include <vtkNew.h>
 #include <vtkRectilinearGrid.h>
 #include <vtkStringArray.h>
@@ -90,6 +91,32 @@ void add_cell_array(vtkRectilinearGrid* vtk_grid, const RectilinearGrid& grid, R
   vtk_grid->GetCellData()->AddArray(array);
 }
 
+/// The cell state as an integer array (0 dry, 1 water table, 2 confined). An integer has no
+/// NaN: inactive cells hold -1 and are hidden through the ghost array like every other array.
+void add_state_array(vtkRectilinearGrid* vtk_grid, const RectilinearGrid& grid, RowBand band,
+                     const std::vector<double>& state) {
+  const std::size_t n_cells = static_cast<std::size_t>(band.count) * grid.n_cols();
+  if (state.size() != n_cells) {
+    throw std::invalid_argument(
+        fmt::format("cell array 'state' has {} values, the grid {} cells", state.size(), n_cells));
+  }
+  vtkNew<vtkIntArray> array;
+  array->SetName("state");
+  array->SetNumberOfValues(static_cast<vtkIdType>(n_cells));
+  const int n_rows = band.count, n_cols = grid.n_cols();
+  const auto first = static_cast<std::size_t>(band.first) * n_cols;
+  for (int j = 0; j < n_rows; ++j) {
+    const int row = band.end() - 1 - j;
+    for (int i = 0; i < n_cols; ++i) {
+      const CellIndex c = grid.cell(row, i);
+      const double v = state[static_cast<std::size_t>(c.value) - first];
+      array->SetValue(static_cast<vtkIdType>(j) * n_cols + i,
+                      grid.is_active(c) && !std::isnan(v) ? static_cast<int>(std::lround(v)) : -1);
+    }
+  }
+  vtk_grid->GetCellData()->AddArray(array);
+}
+
 void add_text(vtkFieldData* data, const char* name, const std::string& text) {
   vtkNew<vtkStringArray> array;
   array->SetName(name);
@@ -169,7 +196,7 @@ void write_fields_vtr(const std::filesystem::path& path, const Model& model,
   add_cell_array(vtk_grid, grid, band, "head", fields.head);
   add_cell_array(vtk_grid, grid, band, "drawdown", fields.drawdown);
   add_cell_array(vtk_grid, grid, band, "saturated_thickness", fields.saturated_thickness);
-  add_cell_array(vtk_grid, grid, band, "state", fields.state);
+  add_state_array(vtk_grid, grid, band, fields.state);
   add_cell_array(vtk_grid, grid, band, "storage_rate", fields.storage_rate);
   add_cell_array(vtk_grid, grid, band, "storage_skeleton_rate", fields.storage_skeleton_rate);
   add_cell_array(vtk_grid, grid, band, "storage_water_rate", fields.storage_water_rate);
@@ -242,8 +269,8 @@ void write_pvtr(const std::filesystem::path& path, const Model& model,
   for (const char* name : {"head", "drawdown", "saturated_thickness", "state", "storage_rate",
                            "storage_skeleton_rate", "storage_water_rate", "storage_elastic_rate",
                            "storage_drainage_rate", "compaction", "flow_east", "flow_north"})
-    fmt::format_to(std::back_inserter(text), "      <PDataArray type=\"Float64\" Name=\"{}\"/>\n",
-                   name);
+    fmt::format_to(std::back_inserter(text), "      <PDataArray type=\"{}\" Name=\"{}\"/>\n",
+                   std::string_view(name) == "state" ? "Int32" : "Float64", name);
   fmt::format_to(std::back_inserter(text), "      <PDataArray type=\"UInt8\" Name=\"{}\"/>\n",
                  vtkDataSetAttributes::GhostArrayName());
   text +=
@@ -298,10 +325,16 @@ FieldMap read_field_vtr(const std::filesystem::path& path, const std::string& ar
   for (int i = 0; i <= n_cols; ++i) map.x_edges.push_back(grid->GetXCoordinates()->GetTuple1(i));
   for (int j = n_rows; j >= 0; --j) map.y_edges.push_back(grid->GetYCoordinates()->GetTuple1(j));
   map.values.resize(static_cast<std::size_t>(n_rows) * static_cast<std::size_t>(n_cols));
+  // Hidden (inactive) cells read NaN, also from an integer array such as state.
+  vtkDataArray* ghost = grid->GetCellData()->GetArray(vtkDataSetAttributes::GhostArrayName());
   for (int j = 0; j < n_rows; ++j)
     for (int i = 0; i < n_cols; ++i) {
       const int row = n_rows - 1 - j;  // VTK's j grows northward
-      map.values[static_cast<std::size_t>(row * n_cols + i)] = values->GetTuple1(j * n_cols + i);
+      const vtkIdType id = j * n_cols + i;
+      const bool hidden = ghost != nullptr && (static_cast<int>(ghost->GetTuple1(id)) &
+                                               vtkDataSetAttributes::HIDDENCELL) != 0;
+      map.values[static_cast<std::size_t>(row * n_cols + i)] =
+          hidden ? nan_value : values->GetTuple1(id);
     }
   return map;
 }

@@ -11,15 +11,6 @@ namespace {
 
 std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
 
-/// 0 dry (h <= bottom), 1 water table, 2 confined (a confined model is confined everywhere).
-double cell_state(const Model& model, std::size_t i, double h) {
-  const Aquifer& aq = model.aquifer;
-  if (aq.condition == Condition::confined) return 2.0;
-  if (h <= aq.bottom[i]) return 0.0;
-  if (aq.condition == Condition::switching && h >= aq.top[i]) return 2.0;
-  return 1.0;
-}
-
 void fill_heads(const Model& model, const SystemLayout& layout, const GridPart& part,
                 CellValues initial_head, CellValues head, CellFields& f) {
   const double nan = std::nan("");
@@ -34,7 +25,7 @@ void fill_heads(const Model& model, const SystemLayout& layout, const GridPart& 
     f.head[k] = head[i];
     f.drawdown[k] = initial_head[i] - head[i];
     f.saturated_thickness[k] = saturated_thickness(model, layout, c, head[i]).value;
-    f.state[k] = cell_state(model, i, head[i]);
+    f.state[k] = cell_state(model, c, head[i]);
   }
 }
 
@@ -69,6 +60,34 @@ void fill_face_flows(const Model& model, const SystemLayout& layout, const GridP
 }
 
 }  // namespace
+
+int cell_state(const Model& model, CellIndex c, double h) {
+  const Aquifer& aq = model.aquifer;
+  const std::size_t i = at(c);
+  if (aq.condition == Condition::confined) return 2;
+  if (h <= aq.bottom[i]) return 0;
+  if (aq.condition == Condition::switching && h >= aq.top[i]) return 2;
+  return 1;
+}
+
+CellStateCounts count_cell_states(const Model& model, const GridPart& part, CellValues head) {
+  CellStateCounts n;
+  for (std::int32_t i = part.first_owned(); i < part.end_owned(); ++i) {
+    const CellIndex c{i};
+    if (!model.grid.is_active(c)) continue;
+    switch (cell_state(model, c, head[at(c)])) {
+      case 0:
+        ++n.dry;
+        break;
+      case 1:
+        ++n.water_table;
+        break;
+      default:
+        ++n.confined;
+    }
+  }
+  return n;
+}
 
 CellFields initial_cell_fields(const Model& model, const SystemLayout& layout,
                                std::span<const double> initial_head) {

@@ -24,6 +24,21 @@ struct CellFields {
   std::vector<double> flow_north;             ///< L3/T across the north face, positive north
 };
 
+/// How many active cells are in each state (the `state` field's classes) at one time.
+struct CellStateCounts {
+  long confined = 0;
+  long water_table = 0;
+  long dry = 0;
+};
+
+/// The state of an active cell at head h (L): 0 dry (h at or below the bottom), 1 water
+/// table, 2 confined (a confined model is confined everywhere; a switching cell is confined
+/// once h reaches the top).
+int cell_state(const Model& model, CellIndex c, double h);
+
+/// Counts the states of the active cells a part owns (head holds them).
+CellStateCounts count_cell_states(const Model& model, const GridPart& part, CellValues head);
+
 /// Starts the fields at time 0 from the initial head (zero rates, zero compaction).
 CellFields initial_cell_fields(const Model& model, const SystemLayout& layout,
                                std::span<const double> initial_head);

@@ -18,10 +18,12 @@ void add_signed(InOut& io, double q) {
     io.out -= q;
 }
 
-BudgetComponent component_of(FeatureKind kind) {
+}  // namespace
+
+BudgetComponent budget_component_of(FeatureKind kind) {
   switch (kind) {
     case FeatureKind::well:
-      return BudgetComponent::wells;
+      return BudgetComponent::well;
     case FeatureKind::fixed_head:
       return BudgetComponent::fixed_head;
     case FeatureKind::recharge:
@@ -37,10 +39,8 @@ BudgetComponent component_of(FeatureKind kind) {
     case FeatureKind::leakage:
       return BudgetComponent::leakage;
   }
-  return BudgetComponent::wells;
+  return BudgetComponent::well;
 }
-
-}  // namespace
 
 std::string_view component_label(BudgetComponent c) {
   switch (c) {
@@ -54,8 +54,8 @@ std::string_view component_label(BudgetComponent c) {
       return "storage_elastic";
     case BudgetComponent::fixed_head:
       return "fixed_head";
-    case BudgetComponent::wells:
-      return "wells";
+    case BudgetComponent::well:
+      return "well";
     case BudgetComponent::recharge:
       return "recharge";
     case BudgetComponent::river:
@@ -84,7 +84,7 @@ double WaterBudget::total_out() const {
   return s;
 }
 
-double WaterBudget::discrepancy_percent() const {
+double WaterBudget::imbalance_percent() const {
   const double in = total_in();
   const double out = total_out();
   if (in == 0.0 && out == 0.0) return 0.0;
@@ -167,7 +167,7 @@ WaterBudget step_budget(const Model& model, const SystemLayout& layout, const Gr
       row = {flows[k].in, flows[k].out};
       if (features[k].kind == FeatureKind::well) budget.well_shortfall += flows[k].shortfall;
     }
-    InOut& total = budget[component_of(features[k].kind)];
+    InOut& total = budget[budget_component_of(features[k].kind)];
     total.in += row.in;
     total.out += row.out;
   }

@@ -12,15 +12,29 @@
 
 namespace aquiledger {
 
-/// Budget components in the order of the CSV columns.
+/// Budget components (the `component` column of the budget tables; io/result_tables.hpp
+/// lists them in the results contract's order).
 enum class BudgetComponent {
-  storage_skeleton, storage_water, storage_drainage, storage_elastic, fixed_head, wells,
-  recharge, river, drain, external_head, evapotranspiration, leakage
+  storage_skeleton,
+  storage_water,
+  storage_drainage,
+  storage_elastic,
+  fixed_head,
+  well,
+  recharge,
+  river,
+  drain,
+  external_head,
+  evapotranspiration,
+  leakage
 };
 inline constexpr std::size_t n_budget_components = 12;
 
-/// Column stem of a component, e.g. "storage_skeleton" (columns are stem_in, stem_out).
+/// Name of a component in the results, e.g. "storage_skeleton" or "well".
 std::string_view component_label(BudgetComponent c);
+
+/// The component that holds the flows of a feature kind.
+BudgetComponent budget_component_of(FeatureKind kind);
 
 struct InOut {
   double in = 0.0;   ///< into the flow system (storage: released from storage)
@@ -34,11 +48,13 @@ struct WaterBudget {
   double well_shortfall = 0.0;  ///< same unit as the components
 
   InOut& operator[](BudgetComponent c) { return components[static_cast<std::size_t>(c)]; }
-  const InOut& operator[](BudgetComponent c) const { return components[static_cast<std::size_t>(c)]; }
+  const InOut& operator[](BudgetComponent c) const {
+    return components[static_cast<std::size_t>(c)];
+  }
   double total_in() const;
   double total_out() const;
   /// 100 (in - out) / ((in + out) / 2); 0 when both are 0.
-  double discrepancy_percent() const;
+  double imbalance_percent() const;
   /// this += factor * other (turns rates into volumes with factor = dt).
   void add_scaled(const WaterBudget& other, double factor);
 };

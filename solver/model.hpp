@@ -16,11 +16,11 @@ enum class Condition { confined, water_table, switching };
 
 /// Compressibility route inputs (Jacob, 1940): Ss = rho g (alpha + n beta).
 struct Compressibility {
-  double skeleton = 0.0;  ///< alpha, 1/Pa (uniform value used for reporting; per cell below)
-  double porosity = 0.0;  ///< n, -
-  double water = 4.6e-10; ///< beta, 1/Pa
-  double density = 998.2; ///< rho, kg/m3
-  double gravity = 9.80665; ///< g, m/s2
+  double skeleton = 0.0;     ///< alpha, 1/Pa (uniform value used for reporting; per cell below)
+  double porosity = 0.0;     ///< n, -
+  double water = 4.6e-10;    ///< beta, 1/Pa
+  double density = 998.2;    ///< rho, kg/m3
+  double gravity = 9.80665;  ///< g, m/s2
 };
 
 struct Aquifer {
@@ -40,8 +40,8 @@ struct Aquifer {
 };
 
 struct Initial {
-  bool steady = false;        ///< start from the steady state of period 1's stresses
-  std::vector<double> head;   ///< L, n_cells (empty when steady)
+  bool steady = false;       ///< start from the steady state of period 1's stresses
+  std::vector<double> head;  ///< L, n_cells (empty when steady)
 };
 
 struct Period {
@@ -57,7 +57,7 @@ struct Well {
   std::string name;
   double x = 0.0, y = 0.0;  ///< L
   CellIndex cell;
-  PeriodValues rate;        ///< L3/T, positive = withdrawal
+  PeriodValues rate;  ///< L3/T, positive = withdrawal
 };
 
 struct FixedHead {
@@ -75,10 +75,10 @@ struct Recharge {
 struct River {
   std::string name;
   std::vector<CellIndex> cells;
-  std::vector<double> length;    ///< L of channel in each cell (1 per cell for cells/mask placement)
-  PeriodValues stage;            ///< L
-  PeriodValues bed_bottom;       ///< L
-  PeriodValues conductance;      ///< L2/T per cell (per-length conductance times length)
+  std::vector<double> length;  ///< L of channel in each cell (1 per cell for cells/mask placement)
+  PeriodValues stage;          ///< L
+  PeriodValues bed_bottom;     ///< L
+  PeriodValues conductance;    ///< L2/T per cell (per-length conductance times length)
 };
 
 struct Drain {
@@ -129,6 +129,10 @@ struct OutputSettings {
   std::filesystem::path folder = "results";  ///< absolute, or relative to the model file
   FieldCadence fields = FieldCadence::period_end;
   bool budget = true;
+  /// Times (T, ascending) at which heads are written as arrays a model can start from: at
+  /// the end of the first step that reaches each (0: the initial heads).
+  std::vector<double> head_array_times;
+  bool head_arrays_at_period_ends = false;  ///< also at the end of every period
 };
 
 enum class LinearChoice { automatic, direct, pcg, bicgstab };

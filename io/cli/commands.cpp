@@ -25,9 +25,11 @@ namespace aquiledger {
 
 namespace {
 
-/// Prints every diagnostic (when print is set); returns true when the model is usable.
+/// Prints the diagnostics of a model that cannot be used (every error, and the warnings
+/// with them; when print is set); returns true when the model is usable. The warnings of a
+/// usable model are printed once, by the command (model.warnings, with file and line).
 bool report_diagnostics(const ReadResult& result, bool print = true) {
-  if (!print) return result.ok();
+  if (!print || result.ok()) return result.ok();
   int errors = 0;
   std::vector<Diagnostic> sorted = result.diagnostics;
   std::stable_sort(sorted.begin(), sorted.end(), [](const Diagnostic& a, const Diagnostic& b) {
@@ -54,8 +56,14 @@ double median(std::vector<int> v) {
 int run_check_command(const CheckOptions& options) {
   const ReadResult result = read_model_file(options.model_file);
   if (!report_diagnostics(result)) return exit_invalid_model;
-  std::fputs(format_check_report(*result.model).c_str(), stdout);
-  std::fputs("The model is valid.\n", stdout);
+  const Model& model = *result.model;
+  if (!options.quiet) std::fputs(format_check_report(model).c_str(), stdout);
+  std::fputs(model.warnings.empty()
+                 ? "The model is valid.\n"
+                 : fmt::format("The model is valid ({} warning{}).\n", model.warnings.size(),
+                               model.warnings.size() == 1 ? "" : "s")
+                       .c_str(),
+             stdout);
   return exit_success;
 }
 
@@ -87,7 +95,8 @@ int run_run_command(const RunOptions& options) {
     if (root) std::fprintf(stderr, "error: %s\nNothing was run.\n", why.c_str());
     return exit_usage;
   }
-  const std::filesystem::path folder = options.output_folder ? *options.output_folder : model.output.folder;
+  const std::filesystem::path folder =
+      options.output_folder ? *options.output_folder : model.output.folder;
 
   const bool quiet = options.quiet || !root;
   const bool terminal = isatty(fileno(stderr)) && !quiet;
@@ -136,9 +145,10 @@ int run_run_command(const RunOptions& options) {
         resume_from = read_checkpoint(folder);
       }
       if (auto why = checkpoint_mismatch(resume_from->inputs, *fingerprint, options.model_file))
-        throw CheckpointError(fmt::format("cannot resume: {}; the checkpoint in '{}' belongs to another "
-                                          "model (run without --resume to start over)",
-                                          *why, folder.string()));
+        throw CheckpointError(
+            fmt::format("cannot resume: {}; the checkpoint in '{}' belongs to another "
+                        "model (run without --resume to start over)",
+                        *why, folder.string()));
       if (!distributed &&
           resume_from->state.head.size() != static_cast<std::size_t>(model.grid.n_cells()))
         throw CheckpointError("cannot resume: the checkpoint's heads do not fit the grid");
@@ -165,8 +175,9 @@ int run_run_command(const RunOptions& options) {
                stdout);
     for (const auto& w : model.warnings) std::fprintf(stdout, "  warning: %s\n", w.c_str());
     if (resume_from)
-      std::fputs(fmt::format("  resumed at period {}, step {}, t = {:g} {}\n", resume_from->state.period + 1,
-                             resume_from->state.step_in_period, resume_from->state.time, model.time_unit)
+      std::fputs(fmt::format("  resumed at period {}, step {}, t = {:g} {}\n",
+                             resume_from->state.period + 1, resume_from->state.step_in_period,
+                             resume_from->state.time, model.time_unit)
                      .c_str(),
                  stdout);
     std::fflush(stdout);
@@ -196,8 +207,10 @@ int run_run_command(const RunOptions& options) {
     sim.memory_bytes = usable_memory_bytes().value_or(0.0);
     if (resume_from) {
       if (resume_from->threads != model.solver.threads)
-        std::fprintf(stderr, "warning: the checkpointed run used --threads %d, this one %d: results may "
-                             "differ in the last digits\n", resume_from->threads, model.solver.threads);
+        std::fprintf(stderr,
+                     "warning: the checkpointed run used --threads %d, this one %d: results may "
+                     "differ in the last digits\n",
+                     resume_from->threads, model.solver.threads);
       recorder->restore(std::move(resume_from->recorder));
       sim.start = std::move(resume_from->state);
     }
@@ -257,13 +270,19 @@ int run_run_command(const RunOptions& options) {
   RunSummary summary;
   summary.version = version_string;
   summary.title = model.title;
-  summary.model_file = options.model_file.string();
+  // Absolute, so that `report` finds the model from the results folder wherever it runs.
+  std::error_code path_error;
+  const std::filesystem::path model_path =
+      std::filesystem::weakly_canonical(std::filesystem::absolute(options.model_file), path_error);
+  summary.model_file =
+      path_error ? std::filesystem::absolute(options.model_file).string() : model_path.string();
   summary.length_unit = model.length_unit;
   summary.time_unit = model.time_unit;
   summary.unknowns = recorder->layout().n_unknowns();
   summary.linear_iterations = run.linear_iterations;
   summary.cutbacks = run.cutbacks;
-  for (const auto& row : recorder->period_rows()) summary.well_shortfall_volume += row.volumes.well_shortfall;
+  for (const auto& row : recorder->period_rows())
+    summary.well_shortfall_volume += row.volumes.well_shortfall;
   summary.cells = model.grid.n_cells();
   summary.active_cells = model.grid.n_active();
   summary.periods = static_cast<int>(model.periods.size());
@@ -273,7 +292,7 @@ int run_run_command(const RunOptions& options) {
   summary.newton_iterations_per_step = stats.newton_iterations;
   summary.linear_solver = run.linear_solver;
   summary.linear_reason = run.linear_reason;
-  summary.max_abs_discrepancy_percent = stats.max_abs_discrepancy_percent;
+  summary.max_abs_imbalance_percent = stats.max_abs_imbalance_percent;
   summary.converged = run.converged;
   summary.failure = run.failure;
   summary.warnings = model.warnings;
@@ -292,17 +311,32 @@ int run_run_command(const RunOptions& options) {
   if (!quiet) {
     std::fputs("\n", stdout);
     std::fputs(format_period_budget_table(model, recorder->period_rows()).c_str(), stdout);
-    std::fputs(fmt::format("\n  steps          {} accepted, {} with cut-backs\n", stats.steps, run.cutbacks).c_str(), stdout);
+    std::fputs(fmt::format("\n  steps          {} accepted, {} with cut-backs\n", stats.steps,
+                           run.cutbacks)
+                   .c_str(),
+               stdout);
     std::fputs(fmt::format("  Newton         median {:g}, largest {} iterations per step\n",
-                           median(stats.newton_iterations), stats.max_newton_iterations).c_str(), stdout);
-    std::fputs(fmt::format("  linear solver  {} ({})\n", run.linear_solver, run.linear_reason).c_str(), stdout);
-    std::fputs(fmt::format("  largest step imbalance {:.3g} %\n", stats.max_abs_discrepancy_percent).c_str(), stdout);
+                           median(stats.newton_iterations), stats.max_newton_iterations)
+                   .c_str(),
+               stdout);
+    std::fputs(
+        fmt::format("  linear solver  {} ({})\n", run.linear_solver, run.linear_reason).c_str(),
+        stdout);
+    std::fputs(
+        fmt::format("  largest step imbalance {:.3g} %\n", stats.max_abs_imbalance_percent).c_str(),
+        stdout);
     if (summary.well_shortfall_volume > 0.0)
       std::fputs(fmt::format("  well shortfall {:.4g} {}3 not delivered where cells ran dry\n",
-                             summary.well_shortfall_volume, model.length_unit).c_str(), stdout);
+                             summary.well_shortfall_volume, model.length_unit)
+                     .c_str(),
+                 stdout);
     std::fputs(fmt::format("  wall time      {:.2f} s ({:.0f} % writing results)\n", wall,
-                           wall > 0 ? 100.0 * stats.output_seconds / wall : 0.0).c_str(), stdout);
-    std::fputs(fmt::format("  results in     {}\n\n{}\n", folder.string(), professional_caution).c_str(), stdout);
+                           wall > 0 ? 100.0 * stats.output_seconds / wall : 0.0)
+                   .c_str(),
+               stdout);
+    std::fputs(
+        fmt::format("  results in     {}\n\n{}\n", folder.string(), professional_caution).c_str(),
+        stdout);
   }
   if (!run.converged) {
     if (root)

@@ -18,6 +18,7 @@ inline constexpr int exit_usage = 64;
 
 struct CheckOptions {
   std::filesystem::path model_file;
+  bool quiet = false;  ///< errors and the final line only
 };
 
 struct RunOptions {
@@ -25,19 +26,22 @@ struct RunOptions {
   std::optional<std::filesystem::path> output_folder;
   std::optional<int> threads;
   bool quiet = false;
-  int checkpoint_every = 0;  ///< write a checkpoint every N accepted steps (0: never)
-  bool resume = false;       ///< continue from the output folder's checkpoint
+  int checkpoint_every = 0;       ///< write a checkpoint every N accepted steps (0: never)
+  bool resume = false;            ///< continue from the output folder's checkpoint
   std::string engine = "serial";  ///< "serial", or "petsc" (distributed, under mpirun)
 };
 
 struct VerifyOptions {
   std::filesystem::path output_folder = "verify-results";
+  bool quiet = false;  ///< failures and the final line only
 };
 
 struct ReportOptions {
   std::filesystem::path results_folder;
   std::optional<std::filesystem::path> output_file;  ///< default RESULTS/report.html
   std::optional<std::filesystem::path> model_file;   ///< default: summary.json's model_file
+  bool without_model = false;                        ///< no measured heads
+  bool quiet = false;                                ///< errors only
 };
 
 int run_check_command(const CheckOptions& options);

@@ -33,8 +33,11 @@ TEST_CASE("the report describes the contract example", "[check_report]") {
   CHECK(text.find("500 m2/d") != std::string::npos);  // 12.5 m/d x 40 m
   CHECK(text.find("row 84, column 74") != std::string::npos);
   CHECK(text.find("dry season") != std::string::npos);
-  CHECK(text.find("56 cells; channel 10630 m") !=
-        std::string::npos);  // hypot(8000, 7000) = 10630.1
+  // hypot(8000, 7000) = 10630.1; the cells' row and column span comes before it.
+  CHECK(text.find("56 cells (rows ") != std::string::npos);
+  CHECK(text.find("; channel 10630 m") != std::string::npos);
+  // An edge placement spans every row of its side.
+  CHECK(text.find("120 cells (rows 1-120, column 1)") != std::string::npos);
 }
 
 TEST_CASE("the report shows the compressibility shares", "[check_report]") {
@@ -55,7 +58,8 @@ TEST_CASE("the report shows the compressibility shares", "[check_report]") {
 }
 
 TEST_CASE("the Marrow Basin demo is accepted and reported", "[check_report]") {
-  auto r = read_model_file(std::string(AQUILEDGER_SOURCE_DIR) + "/cases/01-marrow-basin/model.toml");
+  auto r =
+      read_model_file(std::string(AQUILEDGER_SOURCE_DIR) + "/cases/01-marrow-basin/model.toml");
   for (const auto& d : r.diagnostics) INFO(d.to_string());
   REQUIRE(r.ok());
   const Model& m = *r.model;

@@ -1,7 +1,6 @@
 // Checkpoint files (io/checkpoint.hpp): every value reads back with the same bits, and a
 // damaged or truncated file is refused with CheckpointError, never read as a state.
 #include <catch2/catch.hpp>
-
 #include <cmath>
 #include <cstring>
 #include <limits>
@@ -13,7 +12,8 @@ namespace {
 using namespace aquiledger;
 
 bool same_bits(const std::vector<double>& a, const std::vector<double>& b) {
-  return a.size() == b.size() && (a.empty() || std::memcmp(a.data(), b.data(), a.size() * sizeof(double)) == 0);
+  return a.size() == b.size() &&
+         (a.empty() || std::memcmp(a.data(), b.data(), a.size() * sizeof(double)) == 0);
 }
 
 Checkpoint sample() {
@@ -23,7 +23,8 @@ Checkpoint sample() {
   c.threads = 2;
   // Values whose bits a decimal round trip could lose or change: NaN, -0, a subnormal,
   // the largest double, 0.1.
-  const std::vector<double> awkward{std::nan(""), -0.0, 4.9e-324, std::numeric_limits<double>::max(), 0.1};
+  const std::vector<double> awkward{std::nan(""), -0.0, 4.9e-324,
+                                    std::numeric_limits<double>::max(), 0.1};
   c.state = {1, 3, 13.021700000000001, awkward, {1e-300, -2.5}};
   c.state.previous_head = awkward;
   c.state.previous_dt = 0.1;
@@ -34,7 +35,7 @@ Checkpoint sample() {
   c.recorder.initial_observed = {35.0, 34.5};
   c.recorder.fields.head = awkward;
   c.recorder.fields.compaction = {0.0, 1e-7, std::nan("")};
-  BudgetStepRow step{1, 3, 13.0217, 4.1, {}};
+  BudgetStepRow step{1, 3, 13.0217, 4.1, {}, 6, 2, {40, 9, 1}};
   step.rates.components[2] = {1.5, 0.25};
   step.rates.features = {{1.0, 2.0}};
   c.recorder.step_rows = {step};
@@ -46,6 +47,7 @@ Checkpoint sample() {
   c.recorder.time = 13.0217;
   c.recorder.stats.steps = 3;
   c.recorder.stats.newton_iterations = {4, 3, 5};
+  c.recorder.head_arrays_done = 2;
   return c;
 }
 
@@ -71,6 +73,12 @@ TEST_CASE("a checkpoint reads back bit for bit", "[io][checkpoint]") {
   REQUIRE(d.recorder.step_rows.size() == 1);
   CHECK(d.recorder.step_rows[0].rates.components[2].in == 1.5);
   CHECK(d.recorder.step_rows[0].rates.features.size() == 1);
+  CHECK(d.recorder.step_rows[0].newton_iterations == 6);
+  CHECK(d.recorder.step_rows[0].cutbacks == 2);
+  CHECK(d.recorder.step_rows[0].cells.confined == 40);
+  CHECK(d.recorder.step_rows[0].cells.water_table == 9);
+  CHECK(d.recorder.step_rows[0].cells.dry == 1);
+  CHECK(d.recorder.head_arrays_done == 2);
   CHECK(d.recorder.period_rows[0].name == "pumping \"season\"");
   CHECK(d.recorder.field_entries[1].file == "fields_0001.vtr");
   CHECK(d.recorder.period_open);
@@ -88,7 +96,8 @@ TEST_CASE("a truncated or altered checkpoint is refused", "[io][checkpoint]") {
   std::string altered = bytes;
   altered[bytes.size() / 2] ^= 0x01;  // one bit in the state
   CHECK_THROWS_AS(decode_checkpoint(altered), CheckpointError);
-  CHECK_THROWS_WITH(decode_checkpoint("something else entirely"), Catch::Contains("not an aquiledger checkpoint"));
+  CHECK_THROWS_WITH(decode_checkpoint("something else entirely"),
+                    Catch::Contains("not an aquiledger checkpoint"));
 }
 
 TEST_CASE("a checkpoint of changed input files is named", "[io][checkpoint]") {
@@ -96,8 +105,10 @@ TEST_CASE("a checkpoint of changed input files is named", "[io][checkpoint]") {
   CHECK_FALSE(checkpoint_mismatch(saved, saved, "m.toml"));
   InputFingerprint model_changed = saved;
   model_changed.model ^= 1;
-  CHECK(checkpoint_mismatch(saved, model_changed, "m.toml")->find("model file 'm.toml' changed") != std::string::npos);
+  CHECK(checkpoint_mismatch(saved, model_changed, "m.toml")->find("model file 'm.toml' changed") !=
+        std::string::npos);
   InputFingerprint file_changed = saved;
   file_changed.files[1].second ^= 1;
-  CHECK(checkpoint_mismatch(saved, file_changed, "m.toml")->find("'/data/zones.txt' changed") != std::string::npos);
+  CHECK(checkpoint_mismatch(saved, file_changed, "m.toml")->find("'/data/zones.txt' changed") !=
+        std::string::npos);
 }

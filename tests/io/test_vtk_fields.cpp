@@ -5,6 +5,7 @@
 #include <vtkNew.h>
 #include <vtkRectilinearGrid.h>
 #include <vtkStringArray.h>
+#include <vtkType.h>
 #include <vtkXMLDataElement.h>
 #include <vtkXMLDataParser.h>
 #include <vtkXMLRectilinearGridReader.h>
@@ -45,7 +46,8 @@ std::map<std::string, std::vector<double>> distinct_fields(int n_cells) {
   int a = 0;
   for (const char* name : field_names) {
     auto& v = m[name];
-    for (int c = 0; c < n_cells; ++c) v.push_back((a + 1) * 1000.0 + c / 3.0);
+    for (int c = 0; c < n_cells; ++c)
+      v.push_back(std::string(name) == "state" ? c % 3 : (a + 1) * 1000.0 + c / 3.0);
     ++a;
   }
   return m;
@@ -147,7 +149,25 @@ TEST_CASE("field file reads back exactly, on true edges, with inactive cells bla
 
   auto g = read_vtr(folder / "fields_0001.vtr");
   check_geometry_and_blanking(g, m);
-  for (const char* name : field_names) check_cell_array(g, m, name, values[name]);
+  for (const char* name : field_names)
+    if (std::string(name) != "state") check_cell_array(g, m, name, values[name]);
+  // state is an integer array (results contract version 2): 0 dry, 1 water table, 2
+  // confined, and -1 in the blanked inactive cell (VTK cell 5, raster cell 2).
+  vtkDataArray* state = g->GetCellData()->GetArray("state");
+  REQUIRE(state != nullptr);
+  CHECK(state->GetDataType() == VTK_INT);
+  const int nc = m.grid.n_cols(), nr = m.grid.n_rows();
+  for (int j = 0; j < nr; ++j)
+    for (int i = 0; i < nc; ++i) {
+      const CellIndex c = m.grid.cell(nr - 1 - j, i);
+      const double expected = m.grid.is_active(c) ? c.value % 3 : -1.0;
+      CHECK(state->GetComponent(j * nc + i, 0) == expected);
+    }
+  // Read back for maps, the hidden cell reads NaN whatever its integer.
+  const FieldMap map = read_field_vtr(folder / "fields_0001.vtr", "state");
+  CHECK(std::isnan(map.values[2]));
+  CHECK(map.values[0] == 0.0);
+  CHECK(map.values[4] == 1.0);
   // Compressed binary, appended (the brief's choice of encoding), read from the XML header.
   std::ifstream raw(folder / "fields_0001.vtr", std::ios::binary);
   std::string header(2048, '\0');

@@ -17,6 +17,7 @@
 #include <cstdlib>
 #include <fstream>
 
+#include "io/result_recorder.hpp"
 #include "io/result_tables.hpp"
 #include "io/vtk_fields.hpp"
 #include "postproc/cell_fields.hpp"
@@ -44,7 +45,8 @@ class Recorder : public SimulationObserver {
     update_cell_fields(model_, layout_, info.steady, info.dt, initial_, head_old, head_new, fields);
     const WaterBudget b =
         step_budget(model_, layout_, info.period, info.steady, info.dt, head_old, head_new);
-    steps.push_back({info.period + 1, info.step, info.time, info.dt, b});
+    steps.push_back({info.period + 1, info.step, info.time, info.dt, b, info.newton_iterations,
+                     info.cutbacks, CellStateCounts{}});
     add_observations(info.period + 1, info.step, info.time, head_new);
   }
   void period_done(std::size_t) override {}
@@ -89,6 +91,24 @@ std::size_t column(const std::vector<std::string>& header, const std::string& na
 
 double num(const std::string& s) { return std::strtod(s.c_str(), nullptr); }
 
+/// The value of a column in the row of a long budget table whose component is given.
+double budget_value(const std::vector<std::vector<std::string>>& table,
+                    const std::string& component, const std::string& name) {
+  const std::size_t which = column(table[0], "component"), at = column(table[0], name);
+  for (std::size_t r = 1; r < table.size(); ++r)
+    if (table[r][which] == component) return num(table[r][at]);
+  FAIL("no row for component " << component);
+  return 0.0;
+}
+
+bool has_component(const std::vector<std::vector<std::string>>& table,
+                   const std::string& component) {
+  const std::size_t which = column(table[0], "component");
+  for (std::size_t r = 1; r < table.size(); ++r)
+    if (table[r][which] == component) return true;
+  return false;
+}
+
 }  // namespace
 
 TEST_CASE("written fields, budget and observations of a steady strip obey Darcy's law",
@@ -124,7 +144,7 @@ TEST_CASE("written fields, budget and observations of a steady strip obey Darcy'
 
   const auto folder = aquiledger::testing::scratch_folder("end-to-end");
   write_fields_vtr(folder / field_file_name(1), m, rec.fields, 1.0);
-  write_budget_steps_csv(folder / "budget_steps.csv", rec.steps);
+  write_budget_steps_csv(folder / "budget_steps.csv", budget_table_layout(m), rec.steps);
   write_observations_csv(folder / "observations.csv", m.observations, rec.observations);
 
   vtkNew<vtkXMLRectilinearGridReader> reader;
@@ -151,11 +171,15 @@ TEST_CASE("written fields, budget and observations of a steady strip obey Darcy'
     }
   }
 
+  // One step, components storage_elastic, fixed_head, and total (the model has no wells).
   const auto budget = read_csv(folder / "budget_steps.csv");
-  REQUIRE(budget.size() == 2);
-  CHECK(num(budget[1][column(budget[0], "fixed_head_in")]) == Approx(Q).epsilon(1e-9));
-  CHECK(num(budget[1][column(budget[0], "fixed_head_out")]) == Approx(Q).epsilon(1e-9));
-  CHECK(num(budget[1][column(budget[0], "wells_in")]) == 0.0);
+  REQUIRE(budget.size() == 1 + 3);
+  CHECK(budget_value(budget, "fixed_head", "into_aquifer") == Approx(Q).epsilon(1e-9));
+  CHECK(budget_value(budget, "fixed_head", "out_of_aquifer") == Approx(Q).epsilon(1e-9));
+  CHECK(budget_value(budget, "total", "into_aquifer") == Approx(Q).epsilon(1e-9));
+  CHECK(budget_value(budget, "storage_elastic", "into_aquifer") == 0.0);  // steady
+  CHECK_FALSE(has_component(budget, "well"));
+  CHECK(budget[1][column(budget[0], "unit")] == "m3/d");
 
   const auto obs = read_csv(folder / "observations.csv");
   REQUIRE(obs.size() == 1 + 2 * 2);  // header, two observations at time 0 and after the step
@@ -169,8 +193,8 @@ TEST_CASE("written fields, budget and observations of a steady strip obey Darcy'
 }
 
 // One-sided budget: steady recharge R over a strip closed on three sides leaves only through
-// the fixed-head column, so the written fixed_head_out equals R times the recharged area and
-// fixed_head_in is zero (conservation of mass in a steady state; no storage term).
+// the fixed-head column, so the fixed_head row's out_of_aquifer equals R times the area and
+// its into_aquifer is zero (conservation of mass in a steady state; no storage term).
 // Tolerance: the steady Newton solve stops at flow_tolerance 1e-6 of the throughflow, well
 // below 1e-5 relative.
 TEST_CASE("written budget of recharge draining to a fixed head balances one-sidedly",
@@ -188,14 +212,96 @@ TEST_CASE("written budget of recharge draining to a fixed head balances one-side
   Recorder rec(m);
   REQUIRE(run_simulation(m, rec).converged);
   const auto folder = aquiledger::testing::scratch_folder("end-to-end-recharge");
-  write_budget_steps_csv(folder / "budget_steps.csv", rec.steps);
+  write_budget_steps_csv(folder / "budget_steps.csv", budget_table_layout(m), rec.steps);
   const auto budget = read_csv(folder / "budget_steps.csv");
-  REQUIRE(budget.size() == 2);
   // Recharge reaches the 6 cells that are not fixed (6 x 2000 m2): 12 m3/d; the fixed
   // cells receive none (fixed cells take no stress, physics decisions).
   const double recharge = 0.001 * 6 * 50.0 * 40.0;
-  CHECK(num(budget[1][column(budget[0], "recharge_in")]) == Approx(recharge).epsilon(1e-12));
-  CHECK(num(budget[1][column(budget[0], "fixed_head_out")]) == Approx(recharge).epsilon(1e-5));
-  CHECK(num(budget[1][column(budget[0], "fixed_head_in")]) == Approx(0.0).margin(1e-5 * recharge));
+  CHECK(budget_value(budget, "recharge", "into_aquifer") == Approx(recharge).epsilon(1e-12));
+  CHECK(budget_value(budget, "fixed_head", "out_of_aquifer") == Approx(recharge).epsilon(1e-5));
+  CHECK(budget_value(budget, "fixed_head", "into_aquifer") == Approx(0.0).margin(1e-5 * recharge));
+  std::filesystem::remove_all(folder);
+}
+
+// The program's recorder, end to end: a switching aquifer pumped until cells near the well
+// turn water-table. Every table is read back by the names of the contract (model-format.md,
+// "Results", version 2) and docs/results.md; the cell counts of balance_steps.csv must equal
+// the classes of the `state` array of the field file written at the same time, and the
+// component rows of each step must add up to its `total` row and to the balance table.
+TEST_CASE("the recorder's files read back by the contract's names and agree with each other",
+          "[io][end-to-end]") {
+  test::AquiferSpec a;
+  a.condition = Condition::switching;
+  a.top = 10.0;
+  a.bottom = 0.0;
+  a.k = 2.0;
+  a.initial_head = 10.5;  // just above the top: confined at the start
+  Model m = test::make_model(std::vector<double>(7, 50.0), std::vector<double>(7, 50.0), a);
+  test::add_period(m, 20.0, 4, 1.0, false);
+  test::add_well(m, 3, 3, {200.0});
+  test::add_fixed_head(m, test::column_cells(m, 0), 10.5);
+  m.output.fields = FieldCadence::every_step;
+
+  const auto folder = aquiledger::testing::scratch_folder("recorder-files");
+  ResultRecorder recorder(m, folder);
+  REQUIRE(run_simulation(m, recorder).converged);
+  recorder.flush();
+
+  const auto steps = read_csv(folder / "budget_steps.csv");
+  const auto balance = read_csv(folder / "balance_steps.csv");
+  const auto periods = read_csv(folder / "budget_periods.csv");
+  const auto balance_p = read_csv(folder / "balance_periods.csv");
+  const auto features = read_csv(folder / "budget_features.csv");
+  REQUIRE(balance.size() == 1 + 4);
+  REQUIRE(balance_p.size() == 1 + 1);
+  // storage_elastic (no compressibilities), storage_drainage, fixed_head, well, total.
+  const std::vector<std::string> components = {"storage_elastic", "storage_drainage", "fixed_head",
+                                               "well", "total"};
+  REQUIRE(steps.size() == 1 + 4 * components.size());
+  REQUIRE(periods.size() == 1 + components.size());
+  CHECK(features[0] == std::vector<std::string>{"period", "period_name", "feature", "kind",
+                                                "into_aquifer", "out_of_aquifer", "unit"});
+  const std::size_t comp = column(steps[0], "component"), in = column(steps[0], "into_aquifer"),
+                    out = column(steps[0], "out_of_aquifer"), unit = column(steps[0], "unit");
+  bool converted = false;
+  for (std::size_t s = 0; s < 4; ++s) {
+    INFO("step " << s + 1);
+    double sum_in = 0.0, sum_out = 0.0;
+    for (std::size_t k = 0; k < components.size(); ++k) {
+      const auto& row = steps[1 + s * components.size() + k];
+      CHECK(row[comp] == components[k]);
+      CHECK(row[unit] == "m3/d");
+      if (k + 1 < components.size()) {
+        sum_in += num(row[in]);
+        sum_out += num(row[out]);
+      } else {
+        // Sums of a handful of positive terms: equal to a few ulps in any order.
+        CHECK(num(row[in]) == Approx(sum_in).epsilon(1e-14));
+        CHECK(num(row[out]) == Approx(sum_out).epsilon(1e-14));
+        CHECK(num(balance[1 + s][column(balance[0], "into_aquifer")]) == num(row[in]));
+        CHECK(num(balance[1 + s][column(balance[0], "out_of_aquifer")]) == num(row[out]));
+      }
+    }
+    // The counts against the state array of the field file of the same step (field file
+    // s + 1; file 0 is time 0).
+    const FieldMap state = read_field_vtr(folder / field_file_name(s + 1), "state");
+    long counted[3] = {0, 0, 0};
+    for (double v : state.values) {
+      REQUIRE((v == 0.0 || v == 1.0 || v == 2.0));  // every cell is active here
+      counted[static_cast<int>(v)] += 1;
+    }
+    CHECK(num(balance[1 + s][column(balance[0], "dry_cells")]) == counted[0]);
+    CHECK(num(balance[1 + s][column(balance[0], "water_table_cells")]) == counted[1]);
+    CHECK(num(balance[1 + s][column(balance[0], "confined_cells")]) == counted[2]);
+    CHECK(counted[0] + counted[1] + counted[2] == m.grid.n_active());
+    converted |= counted[1] > 0;
+    CHECK(num(balance[1 + s][column(balance[0], "newton_iterations")]) >= 1);
+  }
+  // 200 m3/d from a 10 m thick aquifer with T = 20 m2/d lowers the well cell by metres
+  // (Thiem's log drawdown, Q / (2 pi T) ln(R / r) ~ 1.6 m per ln unit), far more than the
+  // 0.5 m above the top: at least that cell converts.
+  CHECK(converted);
+  CHECK(periods[1][column(periods[0], "unit")] == "m3");
+  CHECK(num(balance_p[1][column(balance_p[0], "end")]) == Approx(20.0));
   std::filesystem::remove_all(folder);
 }

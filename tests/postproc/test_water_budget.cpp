@@ -10,13 +10,13 @@
 using namespace aquiledger;
 
 TEST_CASE("component labels and arithmetic follow the model format", "[budget]") {
-  // Column stems listed in the model format contract ("Results").
+  // Component names listed in the model format contract ("Results", version 2).
   const char* stems[] = {"storage_skeleton",
                          "storage_water",
                          "storage_drainage",
                          "storage_elastic",
                          "fixed_head",
-                         "wells",
+                         "well",
                          "recharge",
                          "river",
                          "drain",
@@ -26,11 +26,11 @@ TEST_CASE("component labels and arithmetic follow the model format", "[budget]")
   for (std::size_t k = 0; k < n_budget_components; ++k)
     CHECK(component_label(static_cast<BudgetComponent>(k)) == stems[k]);
   WaterBudget b;
-  CHECK(b.discrepancy_percent() == 0.0);  // contract: 0 when in and out are both 0
-  b[BudgetComponent::wells] = {0.0, 99.0};
+  CHECK(b.imbalance_percent() == 0.0);  // contract: 0 when in and out are both 0
+  b[BudgetComponent::well] = {0.0, 99.0};
   b[BudgetComponent::storage_elastic] = {101.0, 0.0};
   // 100 (in - out) / ((in + out) / 2) (contract).
-  CHECK(b.discrepancy_percent() == Approx(100.0 * 2.0 / 100.0));
+  CHECK(b.imbalance_percent() == Approx(100.0 * 2.0 / 100.0));
   WaterBudget sum;
   sum.add_scaled(b, 2.0);
   sum.add_scaled(b, 0.5);

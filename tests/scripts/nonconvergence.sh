@@ -4,7 +4,8 @@
 # no cut-backs) must stop with exit status 2, name period, step, time and worst cell, and
 # leave complete, readable results up to the last converged step (docs/robustness.md).
 # Expected counts follow from the model file: period 1 has 2 steps of 5 d, so the results
-# hold time 0 and t = 5, 10 d; the failing step ends at 10 + 10 000 = 10 010 d.
+# hold time 0 and t = 5, 10 d (the step tables the steps at 5 and 10 d); the failing step
+# ends at 10 + 10 000 = 10 010 d.
 set -euo pipefail
 exe=$1
 src=$2
@@ -23,8 +24,8 @@ for part in 'period 2' 'step 1' 'time 10010' 'worst cell row [0-9]+, col [0-9]+'
 done
 r=$out/results
 lines() { wc -l <"$1"; }
-[[ $(lines "$r/budget_steps.csv") -eq 4 ]] || fail "budget_steps.csv: $(lines "$r/budget_steps.csv") lines, expected header + 3"
-[[ $(lines "$r/budget_periods.csv") -eq 2 ]] || fail "budget_periods.csv: expected header + period 1"
+[[ $(lines "$r/balance_steps.csv") -eq 3 ]] || fail "balance_steps.csv: $(lines "$r/balance_steps.csv") lines, expected header + 2"
+[[ $(lines "$r/balance_periods.csv") -eq 2 ]] || fail "balance_periods.csv: expected header + period 1"
 [[ $(lines "$r/budget_features.csv") -ge 2 ]] || fail "budget_features.csv has no rows"
 [[ $(lines "$r/observations.csv") -eq 4 ]] || fail "observations.csv: expected header + 3 rows"
 # No temporary file may be left behind.
@@ -34,11 +35,18 @@ import csv, json, os, sys
 import xml.etree.ElementTree as ET
 r = sys.argv[1]
 # Every CSV row has as many cells as its header (no torn row).
-for name in ("budget_steps.csv", "budget_periods.csv", "budget_features.csv", "observations.csv"):
+for name in ("budget_steps.csv", "budget_periods.csv", "balance_steps.csv",
+             "balance_periods.csv", "budget_features.csv", "observations.csv"):
     rows = list(csv.reader(open(os.path.join(r, name))))
     assert all(len(row) == len(rows[0]) for row in rows), name + ": ragged rows"
-steps = list(csv.DictReader(open(os.path.join(r, "budget_steps.csv"))))
-assert [float(s["time"]) for s in steps] == [0.0, 5.0, 10.0], [s["time"] for s in steps]
+steps = list(csv.DictReader(open(os.path.join(r, "balance_steps.csv"))))
+assert [float(s["time"]) for s in steps] == [5.0, 10.0], [s["time"] for s in steps]
+# The long step budget: each step's rows end with its total, and only period 1 is there.
+budget = list(csv.DictReader(open(os.path.join(r, "budget_steps.csv"))))
+assert sorted({float(b["time"]) for b in budget}) == [5.0, 10.0]
+assert [b["component"] for b in budget].count("total") == 2
+periods = list(csv.DictReader(open(os.path.join(r, "budget_periods.csv"))))
+assert {p["period"] for p in periods} == {"1"}, periods
 # fields.pvd is valid XML naming only files that exist, at the converged times.
 root = ET.parse(os.path.join(r, "fields.pvd")).getroot()
 sets = root.findall("./Collection/DataSet")

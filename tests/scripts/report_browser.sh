@@ -51,7 +51,7 @@ check_page() {  # check_page <page> <minimum charts>
   fi
 }
 
-# Demo report: 5 periods' budget, storage, discrepancy, 3 hydrographs, 2 x 2 maps.
+# Demo report: 5 periods' budget, storage, imbalance, 3 hydrographs, 2 x 2 maps.
 check_page "$tmp/report.html" 10
 browse "$tmp/report.html" --window-size=1100,3000 --screenshot="$tmp/report.png" >/dev/null
 if [[ ! -s "$tmp/report.png" ]]; then

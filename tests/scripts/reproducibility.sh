@@ -38,7 +38,7 @@ for name in sorted(f for f in os.listdir(a) if f.endswith(".csv")):
             except ValueError:
                 assert x == y, (name, column, x, y)
                 continue
-            if column == "discrepancy_percent":
+            if column == "imbalance_percent":
                 # A difference of near-equal totals, pure rounding: absolute 1e-9 %, far
                 # below the 1e-6 % the solver's balance test guarantees.
                 assert abs(fx - fy) <= 1e-9, (name, column, x, y)

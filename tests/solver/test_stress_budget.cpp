@@ -99,7 +99,7 @@ TEST_CASE("budget closes at every step with every stress active", "[stress_budge
     // per-feature rows add up to its component columns.
     const WaterBudget b = step_budget(m, layout, step.info.period, step.info.steady, step.info.dt,
                                       step.head_old, step.head);
-    CHECK(std::abs(b.discrepancy_percent()) < 1e-6);
+    CHECK(std::abs(b.imbalance_percent()) < 1e-6);
     CHECK(b.total_in() == Approx(total.in).epsilon(1e-12));
     CHECK(b.total_out() == Approx(total.out).epsilon(1e-12));
     const double skeleton =
@@ -110,7 +110,7 @@ TEST_CASE("budget closes at every step with every stress active", "[stress_budge
     CHECK(skeleton == Approx(0.6 * (skeleton + water)).margin(1e-12 * total.in));
     CHECK(b[BudgetComponent::storage_elastic].in + b[BudgetComponent::storage_elastic].out == 0.0);
     const std::pair<FeatureKind, BudgetComponent> kinds[] = {
-        {FeatureKind::well, BudgetComponent::wells},
+        {FeatureKind::well, BudgetComponent::well},
         {FeatureKind::fixed_head, BudgetComponent::fixed_head},
         {FeatureKind::recharge, BudgetComponent::recharge},
         {FeatureKind::river, BudgetComponent::river},

@@ -28,7 +28,7 @@ struct TheisSetup {
 
 struct TheisRun {
   double max_relative_error = 0.0;
-  double max_discrepancy = 0.0;
+  double max_imbalance = 0.0;
   RunResult result;
 };
 
@@ -76,7 +76,7 @@ TheisRun run_theis(double centre, double growth, int steps, double step_growth, 
       run.max_relative_error = std::max(run.max_relative_error, std::abs(s_num - s_ref) / s_ref);
     }
   }
-  run.max_discrepancy = obs.max_discrepancy;
+  run.max_imbalance = obs.max_imbalance;
   return run;
 }
 

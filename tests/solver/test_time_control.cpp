@@ -30,14 +30,14 @@ TEST_CASE("a cell pumped dry wets again under recharge", "[time_control]") {
   // must fall short, and the reported shortfall plus the delivered rate is the asked rate.
   const WaterBudget& dry = obs.budgets[end_of_pumping];
   std::printf("drying: centre head %.4f m, delivered %.4f, shortfall %.4f m3/d\n",
-              obs.heads[end_of_pumping][centre], dry[BudgetComponent::wells].out,
+              obs.heads[end_of_pumping][centre], dry[BudgetComponent::well].out,
               dry.well_shortfall);
   CHECK(dry.well_shortfall > 10.0);
-  CHECK(dry[BudgetComponent::wells].out + dry.well_shortfall == Approx(20.0).epsilon(1e-9));
+  CHECK(dry[BudgetComponent::well].out + dry.well_shortfall == Approx(20.0).epsilon(1e-9));
   CHECK(obs.heads[end_of_pumping][centre] < 0.1);  // within the reduction length of the base
   // Recharge 0.01 m/d for 40 d refills Sy-storage by 4 m of head at most; the centre wets.
   CHECK(obs.last_head[centre] > 1.0);
-  CHECK(obs.max_discrepancy < 1e-6);
+  CHECK(obs.max_imbalance < 1e-6);
 }
 
 TEST_CASE("a dry cell wets from a wet neighbour alone, with either face thickness",
@@ -264,8 +264,10 @@ SparseMatrix upstream_weighted_matrix(int nr, int nc, double storage, Face face)
 
 }  // namespace
 
-TEST_CASE("BiCGSTAB with a Cholesky factor of the fixed-thickness matrix solves upstream-weighted systems",
-          "[linear]") {
+TEST_CASE(
+    "BiCGSTAB with a Cholesky factor of the fixed-thickness matrix solves upstream-weighted "
+    "systems",
+    "[linear]") {
   // A column-diagonally-dominant M-matrix like an upstream-weighted Jacobian: 5-point
   // conductances C on a 60 x 50 grid, plus on each face the thickness-derivative term
   // C' dh (here 5 % of C) on the upstream cell's column, and a storage diagonal. The check is
@@ -273,8 +275,8 @@ TEST_CASE("BiCGSTAB with a Cholesky factor of the fixed-thickness matrix solves 
   // iterative tolerance (1e-12), and x must agree with LU (UMFPACK) to 1e-9 relative.
   const int nr = 60, nc = 50, n = nr * nc;
   const SparseMatrix a = upstream_weighted_matrix(nr, nc, 0.01, [](int r, int c, bool east) {
-    const double conductance = east ? 1.0 + 0.5 * std::sin(0.3 * r + 0.1 * c)
-                                    : 1.0 + 0.5 * std::cos(0.2 * r - 0.4 * c);
+    const double conductance =
+        east ? 1.0 + 0.5 * std::sin(0.3 * r + 0.1 * c) : 1.0 + 0.5 * std::cos(0.2 * r - 0.4 * c);
     return std::pair{conductance, 0.05 * conductance};  // C' dh: 5 % of C
   });
   Eigen::VectorXd b(n);
@@ -335,7 +337,8 @@ TEST_CASE("The fixed-thickness preconditioner holds where the symmetric part is 
   Eigen::VectorXd x = Eigen::VectorXd::Zero(n), y = Eigen::VectorXd::Zero(n);
   REQUIRE(krylov->solve(a, b, x));
   REQUIRE(lu->solve(a, b, y));
-  INFO("relative residual " << (a * x - b).norm() / b.norm() << " after " << krylov->last_iterations());
+  INFO("relative residual " << (a * x - b).norm() / b.norm() << " after "
+                            << krylov->last_iterations());
   CHECK((a * x - b).norm() / b.norm() < 1e-11);
   CHECK((x - y).norm() / y.norm() < 1e-9);
   // A preconditioner this close to the matrix converges in tens of iterations, not hundreds
@@ -348,10 +351,11 @@ TEST_CASE("Newton with the fixed-thickness preconditioned BiCGSTAB reaches the L
   // A switching aquifer whose pumped cells fall below the confining top (steep cone, thin
   // saturated thickness beside confined-small storage: the regime where the symmetric part
   // can be indefinite). Each step is solved by Newton twice from the same state, with LU
-  // (UMFPACK: exact solves) and with BiCGSTAB + Cholesky of the fixed-thickness matrix (inexact solves, Eisenstat-Walker
-  // forcing). Both are asked to converge far below the comparison (head change 1e-10 m, cell
-  // imbalance 1e-10 of the throughflow), so the defining equation R(h) = 0 is met by both and
-  // their heads must agree to 1e-7 m; the step budget closes in both (the residual test).
+  // (UMFPACK: exact solves) and with BiCGSTAB + Cholesky of the fixed-thickness matrix (inexact
+  // solves, Eisenstat-Walker forcing). Both are asked to converge far below the comparison (head
+  // change 1e-10 m, cell imbalance 1e-10 of the throughflow), so the defining equation R(h) = 0 is
+  // met by both and their heads must agree to 1e-7 m; the step budget closes in both (the residual
+  // test).
   test::AquiferSpec a;
   a.condition = Condition::switching;
   a.top = 10.0;
@@ -386,7 +390,8 @@ TEST_CASE("Newton with the fixed-thickness preconditioned BiCGSTAB reaches the L
     REQUIRE(r1.converged);
     REQUIRE(r2.converged);
     double worst = 0.0;
-    for (std::size_t i = 0; i < head.size(); ++i) worst = std::max(worst, std::abs(by_lu[i] - by_krylov[i]));
+    for (std::size_t i = 0; i < head.size(); ++i)
+      worst = std::max(worst, std::abs(by_lu[i] - by_krylov[i]));
     INFO("step " << step << ": largest head difference " << worst << " m");
     CHECK(worst <= 1e-7);
     CHECK(r2.sum_imbalance <= 1e-10);

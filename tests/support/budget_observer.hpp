@@ -25,8 +25,8 @@ class BudgetObserver : public SimulationObserver {
     steps.push_back(info);
     const WaterBudget b =
         step_budget(model_, layout_, info.period, info.steady, info.dt, head_old, head_new);
-    const double d = b.discrepancy_percent();
-    max_discrepancy = std::max(max_discrepancy, std::abs(d));
+    const double d = b.imbalance_percent();
+    max_imbalance = std::max(max_imbalance, std::abs(d));
     CHECK(std::abs(d) < 1e-6);
     budgets.push_back(b);
     if (keep_heads_) heads.emplace_back(head_new.begin(), head_new.end());
@@ -43,8 +43,8 @@ class BudgetObserver : public SimulationObserver {
   std::vector<std::vector<double>> heads;
   std::vector<double> last_head;
   std::vector<std::size_t> periods_done;
-  WaterBudget cumulative;        ///< volumes (L3) since the start
-  double max_discrepancy = 0.0;  ///< percent
+  WaterBudget cumulative;      ///< volumes (L3) since the start
+  double max_imbalance = 0.0;  ///< percent
 
  private:
   const Model& model_;
