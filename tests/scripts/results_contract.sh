@@ -17,7 +17,7 @@ fail() { echo "FAIL: $*"; exit 1; }
 
 # The model and its measured heads copied, so that one can later be taken away.
 mkdir -p "$t/model" "$t/elsewhere"
-cp "$src/tests/data/results/tessel_vale.toml" "$src/tests/data/results/tessel_well_bore.csv" "$t/model/"
+cp "$src/tests/data/outputs/tessel_vale.toml" "$src/tests/data/outputs/tessel_well_bore.csv" "$t/model/"
 cd "$t/elsewhere"
 "$exe" run ../model/tessel_vale.toml -o "$t/a" -q >/dev/null
 
