@@ -261,6 +261,13 @@ void settings_part(Report& r, const Model& m) {
                                                                    : "period_end";
   r.item("output folder", m.output.folder.string());
   r.item("fields, budget", std::string(fields) + ", " + (m.output.budget ? "yes" : "no"));
+  if (!m.output.head_array_times.empty() || m.output.head_arrays_at_period_ends) {
+    std::string times;
+    for (double t : m.output.head_array_times) times += (times.empty() ? "t = " : ", ") + g3(t);
+    if (!times.empty()) times += " " + m.time_unit;
+    const std::string ends = m.output.head_arrays_at_period_ends ? "every period end" : "";
+    r.item("head arrays", ends + (!ends.empty() && !times.empty() ? "; " : "") + times);
+  }
   const char* linear[] = {"auto", "direct", "pcg", "bicgstab"};
   r.item("linear solver", linear[static_cast<int>(m.solver.linear)]);
   if (m.aquifer.condition != Condition::confined)

@@ -72,4 +72,5 @@ TEST_CASE("the Marrow Basin demo is accepted and reported", "[check_report]") {
   const std::string report = format_check_report(m);
   CHECK(report.find("Jacob, 1940") != std::string::npos);
   CHECK(report.find("pre-development") != std::string::npos);
+  CHECK(report.find("t = 365 d") != std::string::npos);  // [output].head_arrays
 }
