@@ -13,7 +13,9 @@ namespace aquiledger {
 
 namespace {
 
-constexpr const char* groups[] = {"storage", "rivers and drains", "boundaries", "other stresses"};
+/// In alphabetical order, the order the bar chart gives its colours, so that the line chart
+/// colours each group the same way.
+constexpr const char* groups[] = {"boundaries", "other stresses", "rivers and drains", "storage"};
 
 std::string share_text(double v) { return std::isfinite(v) ? fmt::format("{:.3f}", v) : "-"; }
 
@@ -80,6 +82,21 @@ bool add_water_sources_section(HtmlReport& page, const std::filesystem::path& fo
   page.add_chart("Share of the water pumped since the start, at the end of each period",
                  line_chart_spec(series, {fmt::format("time at the end of the period ({})", tu)},
                                  {"share of the volume pumped (-)"}));
+  // The same in numbers, per period.
+  std::vector<std::vector<std::string>> period_rows;
+  for (const auto& [p, info] : periods) {
+    const auto& [pname, pend, ppumped, pcum] = info;
+    std::vector<std::string> row{fmt::format("{:g}", p), pname, fmt::format("{:.4g}", ppumped)};
+    for (const char* g : groups) {
+      const auto found = by_group.find({p, g});
+      row.push_back(
+          share_text(found == by_group.end() ? 0.0 : share_of(found->second.first, ppumped)));
+    }
+    period_rows.push_back(row);
+  }
+  std::vector<std::string> header{"period", "name", fmt::format("pumped ({})", vu)};
+  for (const char* g : groups) header.push_back(fmt::format("share from {} (-)", g));
+  page.add_table(header, period_rows);
   // Cumulative to the end of the last period, every source.
   std::vector<std::vector<std::string>> rows;
   const double last = periods.empty() ? 0.0 : periods.rbegin()->first;

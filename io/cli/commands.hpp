@@ -25,8 +25,8 @@ struct RunOptions {
   std::optional<std::filesystem::path> output_folder;
   std::optional<int> threads;
   bool quiet = false;
-  int checkpoint_every = 0;       ///< write a checkpoint every N accepted steps (0: never)
-  bool resume = false;            ///< continue from the output folder's checkpoint
+  int checkpoint_every = 0;  ///< write a checkpoint every N accepted steps (0: never)
+  bool resume = false;       ///< continue from the output folder's checkpoint
   std::string engine = "serial";  ///< "serial", or "petsc" (distributed, under mpirun)
 };
 
@@ -40,21 +40,9 @@ struct ReportOptions {
   std::optional<std::filesystem::path> model_file;   ///< default: summary.json's model_file
 };
 
-struct SourcesOptions {
-  std::optional<std::filesystem::path> model_file;
-  std::string wells;  ///< comma-separated names of the wells whose water is traced
-  std::optional<std::filesystem::path> output_folder;      ///< default: the model's results folder
-  std::optional<std::filesystem::path> with_wells_folder;  ///< compare two results folders
-  std::optional<std::filesystem::path> without_wells_folder;
-  std::string time_unit = "d";  ///< of the compared folders (their budget tables omit it)
-  std::optional<int> threads;
-  bool quiet = false;
-};
-
 int run_check_command(const CheckOptions& options);
 int run_run_command(const RunOptions& options);
 int run_verify_command(const VerifyOptions& options);
 int run_report_command(const ReportOptions& options);
-int run_sources_command(const SourcesOptions& options);
 
 }  // namespace aquiledger

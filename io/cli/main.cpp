@@ -1,26 +1,25 @@
 // aquiledger: the command line. Subcommands read a model, check it, or run it.
-#include <fmt/format.h>
+#include <csignal>
 
 #include <CLI/CLI.hpp>
-#include <csignal>
+#include <fmt/format.h>
 
 #include "aquiledger_version.hpp"
 #include "io/cli/commands.hpp"
+#include "io/cli/sources_command.hpp"
 
 int main(int argc, char** argv) {
   using namespace aquiledger;
   // Past a file-size limit (ulimit -f) a write then fails with EFBIG, reported like a full
   // disk, instead of the signal killing the program mid-file.
   std::signal(SIGXFSZ, SIG_IGN);
-  CLI::App app{
-      "aquiledger: transient 2D groundwater flow with exact confined / water-table storage "
-      "switching and closed water budgets."};
+  CLI::App app{"aquiledger: transient 2D groundwater flow with exact confined / water-table storage "
+               "switching and closed water budgets."};
   app.set_version_flag("--version", fmt::format("aquiledger {}", version_string));
   app.require_subcommand(1);
   app.footer(
       "Exit status: 0 success; 1 invalid model file (nothing run); 2 the run did not converge "
-      "(results up to the last converged step are kept); 3 results could not be written; 4 "
-      "--resume "
+      "(results up to the last converged step are kept); 3 results could not be written; 4 --resume "
       "found no checkpoint it could use; 5 verify: a benchmark fell outside its tolerance.");
 
   CheckOptions check_options;
@@ -35,9 +34,8 @@ int main(int argc, char** argv) {
   run->add_option("-t,--threads", run_options.threads, "Threads (default: [solver].threads)")
       ->check(CLI::NonNegativeNumber);
   run->add_flag("-q,--quiet", run_options.quiet, "Print only errors and the final status line");
-  run->add_option(
-         "--checkpoint-every", run_options.checkpoint_every,
-         "Write a checkpoint (checkpoint.aqck in the results folder) every N accepted steps")
+  run->add_option("--checkpoint-every", run_options.checkpoint_every,
+                  "Write a checkpoint (checkpoint.aqck in the results folder) every N accepted steps")
       ->check(CLI::NonNegativeNumber);
   run->add_flag("--resume", run_options.resume,
                 "Continue from the checkpoint in the results folder; the results equal those of an "
@@ -51,47 +49,20 @@ int main(int argc, char** argv) {
 
   VerifyOptions verify_options;
   auto* verify = app.add_subcommand(
-      "verify",
-      "Run the analytical benchmark suite on built-in grids and compare with the "
-      "published solutions.");
-  verify->add_option(
-      "-o,--out", verify_options.output_folder,
-      "Folder for the comparison CSV files and verify.html (default: verify-results)");
+      "verify", "Run the analytical benchmark suite on built-in grids and compare with the "
+                "published solutions.");
+  verify->add_option("-o,--out", verify_options.output_folder,
+                     "Folder for the comparison CSV files and verify.html (default: verify-results)");
 
   ReportOptions report_options;
-  auto* report =
-      app.add_subcommand("report", "Write a self-contained HTML report of a results folder.");
-  report->add_option("RESULTS", report_options.results_folder, "Results folder of a run")
-      ->required();
-  report->add_option("-o,--out", report_options.output_file,
-                     "HTML file (default: RESULTS/report.html)");
-  report->add_option(
-      "-m,--model", report_options.model_file,
-      "Model file, for measured heads (default: model_file in RESULTS/summary.json)");
+  auto* report = app.add_subcommand("report", "Write a self-contained HTML report of a results folder.");
+  report->add_option("RESULTS", report_options.results_folder, "Results folder of a run")->required();
+  report->add_option("-o,--out", report_options.output_file, "HTML file (default: RESULTS/report.html)");
+  report->add_option("-m,--model", report_options.model_file,
+                     "Model file, for measured heads (default: model_file in RESULTS/summary.json)");
 
   SourcesOptions sources_options;
-  auto* sources = app.add_subcommand(
-      "sources",
-      "Where the water of chosen wells comes from: runs the model with and without "
-      "them (or compares two results folders) and writes water_sources.csv and .json.");
-  sources->add_option("MODEL", sources_options.model_file, "Model definition (TOML)");
-  sources->add_option(
-      "-w,--wells", sources_options.wells,
-      "Comma-separated names of the wells whose water to trace, e.g. \"well 1,well 2\"");
-  sources->add_option(
-      "-o,--output", sources_options.output_folder,
-      "Folder for water_sources.csv and .json (default: the model's results folder, "
-      "or the --with-wells folder)");
-  sources->add_option("--with-wells", sources_options.with_wells_folder,
-                      "Compare results folders instead of running: the run with the wells");
-  sources->add_option("--without-wells", sources_options.without_wells_folder,
-                      "... and the run without them (same periods)");
-  sources->add_option("--time-unit", sources_options.time_unit,
-                      "Time unit of the compared folders (default d)");
-  sources
-      ->add_option("-t,--threads", sources_options.threads, "Threads (default: [solver].threads)")
-      ->check(CLI::NonNegativeNumber);
-  sources->add_flag("-q,--quiet", sources_options.quiet, "Print only errors");
+  auto* sources = add_sources_subcommand(app, sources_options);
 
   try {
     app.parse(argc, argv);

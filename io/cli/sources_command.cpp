@@ -1,8 +1,11 @@
 // `sources`: where the water of a chosen set of wells comes from (storage by mechanism,
 // rivers and drains, boundaries, other stresses), from a run with and one without them, or
 // from two results folders.
+#include "io/cli/sources_command.hpp"
+
 #include <fmt/format.h>
 
+#include <CLI/CLI.hpp>
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
@@ -102,6 +105,29 @@ int compare_folders(const SourcesOptions& o, const std::vector<std::string>& cho
 }
 
 }  // namespace
+
+CLI::App* add_sources_subcommand(CLI::App& app, SourcesOptions& o) {
+  auto* sources = app.add_subcommand(
+      "sources",
+      "Where the water of chosen wells comes from: runs the model with and without them (or "
+      "compares two results folders) and writes water_sources.csv and water_sources.json.");
+  sources->add_option("MODEL", o.model_file, "Model definition (TOML)");
+  sources->add_option("-w,--wells", o.wells,
+                      "Comma-separated names of the wells whose water to trace, e.g. "
+                      "\"town well 1,town well 2\"");
+  sources->add_option("-o,--output", o.output_folder,
+                      "Folder for the two files (default: the model's results folder, or the "
+                      "--with-wells folder)");
+  sources->add_option("--with-wells", o.with_wells_folder,
+                      "Compare two results folders instead of running: the run with the wells");
+  sources->add_option("--without-wells", o.without_wells_folder,
+                      "... and the run without them (same periods)");
+  sources->add_option("--time-unit", o.time_unit, "Time unit of the compared folders (default d)");
+  sources->add_option("-t,--threads", o.threads, "Threads (default: [solver].threads)")
+      ->check(CLI::NonNegativeNumber);
+  sources->add_flag("-q,--quiet", o.quiet, "Print only errors");
+  return sources;
+}
 
 int run_sources_command(const SourcesOptions& o) {
   const std::vector<std::string> chosen = split_names(o.wells);
