@@ -1,5 +1,6 @@
 #include "postproc/water_sources.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <limits>
 #include <stdexcept>
@@ -81,7 +82,15 @@ WaterSources water_sources(std::span<const SourceFeature> features,
       else
         row.volume.push_back(change);
     }
-    // Storage components the caller left out must be empty in both runs.
+    // Storage the caller left out would break the identity below.
+    for (std::size_t k = 0; k < n_budget_components; ++k) {
+      const auto c = static_cast<BudgetComponent>(k);
+      const bool listed = std::find(storage.begin(), storage.end(), c) != storage.end();
+      if (!listed && !storage_source_label(c).empty() &&
+          (net(p.with_wells[c]) != 0.0 || net(p.without_wells[c]) != 0.0))
+        throw std::invalid_argument("water_sources: period '" + p.name + "' has " +
+                                    std::string(component_label(c)) + " but no line for it");
+    }
     row.volume.push_back(imbalance(p.without_wells) - imbalance(p.with_wells));
     cumulative_withdrawn += row.withdrawn;
     row.cumulative_withdrawn = cumulative_withdrawn;
