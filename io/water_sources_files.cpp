@@ -2,6 +2,7 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <cmath>
 #include <iterator>
 #include <map>
@@ -245,9 +246,17 @@ std::vector<PeriodPair> pair_folders(const FolderBudgets& with_wells, const Fold
         1e-9 * std::max(1.0, std::abs(with_wells.end[p])))
       throw OutputError(fmt::format("period {} ends at {} in one run and at {} in the other", p + 1,
                                     with_wells.end[p], without.end[p]));
-  storage = with_wells.storage;
-  for (BudgetComponent c : without.storage)
-    if (std::find(storage.begin(), storage.end(), c) == storage.end()) storage.push_back(c);
+  // The storage components either table lists, less those empty in every period of both
+  // runs (a table may list all four whatever the model has).
+  storage.clear();
+  for (const FolderBudgets* run : {&with_wells, &without})
+    for (BudgetComponent c : run->storage) {
+      bool used = false;
+      for (const FolderBudgets* r : {&with_wells, &without})
+        for (const WaterBudget& b : r->volumes) used |= b[c].in != 0.0 || b[c].out != 0.0;
+      if (used && std::find(storage.begin(), storage.end(), c) == storage.end())
+        storage.push_back(c);
+    }
 
   const bool by_feature = !with_wells.features.empty() || !without.features.empty();
   std::vector<PeriodPair> pairs(with_wells.volumes.size());

@@ -53,6 +53,7 @@ FolderBudgets read_folder_budgets(const std::filesystem::path& folder, bool feat
 /// Lines both folders up for water_sources(): the features of either run (by kind and
 /// name; a feature missing from one run counts zero there), chosen = wells named in
 /// chosen_wells; without feature tables, one line per component and every well chosen.
+/// Storage components empty in every period of both runs get no line.
 /// Throws OutputError when the periods differ or a chosen name is not a well of either run.
 std::vector<PeriodPair> pair_folders(const FolderBudgets& with_wells, const FolderBudgets& without,
                                      const std::vector<std::string>& chosen_wells,

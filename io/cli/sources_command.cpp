@@ -29,7 +29,10 @@ std::vector<std::string> split_names(const std::string& list) {
   std::stringstream s(list);
   for (std::string item; std::getline(s, item, ',');) {
     const auto first = item.find_first_not_of(" \t"), last = item.find_last_not_of(" \t");
-    if (first != std::string::npos) names.push_back(item.substr(first, last - first + 1));
+    if (first == std::string::npos) continue;
+    std::string name = item.substr(first, last - first + 1);
+    if (std::find(names.begin(), names.end(), name) == names.end())
+      names.push_back(std::move(name));
   }
   return names;
 }

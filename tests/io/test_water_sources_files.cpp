@@ -23,28 +23,23 @@ void write(const std::filesystem::path& p, const std::string& text) { std::ofstr
 void write_folder(const std::filesystem::path& folder, double q, double river_in) {
   std::filesystem::create_directories(folder);
   const double storage = 10.0 * q - river_in + 40.0;  // the neighbour's 4 x 10 too
+  const double released = std::max(storage, 0.0), taken = std::max(-storage, 0.0);
+  const double wells = 10.0 * q + 40.0;
+  // Drainage is listed but never used: it gets no line.
   write(folder / "budget_periods.csv",
-        "period,period_name,start,end,component,into_aquifer,out_of_aquifer,unit\n"
-        "1,\"spring, wet\",0,10,storage_elastic," +
-            fmt::format("{},{}", std::max(storage, 0.0), std::max(-storage, 0.0)) +
-            ",m3\n"
-            "1,\"spring, wet\",0,10,well,0," +
-            fmt::format("{}", 10.0 * q + 40.0) +
-            ",m3\n"
-            "1,\"spring, wet\",0,10,river," +
-            fmt::format("{}", river_in) +
-            ",0,m3\n"
-            "1,\"spring, wet\",0,10,total," +
-            fmt::format("{}", std::max(storage, 0.0) + river_in) + "," +
-            fmt::format("{}", 10.0 * q + 40.0 + std::max(-storage, 0.0)) + ",m3\n");
+        fmt::format("period,period_name,start,end,component,into_aquifer,out_of_aquifer,unit\n"
+                    "1,\"spring, wet\",0,10,storage_elastic,{},{},m3\n"
+                    "1,\"spring, wet\",0,10,storage_drainage,0,0,m3\n"
+                    "1,\"spring, wet\",0,10,well,0,{},m3\n"
+                    "1,\"spring, wet\",0,10,river,{},0,m3\n"
+                    "1,\"spring, wet\",0,10,total,{},{},m3\n",
+                    released, taken, wells, river_in, released + river_in, wells + taken));
   write(folder / "budget_features.csv",
-        "feature,kind,period,into_aquifer,out_of_aquifer\n"
-        "town well,well,1,0," +
-            fmt::format("{}", 10.0 * q) +
-            "\n"
-            "farm well,well,1,0,40\n"
-            "mill race,river,1," +
-            fmt::format("{}", river_in) + ",0\n");
+        fmt::format("feature,kind,period,into_aquifer,out_of_aquifer\n"
+                    "town well,well,1,0,{}\n"
+                    "farm well,well,1,0,40\n"
+                    "mill race,river,1,{},0\n",
+                    10.0 * q, river_in));
 }
 
 }  // namespace
@@ -58,7 +53,8 @@ TEST_CASE("two results folders in the version 2 layout give the sources of water
   const FolderBudgets without = read_folder_budgets(root / "without", true);
   REQUIRE(with.names == std::vector<std::string>{"spring, wet"});
   CHECK(with.volume_unit == "m3");
-  CHECK(with.storage == std::vector<BudgetComponent>{BudgetComponent::storage_elastic});
+  CHECK(with.storage == std::vector<BudgetComponent>{BudgetComponent::storage_elastic,
+                                                     BudgetComponent::storage_drainage});
   CHECK(with.volumes[0][BudgetComponent::wells].out == 540.0);
   std::vector<SourceFeature> features;
   std::vector<BudgetComponent> storage;
