@@ -129,6 +129,10 @@ CLI::App* add_sources_subcommand(CLI::App& app, SourcesOptions& o) {
   sources->add_option("-t,--threads", o.threads, "Threads (default: [solver].threads)")
       ->check(CLI::NonNegativeNumber);
   sources->add_flag("-q,--quiet", o.quiet, "Print only errors");
+  sources->footer(
+      "Exit status: 0 success; 1 invalid model file (nothing run); 2 a run did not converge "
+      "(nothing written); 3 the files could not be written, or the folders' tables read; 64 "
+      "wrong command line (also: a name that is no well of the model).");
   return sources;
 }
 
@@ -154,6 +158,8 @@ int run_sources_command(const SourcesOptions& o) {
     return exit_invalid_model;
   }
   Model& model = *read.model;
+  if (!o.quiet)
+    for (const auto& w : model.warnings) std::fprintf(stdout, "warning: %s\n", w.c_str());
   if (o.threads) model.solver.threads = *o.threads;
   if (chosen.empty()) {
     std::fputs("error: name the wells whose water to trace with --wells \"name1,name2\"\n", stderr);
