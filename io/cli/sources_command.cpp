@@ -11,6 +11,7 @@
 #include <cstdio>
 #include <map>
 #include <sstream>
+#include <stdexcept>
 
 #include "aquiledger_version.hpp"
 #include "io/atomic_file.hpp"
@@ -100,6 +101,9 @@ int compare_folders(const SourcesOptions& o, const std::vector<std::string>& cho
     write_water_sources(o.output_folder ? *o.output_folder : *o.with_wells_folder, sources,
                         context);
   } catch (const OutputError& e) {
+    std::fprintf(stderr, "error: %s\n", e.what());
+    return exit_output_failure;
+  } catch (const std::invalid_argument& e) {  // budgets that cannot be lined up
     std::fprintf(stderr, "error: %s\n", e.what());
     return exit_output_failure;
   }
@@ -212,6 +216,15 @@ int run_sources_command(const SourcesOptions& o) {
   }
   if (!o.quiet) {
     std::fputs(format_sources_table(sources, model.length_unit).c_str(), stdout);
+    // A chosen well in a cell that runs dry delivers less than its rate.
+    for (std::size_t p = 0; p < sources.periods.size(); ++p) {
+      const double planned = run.planned[p], delivered = sources.periods[p].withdrawn;
+      if (std::abs(planned - delivered) > 1e-9 * std::abs(planned))
+        std::fprintf(stdout,
+                     "note: period %zu: the chosen wells delivered %.4g of the %.4g %s3 planned "
+                     "(cells ran dry); shares are of the delivered volume\n",
+                     p + 1, delivered, planned, model.length_unit.c_str());
+    }
     std::fprintf(stdout, "\nwater_sources.csv and water_sources.json in %s\n\n%s\n",
                  folder.string().c_str(), professional_caution);
   }
