@@ -125,8 +125,9 @@ TEST_CASE("sources of water close to rounding in a switching model with every st
   }
   const SourcePeriod& pumping = s.periods[1];
   // Lower heads take water from storage by both mechanisms, induce river seepage, cut the
-  // drain's outflow and the reeds' evapotranspiration, and (head-limited) the neighbour's
-  // delivery: each a positive row (Barlow and Leake, 2012, fig. 8 ff.).
+  // drain's outflow and the reeds' evapotranspiration: each a positive row (Theis, 1940:
+  // capture is increased inflow or decreased outflow; Barlow and Leake, 2012). Lower heads
+  // can only cut the neighbour's delivery, never raise it.
   for (auto [source, feature] : {std::pair{"storage_elastic", ""},
                                  {"storage_drainage", ""},
                                  {"river", "creek"},
@@ -135,7 +136,7 @@ TEST_CASE("sources of water close to rounding in a switching model with every st
     CHECK(pumping.volume[line_of(s, source, feature)] > 0.0);
   CHECK(pumping.volume[line_of(s, "well", "neighbour")] >= 0.0);
   // After pumping stops the aquifer refills: storage takes water back in the third period,
-  // while capture goes on (Barlow and Leake, 2012, "after pumping stops").
+  // while capture goes on (Barlow and Leake, 2012: depletion continues after pumping stops).
   const SourcePeriod& recovery = s.periods[2];
   CHECK(recovery.withdrawn == 0.0);
   CHECK(recovery.volume[line_of(s, "storage_elastic")] +
