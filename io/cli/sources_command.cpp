@@ -10,6 +10,7 @@
 #include <cmath>
 #include <cstdio>
 #include <map>
+#include <optional>
 #include <sstream>
 #include <stdexcept>
 
@@ -17,6 +18,7 @@
 #include "io/atomic_file.hpp"
 #include "io/cli/commands.hpp"
 #include "io/model_reader.hpp"
+#include "io/output_lock.hpp"
 #include "io/run_report.hpp"
 #include "io/water_sources_files.hpp"
 #include "postproc/water_sources.hpp"
@@ -98,8 +100,9 @@ int compare_folders(const SourcesOptions& o, const std::vector<std::string>& cho
     if (with.volume_unit.size() > 1 && with.volume_unit.back() == '3')
       context.length_unit = with.volume_unit.substr(0, with.volume_unit.size() - 1);
     context.time_unit = o.time_unit;
-    write_water_sources(o.output_folder ? *o.output_folder : *o.with_wells_folder, sources,
-                        context);
+    const std::filesystem::path folder = o.output_folder ? *o.output_folder : *o.with_wells_folder;
+    const OutputFolderLock lock(folder);
+    write_water_sources(folder, sources, context);
   } catch (const OutputError& e) {
     std::fprintf(stderr, "error: %s\n", e.what());
     return exit_output_failure;
@@ -184,7 +187,10 @@ int run_sources_command(const SourcesOptions& o) {
     chosen_index.push_back(static_cast<std::size_t>(it - model.wells.begin()));
   }
   const std::filesystem::path folder = o.output_folder ? *o.output_folder : model.output.folder;
+  // A results folder takes one writer at a time (a `run` into it, or this command).
+  std::optional<OutputFolderLock> lock;
   try {
+    lock.emplace(folder);
     check_output_folder_writable(folder);
   } catch (const OutputError& e) {
     std::fprintf(stderr, "error: %s\nNothing was run.\n", e.what());

@@ -1,17 +1,18 @@
 #!/usr/bin/env bash
 # `aquiledger sources` end to end on the invented valley of tests/data/sources/valley.toml:
 # the files' columns as docs/results.md lists them, the mass balance (every period's shares,
-# and the cumulative ones, sum to one), wrong well names refused with exit status 64, the
-# report's section (rendered in headless Chromium when it is installed), and, once the
-# results tables are in the version 2 layout, a comparison of two results folders that must
-# give the same volumes as the in-process runs.
+# and the cumulative ones, sum to one), the results folder locked while it writes, wrong
+# well names refused with exit status 64, the report's section (rendered in headless
+# Chromium when it is installed), and, once the results tables are in the version 2 layout,
+# a comparison of two results folders that must give the same volumes as the in-process runs.
 #   bash water_sources.sh <aquiledger> <source-dir>
 set -euo pipefail
 exe=${1:?usage: water_sources.sh <aquiledger> <source-dir>}
 src=${2:?usage: water_sources.sh <aquiledger> <source-dir>}
 model=$src/tests/data/sources/valley.toml
 out=$(mktemp -d)
-trap 'rm -rf "$out"' EXIT
+busy=""
+trap '[[ -n $busy ]] && kill -9 "$busy" 2>/dev/null; rm -rf "$out"' EXIT
 fail() { echo "FAIL: $*"; exit 1; }
 
 "$exe" run "$model" -o "$out/with" -q
@@ -48,6 +49,24 @@ assert s["periods"][1]["planned_volume"] == 1500.0 * 120.0, s["periods"][1]["pla
 assert s["largest_cumulative_share_sum_error"] < 1e-12
 print("water_sources.csv and .json: shares sum to one in every period")
 PY
+
+# While `sources` writes into a results folder, a run into it is refused (one writer at a
+# time, docs/robustness.md); `sources` is paused while it holds the lock.
+"$exe" sources "$model" --wells "town well 1" -o "$out/locked" -q --threads 1 &
+busy=$!
+pid=$busy
+for _ in $(seq 1 3000); do [[ -s $out/locked/.aquiledger-run.lock ]] && break; sleep 0.01; done
+kill -STOP "$busy"
+set +e
+"$exe" run "$model" -o "$out/locked" -q 2>"$out/stderr"
+status=$?
+set -e
+kill -CONT "$busy"
+wait "$busy" || fail "sources failed after the pause"
+busy=""
+[[ $status -eq 3 ]] || fail "run beside sources: exit status $status, expected 3 ($(cat "$out/stderr"))"
+grep -q "in use by another aquiledger run (process $pid" "$out/stderr" || fail "lock message: $(cat "$out/stderr")"
+[[ ! -e $out/locked/.aquiledger-run.lock ]] || fail "sources left its lock file"
 
 set +e
 "$exe" sources "$model" --wells "town well 9" -o "$out/bad" -q 2>"$out/stderr"
