@@ -12,6 +12,7 @@
 #include "io/output_error.hpp"
 #include "io/vega_charts.hpp"
 #include "io/vtk_fields.hpp"
+#include "io/water_sources_report.hpp"
 #include "postproc/observation_sampler.hpp"
 #include "postproc/water_budget.hpp"
 
@@ -256,6 +257,7 @@ ResultsReportSummary write_results_report(const ResultsReportOptions& options) {
   summary.observations_with_measurements = add_hydrographs(
       page, read_csv_file(folder / "observations.csv"), model ? &*model : nullptr, u);
   add_maps(page, folder, u);
+  add_water_sources_section(page, folder);
   page.write(options.output_file);
   summary.charts = page.charts();
   return summary;

@@ -6,6 +6,7 @@
 
 #include "aquiledger_version.hpp"
 #include "io/cli/commands.hpp"
+#include "io/cli/sources_command.hpp"
 
 int main(int argc, char** argv) {
   using namespace aquiledger;
@@ -93,6 +94,9 @@ int main(int argc, char** argv) {
       "read, or is not known (nothing was written, an earlier report is kept); 3 the results "
       "folder could not be read or the report not written; 64 the command line was wrong.");
 
+  SourcesOptions sources_options;
+  auto* sources = add_sources_subcommand(app, sources_options);
+
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
@@ -101,5 +105,6 @@ int main(int argc, char** argv) {
   if (*check) return run_check_command(check_options);
   if (*verify) return run_verify_command(verify_options);
   if (*report) return run_report_command(report_options);
+  if (*sources) return run_sources_command(sources_options);
   return run_run_command(run_options);
 }
