@@ -41,7 +41,7 @@ std::string json_number(double v) { return std::isfinite(v) ? fmt::format("{}", 
 
 /// Budget components by their names in the results contract, version 2.
 std::optional<BudgetComponent> component_named(const std::string& name) {
-  if (name == "well" || name == "wells") return BudgetComponent::wells;
+  if (name == "well") return BudgetComponent::well;
   for (std::size_t k = 0; k < n_budget_components; ++k) {
     const auto c = static_cast<BudgetComponent>(k);
     if (component_label(c) == name) return c;
@@ -266,7 +266,7 @@ std::vector<PeriodPair> pair_folders(const FolderBudgets& with_wells, const Fold
   if (!by_feature) {
     // One line per component; every well counts as chosen.
     const std::pair<BudgetComponent, FeatureKind> lines[] = {
-        {BudgetComponent::wells, FeatureKind::well},
+        {BudgetComponent::well, FeatureKind::well},
         {BudgetComponent::fixed_head, FeatureKind::fixed_head},
         {BudgetComponent::recharge, FeatureKind::recharge},
         {BudgetComponent::river, FeatureKind::river},

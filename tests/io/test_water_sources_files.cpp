@@ -55,7 +55,7 @@ TEST_CASE("two results folders in the version 2 layout give the sources of water
   CHECK(with.volume_unit == "m3");
   CHECK(with.storage == std::vector<BudgetComponent>{BudgetComponent::storage_elastic,
                                                      BudgetComponent::storage_drainage});
-  CHECK(with.volumes[0][BudgetComponent::wells].out == 540.0);
+  CHECK(with.volumes[0][BudgetComponent::well].out == 540.0);
   std::vector<SourceFeature> features;
   std::vector<BudgetComponent> storage;
   const auto pairs = pair_folders(with, without, {"town well"}, features, storage);

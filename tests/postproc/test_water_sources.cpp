@@ -36,8 +36,8 @@ TEST_CASE("sources of water: rows and shares from two budgets", "[water_sources]
   WaterBudget& o = p.without_wells;
   w.features = {{0.0, 500.0}, {0.0, 80.0}, {120.0, 30.0}, {0.0, 20.0}, {60.0, 0.0}};
   o.features = {{0.0, 0.0}, {0.0, 100.0}, {40.0, 90.0}, {0.0, 50.0}, {0.0, 0.0}};
-  w[BudgetComponent::wells] = {0.0, 580.0};
-  o[BudgetComponent::wells] = {0.0, 100.0};
+  w[BudgetComponent::well] = {0.0, 580.0};
+  o[BudgetComponent::well] = {0.0, 100.0};
   w[BudgetComponent::river] = {120.0, 30.0};
   o[BudgetComponent::river] = {40.0, 90.0};
   w[BudgetComponent::evapotranspiration] = {0.0, 20.0};
