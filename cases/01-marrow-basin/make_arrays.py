@@ -59,6 +59,17 @@ with open("dy.txt", "w") as out:
 write_values("active.txt", lambda i, j: 1 if inside(i, j) else 0, "active cells of the Marrow Basin (1 = in the model)", "{:d}")
 
 
+def lake_shore(i, j):
+    """The lake holds the westernmost active cell of each row along the straight west shore
+    (the western tenth of the grid); farther east the rim is the basin's no-flow outline."""
+    if not inside(i, j) or xc[j] > 0.1 * W:
+        return False
+    return all(not inside(i, k) for k in range(j))
+
+
+write_values("lake_shore.txt", lambda i, j: 1 if lake_shore(i, j) else 0, "cells held at the Lake Brindle level (1 = shore cell)", "{:d}")
+
+
 def creek_y(x):
     """Centre line of the Wyndle Creek valley (the creek polyline in model.toml wanders about it)."""
     return 0.78 * H - 0.2 * H * x / W
