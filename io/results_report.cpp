@@ -254,8 +254,12 @@ ResultsReportSummary write_results_report(const ResultsReportOptions& options) {
   add_period_budget(page, read_csv_file(folder / "budget_periods.csv"), u);
   add_step_charts(page, read_csv_file(folder / "budget_steps.csv"),
                   read_csv_file(folder / "balance_steps.csv"), u);
-  summary.observations_with_measurements = add_hydrographs(
-      page, read_csv_file(folder / "observations.csv"), model ? &*model : nullptr, u);
+  // A model without observation points writes no observations.csv.
+  if (const auto observations = folder / "observations.csv"; std::filesystem::exists(observations))
+    summary.observations_with_measurements =
+        add_hydrographs(page, read_csv_file(observations), model ? &*model : nullptr, u);
+  else
+    page.add_paragraph("The model has no observation points, so there are no hydrographs.");
   add_maps(page, folder, u);
   add_water_sources_section(page, folder);
   page.write(options.output_file);
