@@ -6,8 +6,8 @@
 
 namespace aquiledger {
 
-/// Rough bytes per cell for the solver's state, matrix and factorisation (about 1 KiB; the
-/// direct factorisation of a 1000 x 1000 grid took ~770 MB, see /work/shared/deps.md).
+/// Rough bytes per cell for the solver's state, matrix and factorisation: about 1 KiB (a
+/// million-cell switching basin peaked at 1048 B per cell, docs/performance.md).
 inline constexpr double bytes_per_cell_estimate = 1024.0;
 
 /// Physical memory of this machine in bytes, if the system tells.

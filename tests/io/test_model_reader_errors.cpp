@@ -398,7 +398,7 @@ TEST_CASE("face thickness: mean by default, upstream on request", "[reader][acce
   CHECK(upstream.model->solver.face_thickness == aquiledger::FaceThickness::upstream);
 }
 
-// --- all errors together (STYLE.md habit 6) ---
+// --- all errors together: a user fixes a file in one pass, not one error per run ---
 TEST_CASE("bad 71: every error of a file is reported in one read", "[reader][errors]") {
   std::string text = edit(edit(edit(base, "k = 5.0", "k = -5.0"), "steps = 2", "steps = 0"),
                           "specific_yield = 0.2", "specific_yield = 2.0");

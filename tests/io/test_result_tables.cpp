@@ -49,8 +49,8 @@ std::vector<std::string> lines_of_text(const std::string& text) {
   return lines;
 }
 
-/// The budget tables' columns as the format contract fixes them (model-format.md,
-/// "Results", version 2), written out here rather than taken from the code under test.
+/// The budget tables' columns as the results contract fixes them (version 2,
+/// docs/results.md), written out here rather than taken from the code under test.
 const std::vector<std::string> step_columns = {
     "period", "step", "time", "dt", "component", "into_aquifer", "out_of_aquifer", "unit"};
 const std::vector<std::string> period_columns = {
@@ -225,7 +225,7 @@ TEST_CASE("a model's budget layout lists storage always and only the stresses it
                             BudgetComponent::storage_skeleton, BudgetComponent::storage_water,
                             BudgetComponent::storage_drainage, BudgetComponent::well,
                             BudgetComponent::river});
-  // The names in the tables are the contract's (model-format.md, "Results").
+  // The names in the tables are the results contract's (docs/results.md).
   std::vector<std::string> names;
   for (BudgetComponent c : l.components) names.emplace_back(component_label(c));
   CHECK(names == std::vector<std::string>{"storage_skeleton", "storage_water", "storage_drainage",

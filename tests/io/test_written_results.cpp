@@ -224,8 +224,8 @@ TEST_CASE("written budget of recharge draining to a fixed head balances one-side
 }
 
 // The program's recorder, end to end: a switching aquifer pumped until cells near the well
-// turn water-table. Every table is read back by the names of the contract (model-format.md,
-// "Results", version 2) and docs/results.md; the cell counts of balance_steps.csv must equal
+// turn water-table. Every table is read back by the names of the results contract
+// (version 2, docs/results.md); the cell counts of balance_steps.csv must equal
 // the classes of the `state` array of the field file written at the same time, and the
 // component rows of each step must add up to its `total` row and to the balance table.
 TEST_CASE("the recorder's files read back by the contract's names and agree with each other",

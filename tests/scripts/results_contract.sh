@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
-# The results folder read back by the names of the format contract (model-format.md,
-# "Results", version 2) and docs/results.md, from a run started in an unrelated folder:
+# The results folder read back by the names of the results contract (docs/results.md,
+# version 2), from a run started in an unrelated folder:
 # every file present, every header exact, units in every budget row, totals equal to the sum
 # of their components, the balance tables equal to the budget totals, cell counts adding up
 # to the active cells, summary.json with the model's absolute path and units. Then the head
