@@ -60,9 +60,9 @@ void visit_stress_flows(const Model& model, const SystemLayout& layout, std::siz
       const CellIndex c = river.cells[j];
       if (!carries_stress(c)) continue;
       visit(k, c,
-            WithdrawalFlow{
-                river_flow(head[at(c)], river.stage.at(period, j), river.bed_bottom.at(period, j),
-                           river.conductance.at(period, j), layout.smoothing_length[at(c)])});
+            StressFlow{river_flow(head[at(c)], river.stage.at(period, j),
+                                  river.bed_bottom.at(period, j), river.conductance.at(period, j),
+                                  layout.smoothing_length[at(c)])});
     }
     ++k;
   }
@@ -71,10 +71,10 @@ void visit_stress_flows(const Model& model, const SystemLayout& layout, std::siz
     for (std::size_t j = 0; j < drain.cells.size(); ++j) {
       const CellIndex c = drain.cells[j];
       if (!carries_stress(c)) continue;
-      visit(k, c,
-            WithdrawalFlow{drain_flow(head[at(c)], drain.elevation.at(period, j),
-                                      drain.conductance.at(period, j),
-                                      layout.smoothing_length[at(c)])});
+      visit(
+          k, c,
+          StressFlow{drain_flow(head[at(c)], drain.elevation.at(period, j),
+                                drain.conductance.at(period, j), layout.smoothing_length[at(c)])});
     }
     ++k;
   }
@@ -84,8 +84,8 @@ void visit_stress_flows(const Model& model, const SystemLayout& layout, std::siz
       const CellIndex c = external.cells[j];
       if (!carries_stress(c)) continue;
       visit(k, c,
-            WithdrawalFlow{external_head_flow(head[at(c)], external.head.at(period, j),
-                                              external.conductance.at(period, j))});
+            StressFlow{external_head_flow(head[at(c)], external.head.at(period, j),
+                                          external.conductance.at(period, j))});
     }
     ++k;
   }
@@ -95,7 +95,7 @@ void visit_stress_flows(const Model& model, const SystemLayout& layout, std::siz
       const CellIndex c = et.cells[j];
       if (!carries_stress(c)) continue;
       visit(k, c,
-            WithdrawalFlow{evapotranspiration_flow(
+            StressFlow{evapotranspiration_flow(
                 head[at(c)], et.surface.at(period, j), et.max_rate.at(period, j),
                 et.extinction_depth.at(period, j), layout.area[at(c)],
                 layout.smoothing_length[at(c)])});
@@ -111,9 +111,9 @@ void visit_stress_flows(const Model& model, const SystemLayout& layout, std::siz
       if (!carries_stress(c)) continue;
       const double top = has_top ? model.aquifer.top[at(c)] : std::nan("");
       visit(k, c,
-            WithdrawalFlow{leakage_flow(head[at(c)], leakage.source_head.at(period, j), top,
-                                        leakage.leakance.at(period, j), layout.area[at(c)],
-                                        layout.smoothing_length[at(c)])});
+            StressFlow{leakage_flow(head[at(c)], leakage.source_head.at(period, j), top,
+                                    leakage.leakance.at(period, j), layout.area[at(c)],
+                                    layout.smoothing_length[at(c)])});
     }
   }
 }
@@ -175,7 +175,7 @@ void add_stress_flows(const Model& model, const SystemLayout& layout, std::size_
                       CellWindow<double> dq_dh, std::span<const std::uint8_t> parallel_recharge) {
   visit_stress_flows(
       model, layout, period, head, part,
-      [&](std::size_t, CellIndex c, const WithdrawalFlow& flow) {
+      [&](std::size_t, CellIndex c, const StressFlow& flow) {
         q[at(c)] += flow.q.value;
         dq_dh[at(c)] += flow.q.slope;
       },
@@ -211,7 +211,7 @@ void stress_flows_by_feature(const Model& model, const SystemLayout& layout, std
     if (features[k].kind != FeatureKind::fixed_head) flows[k] = FeatureFlow{};
   // Split cell by cell: a river losing in one cell and gaining in another reports both.
   visit_stress_flows(model, layout, period, head, part,
-                     [&](std::size_t k, CellIndex, const WithdrawalFlow& flow) {
+                     [&](std::size_t k, CellIndex, const StressFlow& flow) {
                        if (flow.q.value > 0.0)
                          flows[k].in += flow.q.value;
                        else

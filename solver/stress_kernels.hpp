@@ -13,8 +13,9 @@
 
 namespace aquiledger {
 
-/// A withdrawal and the part of it that the cell could not deliver.
-struct WithdrawalFlow {
+/// The flow of one stress into a cell's aquifer with its slope, and the part of a requested
+/// withdrawal the cell could not deliver (zero for every stress but a reduced withdrawal).
+struct StressFlow {
   ValueSlope q;            ///< L3/T into the aquifer (negative for a withdrawal), L2/T slope
   double shortfall = 0.0;  ///< L3/T of the requested withdrawal not delivered
 };
@@ -25,8 +26,8 @@ struct WithdrawalFlow {
 /// rest is a shortfall Q (1 - phi). Exact (phi = 1) once b >= reduction_length. Injection
 /// (Q < 0) is never reduced.
 /// thickness: b (L) and db/dh (-); reduction_length: L.
-inline WithdrawalFlow well_flow(double rate, ValueSlope thickness, double reduction_length,
-                                bool reducible) {
+inline StressFlow well_flow(double rate, ValueSlope thickness, double reduction_length,
+                            bool reducible) {
   if (rate <= 0.0 || !reducible) return {{-rate, 0.0}, 0.0};
   const ValueSlope phi = smoothstep(thickness.value, reduction_length);
   return {{-rate * phi.value, -rate * phi.slope * thickness.slope}, rate * (1.0 - phi.value)};
@@ -34,8 +35,8 @@ inline WithdrawalFlow well_flow(double rate, ValueSlope thickness, double reduct
 
 /// Areal recharge rate (L/T) over a cell of area A (L2): q = rate A. A negative rate is a
 /// spread withdrawal and is reduced exactly like a well's withdrawal of -rate A.
-inline WithdrawalFlow recharge_flow(double rate, double area, ValueSlope thickness,
-                                    double reduction_length, bool reducible) {
+inline StressFlow recharge_flow(double rate, double area, ValueSlope thickness,
+                                double reduction_length, bool reducible) {
   return well_flow(-rate * area, thickness, reduction_length, reducible);
 }
 

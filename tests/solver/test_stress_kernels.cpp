@@ -42,12 +42,12 @@ TEST_CASE("well withdrawal is delivered in full above the reduction length", "[s
   const double q = 500.0, reduction = 0.2;
   // Definition of the reduced withdrawal (project physics decisions): q = -Q phi(b),
   // phi = 1 for b >= reduction length, shortfall Q (1 - phi).
-  const WithdrawalFlow full = well_flow(q, {5.0, 1.0}, reduction, true);
+  const StressFlow full = well_flow(q, {5.0, 1.0}, reduction, true);
   CHECK(full.q.value == -q);
   CHECK(full.q.slope == 0.0);
   CHECK(full.shortfall == 0.0);
   // A dry cell (b = 0) delivers nothing; the whole request is shortfall.
-  const WithdrawalFlow dry = well_flow(q, {0.0, 0.0}, reduction, true);
+  const StressFlow dry = well_flow(q, {0.0, 0.0}, reduction, true);
   CHECK(dry.q.value == 0.0);
   CHECK(dry.shortfall == q);
   // Injection is never reduced, confined cells never reduce.
@@ -55,7 +55,7 @@ TEST_CASE("well withdrawal is delivered in full above the reduction length", "[s
   CHECK(well_flow(q, {0.0, 0.0}, reduction, false).q.value == -q);
   // Delivered + shortfall = requested at every thickness (mass bookkeeping of the request).
   for (double b : {0.0, 0.01, 0.05, 0.1, 0.19, 0.3}) {
-    const WithdrawalFlow w = well_flow(q, {b, 1.0}, reduction, true);
+    const StressFlow w = well_flow(q, {b, 1.0}, reduction, true);
     CHECK(std::abs(-w.q.value + w.shortfall - q) <= 1e-12 * q);
   }
 }
@@ -79,12 +79,12 @@ TEST_CASE("recharge is rate times area; a negative rate is reduced like a withdr
           "[stress_kernels]") {
   const double area = 2500.0, reduction = 0.2;
   // Areal recharge over a cell: q = rate A (definition of an areal flux, L/T over L2).
-  const WithdrawalFlow wet = recharge_flow(4e-4, area, {0.0, 0.0}, reduction, true);
+  const StressFlow wet = recharge_flow(4e-4, area, {0.0, 0.0}, reduction, true);
   CHECK(wet.q.value == Approx(4e-4 * area).epsilon(1e-15));
   CHECK(wet.shortfall == 0.0);
-  const WithdrawalFlow spread = recharge_flow(-4e-4, area, {8.0, 1.0}, reduction, true);
+  const StressFlow spread = recharge_flow(-4e-4, area, {8.0, 1.0}, reduction, true);
   CHECK(spread.q.value == Approx(-4e-4 * area).epsilon(1e-15));
-  const WithdrawalFlow dry = recharge_flow(-4e-4, area, {0.0, 0.0}, reduction, true);
+  const StressFlow dry = recharge_flow(-4e-4, area, {0.0, 0.0}, reduction, true);
   CHECK(dry.q.value == 0.0);
   CHECK(dry.shortfall == Approx(4e-4 * area).epsilon(1e-15));
 }
