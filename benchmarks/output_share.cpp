@@ -10,8 +10,8 @@
 #include <fmt/format.h>
 
 #include "benchmarks/basin_generator.hpp"
-#include "io/atomic_file.hpp"
-#include "io/result_recorder.hpp"
+#include "io/files/atomic_file.hpp"
+#include "io/results/result_recorder.hpp"
 #include "solver/simulation.hpp"
 
 using namespace aquiledger;

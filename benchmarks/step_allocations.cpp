@@ -22,7 +22,7 @@
 
 #include "benchmarks/basin_generator.hpp"
 #include "benchmarks/bench_support.hpp"
-#include "io/memory_guard.hpp"
+#include "io/model_file/memory_guard.hpp"
 #include "solver/simulation.hpp"
 
 namespace {

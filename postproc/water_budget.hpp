@@ -12,7 +12,7 @@
 
 namespace aquiledger {
 
-/// Budget components (the `component` column of the budget tables; io/result_tables.hpp
+/// Budget components (the `component` column of the budget tables; io/results/result_tables.hpp
 /// lists them in the results contract's order).
 enum class BudgetComponent {
   storage_skeleton,

@@ -5,9 +5,9 @@
 #include <exception>
 
 #include "io/cli/commands.hpp"
-#include "io/output_error.hpp"
-#include "io/results_report.hpp"
-#include "io/verify_command.hpp"
+#include "io/files/output_error.hpp"
+#include "io/reports/results_report.hpp"
+#include "io/reports/verify_command.hpp"
 #include "postproc/verification_suite.hpp"
 
 namespace aquiledger {

@@ -9,16 +9,16 @@
 #include <tuple>
 
 #include "aquiledger_version.hpp"
-#include "io/atomic_file.hpp"
-#include "io/check_report.hpp"
-#include "io/checkpoint.hpp"
+#include "io/files/atomic_file.hpp"
+#include "io/reports/check_report.hpp"
+#include "io/restart/checkpoint.hpp"
 #include "io/cli/distributed_run.hpp"
-#include "io/memory_guard.hpp"
-#include "io/model_reader.hpp"
-#include "io/output_lock.hpp"
-#include "io/result_recorder.hpp"
-#include "io/run_report.hpp"
-#include "io/summary_json.hpp"
+#include "io/model_file/memory_guard.hpp"
+#include "io/model_file/model_reader.hpp"
+#include "io/files/output_lock.hpp"
+#include "io/results/result_recorder.hpp"
+#include "io/reports/run_report.hpp"
+#include "io/results/summary_json.hpp"
 #include "solver/simulation.hpp"
 
 namespace aquiledger {
@@ -123,7 +123,7 @@ int run_run_command(const RunOptions& options) {
   }
 
   // Checkpoints fingerprint the input files; a resumed run must read the same ones.
-  // A distributed run's checkpoint is a set of one part per rank (io/checkpoint.hpp).
+  // A distributed run's checkpoint is a set of one part per rank (io/restart/checkpoint.hpp).
   const bool distributed = engine->n_ranks() > 1 || options.engine == "petsc";
   std::optional<InputFingerprint> fingerprint;
   std::optional<Checkpoint> resume_from;

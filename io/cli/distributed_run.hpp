@@ -7,7 +7,7 @@
 #include <optional>
 #include <string>
 
-#include "io/result_recorder.hpp"
+#include "io/results/result_recorder.hpp"
 #include "solver/simulation.hpp"
 
 namespace aquiledger {

@@ -15,12 +15,12 @@
 #include <stdexcept>
 
 #include "aquiledger_version.hpp"
-#include "io/atomic_file.hpp"
+#include "io/files/atomic_file.hpp"
 #include "io/cli/commands.hpp"
-#include "io/model_reader.hpp"
-#include "io/output_lock.hpp"
-#include "io/run_report.hpp"
-#include "io/water_sources_files.hpp"
+#include "io/model_file/model_reader.hpp"
+#include "io/files/output_lock.hpp"
+#include "io/reports/run_report.hpp"
+#include "io/results/water_sources_files.hpp"
 #include "postproc/water_sources.hpp"
 
 namespace aquiledger {

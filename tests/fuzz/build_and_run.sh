@@ -20,11 +20,11 @@ mkdir -p "$build/obj"
 # The reader and what it needs; TOML++ compiled from its headers so that the fuzzer sees
 # (and steers by) its branches too.
 sources=(
-  io/model_reader.cpp io/aquifer_reader.cpp io/array_source.cpp io/diagnostics.cpp
-  io/feature_placement.cpp io/field_value.cpp io/grid_reader.cpp io/memory_guard.cpp
-  io/period_value_reader.cpp io/plausibility.cpp io/polyline_crossing.cpp
-  io/river_leakage_reader.cpp io/settings_reader.cpp io/stress_reader.cpp io/toml_access.cpp
-  io/unit_system.cpp io/input_file_guard.cpp mesh/rectilinear_grid.cpp
+  io/model_file/model_reader.cpp io/model_file/aquifer_reader.cpp io/model_file/array_source.cpp io/model_file/diagnostics.cpp
+  io/model_file/feature_placement.cpp io/model_file/field_value.cpp io/model_file/grid_reader.cpp io/model_file/memory_guard.cpp
+  io/model_file/period_value_reader.cpp io/model_file/plausibility.cpp mesh/polyline_crossing.cpp
+  io/model_file/river_leakage_reader.cpp io/model_file/settings_reader.cpp io/model_file/stress_reader.cpp io/model_file/toml_access.cpp
+  io/model_file/unit_system.cpp io/files/input_file_guard.cpp mesh/rectilinear_grid.cpp
   tests/fuzz/fuzz_model_reader.cpp
 )
 # Two checks are off because they fire inside TOML++ 3.3 (Debian's), not in our code, on

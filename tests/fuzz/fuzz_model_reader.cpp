@@ -13,7 +13,7 @@
 #include <string>
 #include <string_view>
 
-#include "io/model_reader.hpp"
+#include "io/model_file/model_reader.hpp"
 #include "tests/fuzz/fuzz_folder.hpp"
 
 namespace {

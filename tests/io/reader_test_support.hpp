@@ -4,7 +4,7 @@
 #include <catch2/catch.hpp>
 #include <string>
 
-#include "io/model_reader.hpp"
+#include "io/model_file/model_reader.hpp"
 
 namespace reader_test {
 

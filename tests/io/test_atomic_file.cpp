@@ -2,7 +2,7 @@
 #include <fstream>
 #include <sstream>
 
-#include "io/atomic_file.hpp"
+#include "io/files/atomic_file.hpp"
 #include "small_model.hpp"
 
 using namespace aquiledger;

@@ -1,11 +1,11 @@
-// Checkpoint files (io/checkpoint.hpp): every value reads back with the same bits, and a
+// Checkpoint files (io/restart/checkpoint.hpp): every value reads back with the same bits, and a
 // damaged or truncated file is refused with CheckpointError, never read as a state.
 #include <catch2/catch.hpp>
 #include <cmath>
 #include <cstring>
 #include <limits>
 
-#include "io/checkpoint.hpp"
+#include "io/restart/checkpoint.hpp"
 
 namespace {
 

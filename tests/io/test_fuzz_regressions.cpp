@@ -12,7 +12,7 @@
 #include <sstream>
 
 #include "fuzz/fuzz_folder.hpp"
-#include "io/model_reader.hpp"
+#include "io/model_file/model_reader.hpp"
 
 namespace {
 

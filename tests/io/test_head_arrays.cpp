@@ -1,4 +1,4 @@
-// Head arrays (io/head_arrays.hpp): written heads read back through `[initial] head = { file
+// Head arrays (io/results/head_arrays.hpp): written heads read back through `[initial] head = { file
 // = ... }` unchanged, as text array and as ESRI ASCII grid. The reference is the value
 // written: numbers are the shortest text that reads back to the same double (Steele and
 // White, 1990; fmt's "{}"), so the read-back must be bit for bit.
@@ -6,8 +6,8 @@
 #include <cmath>
 #include <cstring>
 
-#include "io/atomic_file.hpp"
-#include "io/head_arrays.hpp"
+#include "io/files/atomic_file.hpp"
+#include "io/results/head_arrays.hpp"
 #include "reader_test_support.hpp"
 #include "small_model.hpp"
 

@@ -1,5 +1,5 @@
 // Input that would exhaust memory, time or the reader itself is refused before anything big
-// is allocated or read, with the estimated figure (io/memory_guard, io/input_file_guard).
+// is allocated or read, with the estimated figure (io/model_file/memory_guard, io/files/input_file_guard).
 #include <catch2/catch.hpp>
 #include <sys/stat.h>
 #include <unistd.h>
@@ -10,7 +10,7 @@
 #include <string>
 #include <vector>
 
-#include "io/model_reader.hpp"
+#include "io/model_file/model_reader.hpp"
 
 namespace {
 
@@ -82,7 +82,7 @@ TEST_CASE("an array file far larger than the grid needs is not read", "[io][guar
   // A sparse 10 GiB file: 10 GiB of NUL bytes that take no disk space.
   std::ofstream(dir.path / "k.txt").close();
   fs::resize_file(dir.path / "k.txt", 10ull << 30);
-  // 100 x 100 cells may take 64 B x 1e4 + 1 MiB = 1.6 MiB (io/input_file_guard.hpp).
+  // 100 x 100 cells may take 64 B x 1e4 + 1 MiB = 1.6 MiB (io/files/input_file_guard.hpp).
   const ReadResult r = read_model_text(model_text(100, 100, "{ file = \"k.txt\" }", one_period),
                                        dir.path / "model.toml");
   CHECK_FALSE(r.ok());

@@ -4,7 +4,7 @@
 #include <fstream>
 #include <sstream>
 
-#include "io/check_report.hpp"
+#include "io/reports/check_report.hpp"
 #include "tests/io/reader_test_support.hpp"
 
 using namespace reader_test;

@@ -1,4 +1,4 @@
-// One run per output folder (io/output_lock.hpp): a second lock on a held folder is refused
+// One run per output folder (io/files/output_lock.hpp): a second lock on a held folder is refused
 // naming the holder, a released lock leaves nothing behind, and a lock file whose owner is
 // gone is taken over. flock(2) locks belong to open file descriptions, so two locks taken in
 // one process conflict just as two processes' do.
@@ -10,7 +10,7 @@
 #include <optional>
 #include <string>
 
-#include "io/output_lock.hpp"
+#include "io/files/output_lock.hpp"
 
 using namespace aquiledger;
 

@@ -3,11 +3,11 @@
 #include <catch2/catch.hpp>
 #include <cmath>
 
-#include "io/csv_table.hpp"
-#include "io/html_report.hpp"
-#include "io/output_error.hpp"
-#include "io/results_report.hpp"
-#include "io/vega_charts.hpp"
+#include "io/files/csv_table.hpp"
+#include "io/reports/html_report.hpp"
+#include "io/files/output_error.hpp"
+#include "io/reports/results_report.hpp"
+#include "io/reports/vega_charts.hpp"
 
 using namespace aquiledger;
 

@@ -4,7 +4,7 @@
 #include <fstream>
 #include <sstream>
 
-#include "io/result_tables.hpp"
+#include "io/results/result_tables.hpp"
 #include "small_model.hpp"
 
 using namespace aquiledger;

@@ -1,6 +1,6 @@
 #include <catch2/catch.hpp>
 
-#include "io/summary_json.hpp"
+#include "io/results/summary_json.hpp"
 
 using namespace aquiledger;
 

@@ -15,7 +15,7 @@
 #include <fstream>
 #include <map>
 
-#include "io/vtk_fields.hpp"
+#include "io/results/vtk_fields.hpp"
 #include "small_model.hpp"
 
 using namespace aquiledger;

@@ -7,8 +7,8 @@
 #include <fstream>
 #include <numeric>
 
-#include "io/csv_table.hpp"
-#include "io/water_sources_files.hpp"
+#include "io/files/csv_table.hpp"
+#include "io/results/water_sources_files.hpp"
 #include "small_model.hpp"
 
 using namespace aquiledger;

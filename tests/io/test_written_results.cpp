@@ -17,9 +17,9 @@
 #include <cstdlib>
 #include <fstream>
 
-#include "io/result_recorder.hpp"
-#include "io/result_tables.hpp"
-#include "io/vtk_fields.hpp"
+#include "io/results/result_recorder.hpp"
+#include "io/results/result_tables.hpp"
+#include "io/results/vtk_fields.hpp"
 #include "postproc/cell_fields.hpp"
 #include "postproc/observation_sampler.hpp"
 #include "small_model.hpp"

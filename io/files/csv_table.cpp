@@ -1,0 +1,101 @@
+#include "io/files/csv_table.hpp"
+
+#include <charconv>
+#include <cmath>
+#include <fstream>
+#include <limits>
+#include <sstream>
+
+#include "io/files/output_error.hpp"
+
+namespace aquiledger {
+
+std::optional<std::size_t> CsvTable::column(const std::string& name) const {
+  for (std::size_t i = 0; i < header.size(); ++i)
+    if (header[i] == name) return i;
+  return std::nullopt;
+}
+
+std::vector<double> CsvTable::numbers(const std::string& name) const {
+  std::vector<double> out;
+  const auto c = column(name);
+  if (!c) return out;
+  for (const auto& row : rows) {
+    double v = std::numeric_limits<double>::quiet_NaN();
+    if (*c < row.size()) {
+      const std::string& s = row[*c];
+      double parsed = 0.0;
+      const auto [p, ec] = std::from_chars(s.data(), s.data() + s.size(), parsed);
+      if (ec == std::errc() && p == s.data() + s.size()) v = parsed;
+    }
+    out.push_back(v);
+  }
+  return out;
+}
+
+std::vector<std::string> CsvTable::texts(const std::string& name) const {
+  std::vector<std::string> out;
+  const auto c = column(name);
+  if (!c) return out;
+  for (const auto& row : rows) out.push_back(*c < row.size() ? row[*c] : std::string());
+  return out;
+}
+
+CsvTable parse_csv(const std::string& text) {
+  std::vector<std::vector<std::string>> records;
+  std::vector<std::string> record;
+  std::string field;
+  bool quoted = false, any = false;
+  for (std::size_t i = 0; i < text.size(); ++i) {
+    const char c = text[i];
+    if (quoted) {
+      if (c == '"' && i + 1 < text.size() && text[i + 1] == '"') {
+        field += '"';
+        ++i;
+      } else if (c == '"') {
+        quoted = false;
+      } else {
+        field += c;
+      }
+    } else if (c == '"') {
+      quoted = any = true;
+    } else if (c == ',') {
+      record.push_back(field);
+      field.clear();
+      any = true;
+    } else if (c == '\n' || c == '\r') {
+      if (c == '\r' && i + 1 < text.size() && text[i + 1] == '\n') ++i;
+      if (any || !field.empty()) {
+        record.push_back(field);
+        records.push_back(record);
+      }
+      record.clear();
+      field.clear();
+      any = false;
+    } else {
+      field += c;
+      any = true;
+    }
+  }
+  if (any || !field.empty()) {
+    record.push_back(field);
+    records.push_back(record);
+  }
+  CsvTable table;
+  if (records.empty()) return table;
+  table.header = records.front();
+  table.rows.assign(records.begin() + 1, records.end());
+  return table;
+}
+
+std::string read_text_file(const std::filesystem::path& path) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw OutputError("cannot read " + path.string());
+  std::ostringstream s;
+  s << in.rdbuf();
+  return s.str();
+}
+
+CsvTable read_csv_file(const std::filesystem::path& path) { return parse_csv(read_text_file(path)); }
+
+}  // namespace aquiledger

@@ -1,0 +1,253 @@
+// [aquifer] (geometry, conductivity, storage routes) and [initial].
+#include <cmath>
+
+#include "io/model_file/array_source.hpp"
+#include "io/model_file/field_value.hpp"
+#include "io/model_file/section_readers.hpp"
+#include "io/model_file/toml_access.hpp"
+
+namespace aquiledger {
+
+namespace {
+
+// Defaults of the compressibility route (see solver/model.hpp Compressibility):
+// water compressibility 4.6e-10 1/Pa near 15-20 degC (from memory; handbook tables give
+// 4.4e-10 to 4.8e-10 1/Pa for 0-30 degC);
+// density of water 998.2 kg/m3 at 20 degC (from memory; CRC Handbook of Chemistry and Physics
+// table of water density);
+// standard gravity 9.80665 m/s2 (exact by definition, 3rd CGPM, 1901).
+constexpr double default_water_compressibility = 4.6e-10;  ///< 1/Pa
+constexpr double default_density = 998.2;                  ///< kg/m3
+constexpr double default_gravity = 9.80665;                ///< m/s2
+
+bool any_transient(const Model& model) {
+  for (const Period& p : model.periods)
+    if (!p.steady) return true;
+  return model.periods.empty();
+}
+
+double active_mean(const ReaderContext& ctx, const std::vector<double>& v) {
+  double sum = 0.0;
+  int n = 0;
+  for (std::size_t c = 0; c < v.size(); ++c)
+    if (ctx.grid->is_active(CellIndex{static_cast<std::int32_t>(c)})) sum += v[c], ++n;
+  return n > 0 ? sum / n : 0.0;
+}
+
+/// compressibility = { skeleton, porosity, water, density, gravity }: Ss = rho g (alpha + n beta)
+/// (Jacob, 1940), in 1/m, times 0.3048 m/ft for a model in feet.
+void read_compressibility(ReaderContext& ctx, const toml::node& node, Model& model) {
+  const std::string path = "[aquifer].compressibility";
+  const toml::table* t = node.as_table();
+  if (!t) {
+    ctx.error(node, path,
+              "expected { skeleton = (1/Pa), porosity = (-) }, found " + type_name(node) + " " +
+                  show(node));
+    return;
+  }
+  check_keys(ctx, *t, path, {"skeleton", "porosity", "water", "density", "gravity"});
+  auto alpha = read_field_key(ctx, *t, "skeleton", path, true);
+  auto n = read_field_key(ctx, *t, "porosity", path, true);
+  Compressibility c;
+  c.water = read_number(ctx, *t, "water", path, false).value_or(default_water_compressibility);
+  c.density = read_number(ctx, *t, "density", path, false).value_or(default_density);
+  c.gravity = read_number(ctx, *t, "gravity", path, false).value_or(default_gravity);
+  bool ok = alpha && n;
+  if (alpha)
+    ok &= check_field(
+        ctx, *alpha, path + ".skeleton", [](double v) { return v >= 0.0; }, ">= 0 1/Pa");
+  if (n)
+    ok &= check_field(
+        ctx, *n, path + ".porosity", [](double v) { return v > 0.0 && v < 1.0; },
+        "a porosity in (0, 1)");
+  auto positive = [&](double v, const char* key, const char* unit) {
+    if (v > 0.0) return true;
+    ctx.error(*t, path + "." + key, "value " + show_number(v) + "; expected > 0 " + unit);
+    return false;
+  };
+  ok &= positive(c.density, "density", "kg/m3");
+  ok &= positive(c.gravity, "gravity", "m/s2");
+  if (c.water < 0.0)
+    ctx.error(*t, path + ".water", "value " + show_number(c.water) + "; expected >= 0 1/Pa"),
+        ok = false;
+  if (!ok || !ctx.grid) return;
+  const double per_length = model.length_unit == "ft" ? 0.3048 : 1.0;  // 1/m -> 1/ft
+  Aquifer& a = model.aquifer;
+  const std::size_t n_cells = alpha->values.size();
+  a.specific_storage.resize(n_cells);
+  a.skeleton_share.resize(n_cells);
+  for (std::size_t i = 0; i < n_cells; ++i) {
+    const double water_part = n->values[i] * c.water;
+    const double total = alpha->values[i] + water_part;
+    a.specific_storage[i] = c.density * c.gravity * total * per_length;
+    a.skeleton_share[i] = total > 0.0 ? alpha->values[i] / total : 0.0;
+  }
+  c.skeleton = active_mean(ctx, alpha->values);
+  c.porosity = active_mean(ctx, n->values);
+  a.compressibility = c;
+}
+
+}  // namespace
+
+void read_aquifer(ReaderContext& ctx, const toml::table& root, Model& model) {
+  const std::string path = "[aquifer]";
+  const toml::node* node = root.get("aquifer");
+  if (!node || !node->as_table()) {
+    if (node)
+      ctx.error(*node, path, "expected a table, found " + type_name(*node));
+    else
+      ctx.error(ctx.file_spot(), path, "missing required section (bottom, k, condition, storage)");
+    return;
+  }
+  const toml::table& t = *node->as_table();
+  check_keys(ctx, t, path,
+             {"top", "bottom", "k", "k_ratio", "condition", "specific_yield", "specific_storage",
+              "storativity", "compressibility"});
+  Aquifer& a = model.aquifer;
+  auto condition = read_choice(ctx, t, "condition", path, {"confined", "water_table", "switching"});
+  if (!t.contains("condition"))
+    ctx.error(t, path + ".condition",
+              "missing required key (expected confined | water_table | switching)");
+  if (condition)
+    a.condition = *condition == "confined"      ? Condition::confined
+                  : *condition == "water_table" ? Condition::water_table
+                                                : Condition::switching;
+  const bool known = condition.has_value();
+  const bool needs_top = known && a.condition != Condition::water_table;
+  auto top = read_field_key(ctx, t, "top", path, needs_top);
+  auto bottom = read_field_key(ctx, t, "bottom", path, true);
+  auto k = read_field_key(ctx, t, "k", path, true);
+  auto ratio = read_field_key(ctx, t, "k_ratio", path, false);
+  const std::string K = ctx.velocity_unit();
+  if (k)
+    check_field(
+        ctx, *k, path + ".k", [](double v) { return v > 0.0; },
+        "> 0 " + K + " (hydraulic conductivity)");
+  if (ratio)
+    check_field(
+        ctx, *ratio, path + ".k_ratio", [](double v) { return v > 0.0; }, "> 0 (Ky / Kx)");
+  if (bottom)
+    check_field(
+        ctx, *bottom, path + ".bottom", [](double v) { return std::isfinite(v); },
+        "an elevation in " + ctx.length_unit);
+  if (top && bottom) {
+    CellField gap = *top;
+    for (std::size_t c = 0; c < gap.values.size(); ++c)
+      gap.values[c] = top->values[c] - bottom->values[c];
+    check_field(
+        ctx, gap, path + ".top", [](double v) { return v > 0.0; },
+        "top above bottom (top - bottom > 0 " + ctx.length_unit +
+            "; the value shown is top - bottom)");
+  }
+
+  // Specific yield: needed unless confined.
+  const bool needs_sy = known && a.condition != Condition::confined;
+  auto sy = read_field_key(ctx, t, "specific_yield", path, needs_sy);
+  if (sy && known && !needs_sy)
+    ctx.warning(sy->at, path + ".specific_yield",
+                "ignored: a confined aquifer has no specific yield");
+  else if (sy)
+    check_field(
+        ctx, *sy, path + ".specific_yield", [](double v) { return v > 0.0 && v < 1.0; },
+        "a fraction in (0, 1)");
+
+  // Storage under pressure: exactly one route.
+  const char* routes[] = {"specific_storage", "storativity", "compressibility"};
+  std::vector<std::string> given;
+  for (const char* r : routes)
+    if (t.contains(r)) given.emplace_back(r);
+  if (given.size() > 1) {
+    ctx.error(*t.get(given[1]), path + "." + given[1],
+              "give one storage input, not several (found " + given[0] + " and " + given[1] +
+                  "; choose specific_storage, storativity or compressibility)");
+  } else if (given.empty() && needs_top && any_transient(model)) {
+    ctx.error(t, path + ".specific_storage",
+              "missing storage input for a transient " + *condition +
+                  " model: give specific_storage (1/" + ctx.length_unit +
+                  "), storativity (-) or compressibility (1/Pa)");
+  }
+  if (given.size() == 1 && known && a.condition == Condition::water_table)
+    ctx.warning(ctx.spot(*t.get(given[0])), path + "." + given[0],
+                "ignored: water_table cells store water by specific yield only");
+
+  std::optional<CellField> ss;
+  if (given.size() == 1 && given[0] == "specific_storage") {
+    ss = read_field_key(ctx, t, "specific_storage", path, true);
+    if (ss)
+      check_field(
+          ctx, *ss, path + ".specific_storage", [](double v) { return v >= 0.0; },
+          ">= 0 1/" + ctx.length_unit);
+  } else if (given.size() == 1 && given[0] == "storativity") {
+    auto s = read_field_key(ctx, t, "storativity", path, true);
+    if (s && check_field(
+                 ctx, *s, path + ".storativity", [](double v) { return v >= 0.0; },
+                 ">= 0 (dimensionless)")) {
+      if (!top) {
+        ctx.error(s->at, path + ".storativity",
+                  "storativity needs [aquifer].top (Ss = S / (top - bottom))");
+      } else if (bottom) {
+        ss = *s;
+        for (std::size_t c = 0; c < ss->values.size(); ++c)
+          ss->values[c] = s->values[c] / (top->values[c] - bottom->values[c]);
+      }
+    }
+  } else if (given.size() == 1 && given[0] == "compressibility") {
+    read_compressibility(ctx, *t.get("compressibility"), model);
+  }
+  if (ctx.diagnostics.has_errors() || !ctx.grid || !k || !bottom) return;
+
+  const std::size_t n = k->values.size();
+  a.kx = k->values;
+  a.ky = k->values;
+  for (const auto* f : {&k, &sy, &ss})
+    if (*f && !(*f)->zone.empty())
+      model.zone_maps.push_back({f == &k    ? "k"
+                                 : f == &sy ? "specific_yield"
+                                            : "specific_storage",
+                                 (*f)->zone});
+  if (ratio)
+    for (std::size_t c = 0; c < n; ++c) a.ky[c] *= ratio->values[c];
+  a.bottom = std::move(bottom->values);
+  a.top = top ? std::move(top->values) : std::vector<double>(n, std::nan(""));
+  if (sy && needs_sy) a.specific_yield = std::move(sy->values);
+  if (ss) a.specific_storage = std::move(ss->values);
+  if (a.specific_storage.empty()) a.specific_storage.assign(n, 0.0);
+}
+
+void read_initial(ReaderContext& ctx, const toml::table& root, Model& model) {
+  const std::string path = "[initial]";
+  const toml::node* node = root.get("initial");
+  if (!node || !node->as_table()) {
+    if (node)
+      ctx.error(*node, path, "expected a table, found " + type_name(*node));
+    else
+      ctx.error(ctx.file_spot(), path,
+                "missing required section (head = field value, or steady = true)");
+    return;
+  }
+  const toml::table& t = *node->as_table();
+  check_keys(ctx, t, path, {"head", "steady"});
+  const bool steady = read_bool(ctx, t, "steady", path).value_or(false);
+  if (steady && t.contains("head")) {
+    ctx.error(*t.get("head"), path + ".head", "give either head or steady = true, not both");
+    return;
+  }
+  model.initial.steady = steady;
+  if (steady) return;
+  auto head = read_field_key(ctx, t, "head", path, true);
+  if (!head) return;
+  if (!check_field(
+          ctx, *head, path + ".head", [](double v) { return std::isfinite(v); },
+          "a head in " + ctx.length_unit))
+    return;
+  // A head array written by a run whose active cells differ marks its inactive cells with
+  // the no-value number: such a cell active here has no head to start from.
+  if (!check_field(
+          ctx, *head, path + ".head", [](double v) { return v != head_array_no_value; },
+          "a head; " + show_number(head_array_no_value) +
+              " marks a cell that was inactive in the run that wrote the head array"))
+    return;
+  if (!ctx.diagnostics.has_errors()) model.initial.head = std::move(head->values);
+}
+
+}  // namespace aquiledger

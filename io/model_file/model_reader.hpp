@@ -1,0 +1,28 @@
+#pragma once
+// Reads a model file (TOML, see docs/model-format.md) into the plain Model the solver takes.
+// Everything is validated before any per-cell array is allocated, and all errors are
+// reported together.
+#include <filesystem>
+#include <optional>
+#include <string_view>
+#include <vector>
+
+#include "io/model_file/diagnostics.hpp"
+#include "solver/model.hpp"
+
+namespace aquiledger {
+
+struct ReadResult {
+  std::optional<Model> model;           ///< set when there were no errors
+  std::vector<Diagnostic> diagnostics;  ///< errors and warnings, in the order found
+  bool ok() const;
+};
+
+/// Reads and validates the model file at path.
+ReadResult read_model_file(const std::filesystem::path& path);
+
+/// Reads TOML text as though it were the file at as_if_path (relative paths in it, such as
+/// array files and the output folder, are taken relative to that file's folder).
+ReadResult read_model_text(std::string_view toml_text, const std::filesystem::path& as_if_path);
+
+}  // namespace aquiledger

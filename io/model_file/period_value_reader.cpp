@@ -1,0 +1,111 @@
+#include "io/model_file/period_value_reader.hpp"
+
+#include <algorithm>
+#include <limits>
+
+#include "io/model_file/field_value.hpp"
+#include "io/model_file/toml_access.hpp"
+
+namespace aquiledger {
+
+namespace {
+
+/// The table of one period's entry: one number, or the field sampled at the cells.
+std::optional<std::vector<double>> entry_table(ReaderContext& ctx, const toml::node& node,
+                                               const std::string& key,
+                                               const std::vector<CellIndex>& cells,
+                                               const ValueRule& rule) {
+  if (auto v = number_of(node)) {
+    if (!rule.ok(*v)) {
+      ctx.error(node, key, "value " + show_number(*v) + "; expected " + rule.expected);
+      return std::nullopt;
+    }
+    return std::vector<double>{*v};
+  }
+  auto field = read_field(ctx, node, key);
+  if (!field) return std::nullopt;
+  std::vector<double> table;
+  table.reserve(cells.size());
+  for (CellIndex c : cells) {
+    const double v = field->values[std::size_t(c.value)];
+    if (!rule.ok(v)) {
+      ctx.error(field_cell_spot(*field, ctx.shape->ncol, c.value), key,
+                "value " + show_number(v) + " at " + describe_cell(ctx.shape->ncol, c.value) +
+                    "; expected " + rule.expected);
+      return std::nullopt;
+    }
+    table.push_back(v);
+  }
+  return table;
+}
+
+std::uint32_t table_slot(std::vector<std::vector<double>>& tables, std::vector<double> table) {
+  auto it = std::find(tables.begin(), tables.end(), table);
+  if (it != tables.end()) return static_cast<std::uint32_t>(it - tables.begin());
+  tables.push_back(std::move(table));
+  return static_cast<std::uint32_t>(tables.size() - 1);
+}
+
+}  // namespace
+
+std::optional<PeriodValues> read_period_values(ReaderContext& ctx, const toml::table& table,
+                                               std::string_view key, const std::string& path,
+                                               const std::vector<CellIndex>& cells,
+                                               std::optional<double> fallback,
+                                               const ValueRule& rule) {
+  const std::string name = key_path(path, key);
+  const toml::node* node = table.get(key);
+  if (!node) {
+    if (fallback) return PeriodValues(*fallback);
+    ctx.error(table, name,
+              "missing required key (expected one value, one per period, or a field value; " +
+                  rule.expected + ")");
+    return std::nullopt;
+  }
+  const toml::array* arr = node->as_array();
+  if (!arr) {
+    auto t = entry_table(ctx, *node, name, cells, rule);
+    if (!t) return std::nullopt;
+    return PeriodValues({std::move(*t)}, {});
+  }
+  if (ctx.n_periods == 0) return std::nullopt;  // periods invalid: already reported
+  if (static_cast<int>(arr->size()) != ctx.n_periods) {
+    ctx.error(*node, name,
+              "has " + std::to_string(arr->size()) + " entries, expected one per period (" +
+                  std::to_string(ctx.n_periods) + " periods) or a single value");
+    return std::nullopt;
+  }
+  std::vector<std::vector<double>> tables;
+  std::vector<std::uint32_t> map;
+  bool ok = true;
+  for (std::size_t p = 0; p < arr->size(); ++p) {
+    auto t = entry_table(ctx, (*arr)[p], name + "[" + std::to_string(p + 1) + "]", cells, rule);
+    if (!t) {
+      ok = false;
+      continue;
+    }
+    map.push_back(table_slot(tables, std::move(*t)));
+  }
+  if (!ok) return std::nullopt;
+  return PeriodValues(std::move(tables), std::move(map));
+}
+
+PeriodValues scale_by_cell(const PeriodValues& values, const std::vector<double>& factor) {
+  std::vector<std::vector<double>> tables;
+  for (const auto& t : values.tables()) {
+    std::vector<double> scaled(factor.size());
+    for (std::size_t i = 0; i < factor.size(); ++i)
+      scaled[i] = (t.size() == 1 ? t[0] : t[i]) * factor[i];
+    tables.push_back(std::move(scaled));
+  }
+  return PeriodValues(std::move(tables), values.table_of_period());
+}
+
+std::pair<double, double> value_range(const PeriodValues& values) {
+  double lo = std::numeric_limits<double>::infinity(), hi = -lo;
+  for (const auto& t : values.tables())
+    for (double v : t) lo = std::min(lo, v), hi = std::max(hi, v);
+  return {lo, hi};
+}
+
+}  // namespace aquiledger

@@ -1,0 +1,76 @@
+#include "io/model_file/plausibility.hpp"
+
+#include <cmath>
+#include <cstdio>
+#include <limits>
+
+#include "io/model_file/unit_system.hpp"
+
+namespace aquiledger {
+
+std::pair<double, double> active_range(const RectilinearGrid& grid,
+                                       const std::vector<double>& values) {
+  double lo = std::numeric_limits<double>::infinity(), hi = -lo;
+  for (int c = 0; c < grid.n_cells() && std::size_t(c) < values.size(); ++c) {
+    if (!grid.is_active(CellIndex{c}) || std::isnan(values[std::size_t(c)])) continue;
+    lo = std::min(lo, values[std::size_t(c)]);
+    hi = std::max(hi, values[std::size_t(c)]);
+  }
+  if (lo > hi) return {std::nan(""), std::nan("")};
+  return {lo, hi};
+}
+
+namespace {
+
+std::string format_range(double lo, double hi) {
+  char text[96];
+  if (lo == hi)
+    std::snprintf(text, sizeof text, "%.3g", lo);
+  else
+    std::snprintf(text, sizeof text, "%.3g to %.3g", lo, hi);
+  return text;
+}
+
+void check_range(std::vector<PlausibilityWarning>& out, const std::string& key,
+                 const std::string& what, std::pair<double, double> range, double low, double high,
+                 const std::string& unit) {
+  if (std::isnan(range.first) || (range.first >= low && range.second <= high)) return;
+  char usual[64];
+  std::snprintf(usual, sizeof usual, "%.3g..%.3g", low, high);
+  out.push_back({key, what + " " + format_range(range.first, range.second) + unit +
+                          " lies outside the usual " + usual + unit +
+                          " (common practice, from memory); check the values and units"});
+}
+
+}  // namespace
+
+std::vector<PlausibilityWarning> plausibility_warnings(const Model& model) {
+  std::vector<PlausibilityWarning> out;
+  const RectilinearGrid& g = model.grid;
+  const Aquifer& a = model.aquifer;
+  // Ranges of common practice (from memory; typical values in groundwater hydrology texts):
+  // confined storativity 1e-5 to 1e-3, specific yield 0.01 to 0.35, K 1e-4 to 1e4 m/d.
+  if (a.condition != Condition::water_table && !a.top.empty()) {
+    std::vector<double> s(a.specific_storage.size());
+    for (std::size_t c = 0; c < s.size(); ++c)
+      s[c] = a.specific_storage[c] * (a.top[c] - a.bottom[c]);
+    auto r = active_range(g, s);
+    if (!(r.first == 0.0 && r.second == 0.0))
+      check_range(out, "[aquifer]", "confined storativity S = Ss (top - bottom) of", r, 1.0e-5,
+                  1.0e-3, "");
+  }
+  if (!a.specific_yield.empty())
+    check_range(out, "[aquifer].specific_yield", "specific yield of",
+                active_range(g, a.specific_yield), 0.01, 0.35, "");
+  const double m_per_day_in_model =
+      days_per_time_unit(model.time_unit) / metres_per_length_unit(model.length_unit);
+  const std::string unit = " " + model.length_unit + "/" + model.time_unit;
+  auto kr = active_range(g, a.kx);
+  auto kyr = active_range(g, a.ky);
+  if (!std::isnan(kyr.first)) kr = {std::min(kr.first, kyr.first), std::max(kr.second, kyr.second)};
+  check_range(out, "[aquifer].k", "hydraulic conductivity of", kr, 1.0e-4 * m_per_day_in_model,
+              1.0e4 * m_per_day_in_model, unit);
+  return out;
+}
+
+}  // namespace aquiledger

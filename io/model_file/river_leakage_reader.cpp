@@ -1,0 +1,162 @@
+// [[river]] (channel length per cell, bed conductance) and [leakage].
+#include <cmath>
+
+#include "io/model_file/feature_placement.hpp"
+#include "io/model_file/field_value.hpp"
+#include "io/model_file/period_value_reader.hpp"
+#include "io/model_file/section_readers.hpp"
+#include "io/model_file/toml_access.hpp"
+
+namespace aquiledger {
+
+namespace {
+
+std::optional<double> positive_number(ReaderContext& ctx, const toml::table& t,
+                                      std::string_view key, const std::string& path,
+                                      const std::string& unit) {
+  auto v = read_number(ctx, t, key, path, true);
+  if (v && !(*v > 0.0)) {
+    ctx.error(*t.get(key), key_path(path, key),
+              "value " + show_number(*v) + "; expected > 0 " + unit);
+    return std::nullopt;
+  }
+  return v;
+}
+
+/// bed = { k, thickness, width }: conductance per unit channel length = k width / thickness (L/T).
+std::optional<double> bed_conductance_per_length(ReaderContext& ctx, const toml::node& node,
+                                                 const std::string& path) {
+  const toml::table* t = node.as_table();
+  if (!t) {
+    ctx.error(node, path,
+              "expected { k = (" + ctx.velocity_unit() + "), thickness = (" + ctx.length_unit +
+                  "), width = (" + ctx.length_unit + ") }, found " + type_name(node));
+    return std::nullopt;
+  }
+  check_keys(ctx, *t, path, {"k", "thickness", "width"});
+  auto k = positive_number(ctx, *t, "k", path, ctx.velocity_unit());
+  auto thickness = positive_number(ctx, *t, "thickness", path, ctx.length_unit);
+  auto width = positive_number(ctx, *t, "width", path, ctx.length_unit);
+  if (!k || !thickness || !width) return std::nullopt;
+  return *k * *width / *thickness;
+}
+
+}  // namespace
+
+void read_rivers(ReaderContext& ctx, const toml::table& root, Model& model) {
+  const toml::array* arr = section_tables(ctx, root, "river");
+  if (!arr) return;
+  std::vector<std::string> names;
+  for (std::size_t i = 0; i < arr->size(); ++i) {
+    const toml::table& t = *(*arr)[i].as_table();
+    const std::string path = feature_path("river", t, i);
+    check_keys(ctx, t, path,
+               {"name", "edge", "cells", "mask", "polyline", "x", "y", "stage", "bed_bottom",
+                "bed_conductance", "bed"});
+    River r;
+    r.name = read_string(ctx, t, "name", path, false).value_or("river " + std::to_string(i + 1));
+    check_unique_name(ctx, t, path, r.name, names);
+    const bool by_value = t.contains("bed_conductance"), by_bed = t.contains("bed");
+    if (by_value == by_bed)
+      ctx.error(t, path + (by_bed ? ".bed" : ".bed_conductance"),
+                by_bed ? "give bed_conductance or bed = { k, thickness, width }, not both"
+                       : "missing required key: bed_conductance (" + ctx.velocity_unit() +
+                             " per unit channel length) or bed = { k, thickness, width }");
+    auto place = read_placement(ctx, t, path, PlacementDefault::required);
+    if (!place) continue;
+    // With cells or a mask each cell counts one length unit of channel: bed_conductance is
+    // then the conductance of the cell (L2/T).
+    r.cells = place->cells;
+    r.length = place->polyline ? place->length : std::vector<double>(place->cells.size(), 1.0);
+    auto stage = read_period_values(ctx, t, "stage", path, r.cells, std::nullopt,
+                                    {[](double v) { return std::isfinite(v); }, "an elevation"});
+    auto bottom = read_period_values(ctx, t, "bed_bottom", path, r.cells, std::nullopt,
+                                     {[](double v) { return std::isfinite(v); }, "an elevation"});
+    std::optional<PeriodValues> per_length;
+    if (by_value && !by_bed) {
+      per_length = read_period_values(ctx, t, "bed_conductance", path, r.cells, std::nullopt,
+                                      {[](double v) { return v >= 0.0; },
+                                       ">= 0 " + ctx.velocity_unit() + " per unit channel length"});
+    } else if (by_bed && !by_value) {
+      if (auto c = bed_conductance_per_length(ctx, *t.get("bed"), path + ".bed"))
+        per_length = PeriodValues(*c);
+    }
+    warn_fixed_overlap(ctx, path, place->at, r.cells);
+    if (!stage || !bottom || !per_length) continue;
+    r.stage = std::move(*stage);
+    r.bed_bottom = std::move(*bottom);
+    r.conductance = scale_by_cell(*per_length, r.length);
+    model.rivers.push_back(std::move(r));
+  }
+}
+
+void read_leakage(ReaderContext& ctx, const toml::table& root, Model& model) {
+  const std::string path = "[leakage]";
+  const toml::node* node = root.get("leakage");
+  if (!node) return;
+  const toml::table* t = node->as_table();
+  if (!t) {
+    ctx.error(*node, path, "expected a table, found " + type_name(*node));
+    return;
+  }
+  check_keys(ctx, *t, path, {"source_head", "aquitard", "leakance"});
+  const toml::node* aquifer = root.get("aquifer");
+  const bool has_top = aquifer && aquifer->as_table() && aquifer->as_table()->contains("top");
+  if (!has_top)
+    ctx.error(*t, path,
+              "leakage through an aquitard above needs [aquifer].top (the base of the aquitard)");
+  if (!ctx.grid) return;
+  Leakage leak;
+  for (int c = 0; c < ctx.grid->n_cells(); ++c)
+    if (ctx.grid->is_active(CellIndex{c})) leak.cells.push_back(CellIndex{c});
+  auto source = read_period_values(ctx, *t, "source_head", path, leak.cells, std::nullopt,
+                                   {[](double v) { return std::isfinite(v); }, "an elevation"});
+  const bool by_aquitard = t->contains("aquitard"), by_value = t->contains("leakance");
+  std::optional<PeriodValues> leakance;
+  if (by_aquitard == by_value) {
+    ctx.error(*t, path + (by_value ? ".leakance" : ".aquitard"),
+              by_value ? "give leakance or aquitard = { k, thickness }, not both"
+                       : "missing required key: aquitard = { k = (" + ctx.velocity_unit() +
+                             "), thickness = (" + ctx.length_unit + ") } or leakance (1/" +
+                             ctx.time_unit + ")");
+  } else if (by_value) {
+    leakance = read_period_values(ctx, *t, "leakance", path, leak.cells, std::nullopt,
+                                  {[](double v) { return v >= 0.0; }, ">= 0 1/" + ctx.time_unit});
+  } else {
+    const std::string apath = path + ".aquitard";
+    const toml::node& a = *t->get("aquitard");
+    if (!a.as_table()) {
+      ctx.error(a, apath,
+                "expected { k = (" + ctx.velocity_unit() + "), thickness = (" + ctx.length_unit +
+                    ") }, found " + type_name(a));
+    } else {
+      check_keys(ctx, *a.as_table(), apath, {"k", "thickness"});
+      auto k = read_field_key(ctx, *a.as_table(), "k", apath, true);
+      auto b = read_field_key(ctx, *a.as_table(), "thickness", apath, true);
+      bool ok = k && b;
+      if (k)
+        ok &= check_field(
+            ctx, *k, apath + ".k", [](double v) { return v >= 0.0; },
+            ">= 0 " + ctx.velocity_unit());
+      if (b)
+        ok &= check_field(
+            ctx, *b, apath + ".thickness", [](double v) { return v > 0.0; },
+            "> 0 " + ctx.length_unit);
+      if (ok) {
+        std::vector<double> table;
+        table.reserve(leak.cells.size());
+        bool uniform = k->uniform && b->uniform;
+        for (CellIndex c : leak.cells)
+          table.push_back(k->values[std::size_t(c.value)] / b->values[std::size_t(c.value)]);
+        if (uniform) table.resize(1);
+        leakance = PeriodValues({std::move(table)}, {});
+      }
+    }
+  }
+  if (!source || !leakance || !has_top) return;
+  leak.source_head = std::move(*source);
+  leak.leakance = std::move(*leakance);
+  model.leakage = std::move(leak);
+}
+
+}  // namespace aquiledger

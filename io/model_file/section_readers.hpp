@@ -1,0 +1,46 @@
+#pragma once
+// The readers of the model file's sections, in the order io/model_file/model_reader.cpp calls them
+// (io-internal header). Each reports into ctx and fills its part of the model.
+#include <toml++/toml.h>
+
+#include <string>
+
+#include "io/model_file/reader_context.hpp"
+#include "solver/model.hpp"
+
+namespace aquiledger {
+
+void read_model_section(ReaderContext& ctx, const toml::table& root, Model& model);
+/// Reads nrow, ncol, dx, dy, origin into ctx.shape after the memory guard; false when the
+/// grid cannot be used (then nothing per cell is read).
+bool read_grid_shape(ReaderContext& ctx, const toml::table& root);
+/// Reads the active mask and builds the grid (ctx.grid and model.grid).
+void read_active_mask(ReaderContext& ctx, const toml::table& root, Model& model);
+void read_periods(ReaderContext& ctx, const toml::table& root, Model& model);
+void read_aquifer(ReaderContext& ctx, const toml::table& root, Model& model);
+void read_initial(ReaderContext& ctx, const toml::table& root, Model& model);
+void read_fixed_heads(ReaderContext& ctx, const toml::table& root, Model& model);
+void read_wells(ReaderContext& ctx, const toml::table& root, Model& model);
+void read_recharges(ReaderContext& ctx, const toml::table& root, Model& model);
+void read_drains(ReaderContext& ctx, const toml::table& root, Model& model);
+void read_external_heads(ReaderContext& ctx, const toml::table& root, Model& model);
+void read_evapotranspiration(ReaderContext& ctx, const toml::table& root, Model& model);
+void read_rivers(ReaderContext& ctx, const toml::table& root, Model& model);
+void read_leakage(ReaderContext& ctx, const toml::table& root, Model& model);
+void read_observations(ReaderContext& ctx, const toml::table& root, Model& model);
+void read_output(ReaderContext& ctx, const toml::table& root, Model& model);
+void read_solver(ReaderContext& ctx, const toml::table& root, Model& model);
+
+/// The tables of an array-of-tables section ([[well]] ...); reports a plain [well] table.
+const toml::array* section_tables(ReaderContext& ctx, const toml::table& root,
+                                  std::string_view name);
+/// "[[well]] \"north well\"" or "[[well]] #2" for messages.
+std::string feature_path(std::string_view section, const toml::table& table, std::size_t index);
+/// Warns when an explicitly placed stress lands on fixed-head cells (it is not applied there).
+void warn_fixed_overlap(ReaderContext& ctx, const std::string& path, const SourceSpot& at,
+                        const std::vector<CellIndex>& cells);
+/// Reports a name used twice in one kind of feature; names must be unique per section.
+void check_unique_name(ReaderContext& ctx, const toml::table& table, const std::string& path,
+                       const std::string& name, std::vector<std::string>& seen);
+
+}  // namespace aquiledger

@@ -1,0 +1,54 @@
+#pragma once
+// Typed access to TOML values with messages naming the key, the value found and what was
+// expected (io-internal header).
+#include <toml++/toml.h>
+
+#include <initializer_list>
+#include <optional>
+#include <string>
+#include <string_view>
+
+#include "io/model_file/reader_context.hpp"
+
+namespace aquiledger {
+
+/// Levenshtein distance between two keys (for did-you-mean suggestions).
+int edit_distance(std::string_view a, std::string_view b);
+/// The closest allowed word to `word`, if close enough to be a likely typo.
+std::optional<std::string> closest_word(std::string_view word,
+                                        std::initializer_list<std::string_view> allowed);
+
+/// Reports every key of `table` not in `allowed`, with a suggestion.
+void check_keys(ReaderContext& ctx, const toml::table& table, const std::string& path,
+                std::initializer_list<std::string_view> allowed);
+
+/// The TOML type name of a node, for messages ("string", "integer", "table", ...).
+std::string type_name(const toml::node& node);
+/// The node's value shown as written, short.
+std::string show(const toml::node& node);
+/// "12.5" in shortest round-trip form.
+std::string show_number(double value);
+
+/// Number (integer or float) at key; error when present with another type or missing+required.
+std::optional<double> read_number(ReaderContext& ctx, const toml::table& table,
+                                  std::string_view key, const std::string& path, bool required);
+std::optional<long long> read_integer(ReaderContext& ctx, const toml::table& table,
+                                      std::string_view key, const std::string& path, bool required);
+std::optional<bool> read_bool(ReaderContext& ctx, const toml::table& table, std::string_view key,
+                              const std::string& path);
+std::optional<std::string> read_string(ReaderContext& ctx, const toml::table& table,
+                                       std::string_view key, const std::string& path,
+                                       bool required);
+/// A string that must be one of `allowed`; the error lists the allowed values.
+std::optional<std::string> read_choice(ReaderContext& ctx, const toml::table& table,
+                                       std::string_view key, const std::string& path,
+                                       std::initializer_list<std::string_view> allowed);
+/// Number of a node (integer or finite float; inf and nan are not numbers), no message.
+std::optional<double> number_of(const toml::node& node);
+
+/// Key path "section.key" for messages.
+inline std::string key_path(const std::string& path, std::string_view key) {
+  return path + "." + std::string(key);
+}
+
+}  // namespace aquiledger

@@ -1,0 +1,57 @@
+#include "io/reports/run_report.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+
+#include "postproc/water_budget.hpp"
+
+namespace aquiledger {
+
+namespace {
+
+double storage_net_release(const WaterBudget& b) {
+  double net = 0.0;
+  for (auto c : {BudgetComponent::storage_skeleton, BudgetComponent::storage_water,
+                 BudgetComponent::storage_drainage, BudgetComponent::storage_elastic})
+    net += b[c].in - b[c].out;
+  return net;
+}
+
+std::string volume(double v) { return fmt::format("{:.4g}", v); }
+
+}  // namespace
+
+std::string format_period_budget_table(const Model& model,
+                                       const std::vector<BudgetPeriodRow>& rows) {
+  const std::string vu = model.length_unit + "3";
+  std::size_t name_width = 6;
+  for (const auto& r : rows) name_width = std::max(name_width, r.name.size());
+  name_width = std::min<std::size_t>(name_width, 24);
+
+  // The words of the result files: into / out of the aquifer, storage released (net).
+  std::string out = fmt::format(
+      "Water budget per period (volumes in {}; balance_periods.csv and budget_periods.csv hold "
+      "them all)\n",
+      vu);
+  out +=
+      fmt::format("  {:>3}  {:<{}}  {:>10}  {:>12}  {:>14}  {:>13}  {:>11}  {:>11}  {:>10}\n", "#",
+                  "period", name_width, fmt::format("end ({})", model.time_unit), "into aquifer",
+                  "out of aquifer", "storage, net", "of it pores", "pumped", "imbalance");
+  for (const auto& r : rows) {
+    const WaterBudget& b = r.volumes;
+    const std::string name = r.name.size() > name_width ? r.name.substr(0, name_width) : r.name;
+    out += fmt::format(
+        "  {:>3}  {:<{}}  {:>10.4g}  {:>12}  {:>14}  {:>13}  {:>11}  {:>11}  {:>9.2e}%\n", r.period,
+        name, name_width, r.end, volume(b.total_in()), volume(b.total_out()),
+        volume(storage_net_release(b)),
+        volume(b[BudgetComponent::storage_drainage].in - b[BudgetComponent::storage_drainage].out),
+        volume(b[BudgetComponent::well].out), b.imbalance_percent());
+  }
+  out +=
+      "  (storage, net: released minus taken into storage; of it pores: by draining pores at the "
+      "water table)\n";
+  return out;
+}
+
+}  // namespace aquiledger
