@@ -17,6 +17,7 @@
 #include "aquiledger_version.hpp"
 #include "io/files/atomic_file.hpp"
 #include "io/cli/commands.hpp"
+#include "io/cli/model_diagnostics.hpp"
 #include "io/model_file/model_reader.hpp"
 #include "io/files/output_lock.hpp"
 #include "io/reports/run_report.hpp"
@@ -159,11 +160,7 @@ int run_sources_command(const SourcesOptions& o) {
     return exit_usage;
   }
   ReadResult read = read_model_file(*o.model_file);
-  if (!read.ok()) {
-    for (const Diagnostic& d : read.diagnostics)
-      std::fprintf(stderr, "%s\n", d.to_string().c_str());
-    return exit_invalid_model;
-  }
+  if (!print_model_diagnostics(read)) return exit_invalid_model;
   Model& model = *read.model;
   if (!o.quiet)
     for (const auto& w : model.warnings) std::fprintf(stdout, "warning: %s\n", w.c_str());

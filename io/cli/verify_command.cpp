@@ -1,4 +1,4 @@
-// `verify` and `report`: the benchmark suite and the HTML report of a results folder.
+// `aquiledger verify`: the analytical benchmark suite, its table, CSVs and page.
 #include <fmt/format.h>
 
 #include <cstdio>
@@ -6,8 +6,7 @@
 
 #include "io/cli/commands.hpp"
 #include "io/files/output_error.hpp"
-#include "io/reports/results_report.hpp"
-#include "io/reports/verify_command.hpp"
+#include "io/reports/verify_report.hpp"
 #include "postproc/verification_suite.hpp"
 
 namespace aquiledger {
@@ -45,30 +44,6 @@ int run_verify_command(const VerifyOptions& options) {
                  .c_str(),
              stdout);
   return failed == 0 ? exit_success : exit_verification_failed;
-}
-
-int run_report_command(const ReportOptions& options) {
-  ResultsReportOptions o;
-  o.results_folder = options.results_folder;
-  o.output_file =
-      options.output_file ? *options.output_file : options.results_folder / "report.html";
-  o.model_file = options.model_file;
-  o.without_model = options.without_model;
-  try {
-    const ResultsReportSummary s = write_results_report(o);
-    if (!s.note.empty() && !options.quiet) std::fprintf(stderr, "note: %s\n", s.note.c_str());
-    if (!options.quiet)
-      std::fprintf(stdout,
-                   "aquiledger report: %d charts (%d observations with measured heads) in %s\n",
-                   s.charts, s.observations_with_measurements, o.output_file.string().c_str());
-  } catch (const ReportModelError& e) {
-    std::fprintf(stderr, "error: %s\n", e.what());
-    return exit_invalid_model;
-  } catch (const OutputError& e) {
-    std::fprintf(stderr, "error: %s\nNo report was written.\n", e.what());
-    return exit_output_failure;
-  }
-  return exit_success;
 }
 
 }  // namespace aquiledger

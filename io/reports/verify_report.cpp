@@ -1,4 +1,4 @@
-#include "io/reports/verify_command.hpp"
+#include "io/reports/verify_report.hpp"
 
 #include <fmt/format.h>
 

@@ -1,5 +1,4 @@
-#include "io/cli/commands.hpp"
-
+// `aquiledger run`: reads the model, runs it with the chosen engine and writes the results.
 #include <fmt/format.h>
 #include <unistd.h>
 
@@ -9,8 +8,9 @@
 #include <tuple>
 
 #include "aquiledger_version.hpp"
+#include "io/cli/commands.hpp"
+#include "io/cli/model_diagnostics.hpp"
 #include "io/files/atomic_file.hpp"
-#include "io/reports/check_report.hpp"
 #include "io/restart/checkpoint.hpp"
 #include "io/cli/distributed_run.hpp"
 #include "io/model_file/memory_guard.hpp"
@@ -25,25 +25,6 @@ namespace aquiledger {
 
 namespace {
 
-/// Prints the diagnostics of a model that cannot be used (every error, and the warnings
-/// with them; when print is set); returns true when the model is usable. The warnings of a
-/// usable model are printed once, by the command (model.warnings, with file and line).
-bool report_diagnostics(const ReadResult& result, bool print = true) {
-  if (!print || result.ok()) return result.ok();
-  int errors = 0;
-  std::vector<Diagnostic> sorted = result.diagnostics;
-  std::stable_sort(sorted.begin(), sorted.end(), [](const Diagnostic& a, const Diagnostic& b) {
-    return std::tie(a.file, a.line) < std::tie(b.file, b.line);
-  });
-  for (const Diagnostic& d : sorted) {
-    std::fprintf(stderr, "%s\n", d.to_string().c_str());
-    if (d.severity == Severity::error) ++errors;
-  }
-  if (errors > 0)
-    std::fprintf(stderr, "%d error%s: the model was not run.\n", errors, errors == 1 ? "" : "s");
-  return result.ok();
-}
-
 double median(std::vector<int> v) {
   if (v.empty()) return 0.0;
   std::sort(v.begin(), v.end());
@@ -52,20 +33,6 @@ double median(std::vector<int> v) {
 }
 
 }  // namespace
-
-int run_check_command(const CheckOptions& options) {
-  const ReadResult result = read_model_file(options.model_file);
-  if (!report_diagnostics(result)) return exit_invalid_model;
-  const Model& model = *result.model;
-  if (!options.quiet) std::fputs(format_check_report(model).c_str(), stdout);
-  std::fputs(model.warnings.empty()
-                 ? "The model is valid.\n"
-                 : fmt::format("The model is valid ({} warning{}).\n", model.warnings.size(),
-                               model.warnings.size() == 1 ? "" : "s")
-                       .c_str(),
-             stdout);
-  return exit_success;
-}
 
 int run_run_command(const RunOptions& options) {
   using Clock = std::chrono::steady_clock;
@@ -88,7 +55,7 @@ int run_run_command(const RunOptions& options) {
   // the tables and the summary.
   const bool root = engine->root();
   ReadResult result = read_model_file(options.model_file);
-  if (!report_diagnostics(result, root)) return exit_invalid_model;
+  if (!print_model_diagnostics(result, root)) return exit_invalid_model;
   Model& model = *result.model;
   if (options.threads) model.solver.threads = *options.threads;
   if (const std::string why = engine->unsupported(model); !why.empty()) {
