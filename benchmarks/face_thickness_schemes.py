@@ -1,7 +1,7 @@
 #!/usr/bin/python3
 """Measures candidate face-thickness schemes on the recharged Dupuit strip.
 
-The strip of tests/solver/test_dupuit.cpp (canals at 20 and 12 m, 1.5 km apart, recharge
+The strip of tests/solver/test_simulation_dupuit.cpp (canals at 20 and 12 m, 1.5 km apart, recharge
 2 mm/d, K 20 m/d and k_east beyond the middle) solved by plain cell-centred finite volumes
 in numpy/scipy with three face thicknesses: the mean of the two cells' thicknesses with
 the harmonic-mean K (the program's `mean`), the harmonic mean of the transmissivities K b,

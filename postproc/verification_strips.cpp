@@ -114,7 +114,7 @@ VerificationResult benchmark_dupuit() {
     const double exact = dupuit_two_zone_head(h1, h2, length, n_rate, 20.0, k_east, interface, x);
     const double h = r.heads[0][static_cast<std::size_t>(col)];
     // Fixed in advance: 0.1 % of the 8 m head drop. The mean face thickness is second order
-    // (test_dupuit.cpp: 2.5e-3 m here, falling fourfold per halving of the cells).
+    // (test_simulation_dupuit.cpp: 2.5e-3 m here, falling fourfold per halving of the cells).
     worst.add(h - exact, 1e-3 * (h1 - h2));
     c.x.push_back(x);
     c.numerical.push_back(h);
@@ -164,7 +164,7 @@ VerificationResult benchmark_drainage() {
                       {exact(0.0)}};
   for (std::size_t k = 0; k < r.steps.size(); ++k) {
     // Newton is exact on each linear piece; the residual test leaves at most
-    // flow_tolerance * |N| dt / Sy ~ 1e-6 m (test_analytical.cpp).
+    // flow_tolerance * |N| dt / Sy ~ 1e-6 m (test_simulation_closed_forms.cpp).
     for (double h : r.heads[k]) worst.add(h - exact(r.steps[k].time), 1e-6);
     c.x.push_back(r.steps[k].time);
     c.numerical.push_back(r.heads[k][4]);
@@ -194,13 +194,13 @@ VerificationResult benchmark_compressibility() {
   Compressibility comp;
   comp.skeleton = 5e-9;
   comp.porosity = 0.25;
-  const double elastic = comp.skeleton + comp.porosity * comp.water;
+  const double elastic = comp.skeleton + comp.porosity * comp.water;  // the expected shares below
   UniformAquifer a;
-  a.specific_storage = comp.density * comp.gravity * elastic;
+  a.specific_storage = specific_storage_per_metre(comp, comp.skeleton, comp.porosity);
   Model m = uniform_model(std::vector<double>(21, 50.0), std::vector<double>(21, 50.0), a);
   m.aquifer.compressibility = comp;
   m.aquifer.skeleton_share.assign(static_cast<std::size_t>(m.grid.n_cells()),
-                                  comp.skeleton / elastic);
+                                  skeleton_share_of_storage(comp, comp.skeleton, comp.porosity));
   const double q = 500.0;
   m.wells.push_back(
       Well{"well", m.grid.x_center(10), m.grid.y_center(10), m.grid.cell(10, 10), constant(q)});

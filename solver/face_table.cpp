@@ -41,20 +41,11 @@ FaceFlow face_flow(const Model& model, const SystemLayout& layout, CellIndex i, 
 /// Net flow (L3/T) from fixed cell c into its active non-fixed neighbours.
 double fixed_cell_net_flow(const Model& model, const SystemLayout& layout, CellIndex c,
                            CellValues head) {
-  const RectilinearGrid& g = model.grid;
-  const RowCol rc = g.row_col(c);
   double net = 0.0;
-  auto consider = [&](int r, int col, bool east_west) {
-    if (r < 0 || r >= g.n_rows() || col < 0 || col >= g.n_cols()) return;
-    const CellIndex nb = g.cell(r, col);
-    if (!g.is_active(nb) || layout.fixed[at(nb)]) return;
-    const double factor = face_factor(model, c, nb, east_west);
+  for_each_active_neighbour(model, c, [&](CellIndex nb, double factor) {
+    if (layout.fixed[at(nb)]) return;
     net += face_flow(model, layout, nb, c, factor, head[at(nb)], head[at(c)]).q;
-  };
-  consider(rc.row, rc.col - 1, true);
-  consider(rc.row, rc.col + 1, true);
-  consider(rc.row - 1, rc.col, false);
-  consider(rc.row + 1, rc.col, false);
+  });
   return net;
 }
 

@@ -59,14 +59,7 @@ FlowSystem::FlowSystem(const Model& model, const SystemLayout& layout)
   if (model.aquifer.condition != Condition::confined) thickness_.resize(stress_q_.size());
   for (int i = 0; i < model.grid.n_cells(); ++i) {
     const CellIndex c{i};
-    if (!layout.fixed[at(c)]) continue;
-    fixed_cells_.push_back(c);
-    int k = 0;
-    for_each_active_neighbour(model, c, [&](CellIndex nb, double factor) {
-      if (!layout.fixed[at(nb)]) fixed_neighbours_.push_back({factor, nb, k});
-      ++k;
-    });
-    fixed_neighbours_.push_back({0.0, CellIndex{}, -1});  // end of this cell's list
+    if (layout.fixed[at(c)]) fixed_cells_.push_back(c);
   }
 }
 
@@ -156,18 +149,10 @@ void FlowSystem::assemble(std::span<const double> head) {
     assemble_cells<true>(head);
   else
     assemble_cells<false>(head);
-  // Fixed heads enter the budget as the net flow of each fixed cell to its neighbours.
+  // Fixed heads enter the budget as the net flow of each fixed cell to its neighbours (the
+  // same function as the budget's and the distributed engine's).
   double abs_sum = abs_sum_;
-  std::size_t p = 0;
-  for (CellIndex c : fixed_cells_) {
-    double net = 0.0;
-    for (; fixed_neighbours_[p].cell.valid(); ++p) {
-      const Neighbour& nb = fixed_neighbours_[p];
-      net += face_flow(model_, layout_, nb.cell, c, nb.factor, head[at(nb.cell)], head[at(c)]).q;
-    }
-    ++p;
-    abs_sum += std::abs(net);
-  }
+  for (CellIndex c : fixed_cells_) abs_sum += std::abs(fixed_cell_net_flow(model_, layout_, c, head));
   throughflow_ = 0.5 * abs_sum;
   rounding_floor_ = aquiledger::rounding_floor(abs_sum, face_sum_, quantum_sum_);
 }

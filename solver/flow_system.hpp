@@ -68,9 +68,8 @@ class FlowSystem {
   /// The loop over unknowns: residual, matrix values, budget sums.
   template <bool Confined>
   void assemble_cells(std::span<const double> head);
-  /// Fixed cells with their active non-fixed neighbours, for the fixed-head throughflow.
+  /// Fixed cells, for the fixed-head throughflow.
   std::vector<CellIndex> fixed_cells_;
-  std::vector<Neighbour> fixed_neighbours_;
   std::span<const double> head_old_;
   std::size_t period_ = 0;
   bool steady_ = true;

@@ -14,7 +14,11 @@ namespace aquiledger {
 
 enum class Condition { confined, water_table, switching };
 
-/// Compressibility route inputs (Jacob, 1940): Ss = rho g (alpha + n beta).
+/// Compressibility route inputs (Jacob, 1940): Ss = rho g (alpha + n beta). Defaults: water
+/// compressibility 4.6e-10 1/Pa near 15-20 degC (from memory; handbook tables give 4.4e-10 to
+/// 4.8e-10 1/Pa for 0-30 degC); density of water 998.2 kg/m3 at 20 degC (from memory; CRC
+/// Handbook of Chemistry and Physics, table of water density); standard gravity 9.80665 m/s2
+/// (exact by definition, 3rd CGPM, 1901).
 struct Compressibility {
   double skeleton = 0.0;     ///< alpha, 1/Pa (uniform value used for reporting; per cell below)
   double porosity = 0.0;     ///< n, -
@@ -22,6 +26,19 @@ struct Compressibility {
   double density = 998.2;    ///< rho, kg/m3
   double gravity = 9.80665;  ///< g, m/s2
 };
+
+/// Specific storage (1/m) of a cell with skeleton compressibility alpha (1/Pa) and porosity
+/// n (-): Ss = rho g (alpha + n beta) (Jacob, 1940).
+inline double specific_storage_per_metre(const Compressibility& c, double alpha, double n) {
+  return c.density * c.gravity * (alpha + n * c.water);
+}
+
+/// The share of the elastic release that comes from compressing the skeleton,
+/// alpha / (alpha + n beta) (-); the water's expansion gives the rest. 0 when both are 0.
+inline double skeleton_share_of_storage(const Compressibility& c, double alpha, double n) {
+  const double total = alpha + n * c.water;
+  return total > 0.0 ? alpha / total : 0.0;
+}
 
 struct Aquifer {
   Condition condition = Condition::confined;

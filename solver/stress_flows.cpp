@@ -2,6 +2,7 @@
 
 #include <cmath>
 #include <cstdint>
+#include <span>
 
 #include "solver/stress_kernels.hpp"
 
@@ -55,66 +56,45 @@ void visit_stress_flows(const Model& model, const SystemLayout& layout, std::siz
     ++k;
   }
 
-  for (const River& river : model.rivers) {
-    for (std::size_t j = 0; j < river.cells.size(); ++j) {
-      const CellIndex c = river.cells[j];
-      if (!carries_stress(c)) continue;
-      visit(k, c,
-            StressFlow{river_flow(head[at(c)], river.stage.at(period, j),
-                                  river.bed_bottom.at(period, j), river.conductance.at(period, j),
-                                  layout.smoothing_length[at(c)])});
+  // The features with a cells list: each cell's flow from its kernel in solver/stress_kernels.hpp.
+  auto each_cell = [&](std::span<const auto> features, auto&& flow) {
+    for (const auto& feature : features) {
+      for (std::size_t j = 0; j < feature.cells.size(); ++j) {
+        const CellIndex c = feature.cells[j];
+        if (carries_stress(c)) visit(k, c, StressFlow{flow(feature, j, c)});
+      }
+      ++k;
     }
-    ++k;
-  }
-
-  for (const Drain& drain : model.drains) {
-    for (std::size_t j = 0; j < drain.cells.size(); ++j) {
-      const CellIndex c = drain.cells[j];
-      if (!carries_stress(c)) continue;
-      visit(
-          k, c,
-          StressFlow{drain_flow(head[at(c)], drain.elevation.at(period, j),
-                                drain.conductance.at(period, j), layout.smoothing_length[at(c)])});
-    }
-    ++k;
-  }
-
-  for (const ExternalHead& external : model.external_heads) {
-    for (std::size_t j = 0; j < external.cells.size(); ++j) {
-      const CellIndex c = external.cells[j];
-      if (!carries_stress(c)) continue;
-      visit(k, c,
-            StressFlow{external_head_flow(head[at(c)], external.head.at(period, j),
-                                          external.conductance.at(period, j))});
-    }
-    ++k;
-  }
-
-  for (const Evapotranspiration& et : model.evapotranspiration) {
-    for (std::size_t j = 0; j < et.cells.size(); ++j) {
-      const CellIndex c = et.cells[j];
-      if (!carries_stress(c)) continue;
-      visit(k, c,
-            StressFlow{evapotranspiration_flow(
-                head[at(c)], et.surface.at(period, j), et.max_rate.at(period, j),
-                et.extinction_depth.at(period, j), layout.area[at(c)],
-                layout.smoothing_length[at(c)])});
-    }
-    ++k;
-  }
-
+  };
+  each_cell(std::span<const River>(model.rivers), [&](const River& river, std::size_t j, CellIndex c) {
+    return river_flow(head[at(c)], river.stage.at(period, j), river.bed_bottom.at(period, j),
+                      river.conductance.at(period, j), layout.smoothing_length[at(c)]);
+  });
+  each_cell(std::span<const Drain>(model.drains), [&](const Drain& drain, std::size_t j, CellIndex c) {
+    return drain_flow(head[at(c)], drain.elevation.at(period, j), drain.conductance.at(period, j),
+                      layout.smoothing_length[at(c)]);
+  });
+  each_cell(std::span<const ExternalHead>(model.external_heads),
+            [&](const ExternalHead& external, std::size_t j, CellIndex c) {
+              return external_head_flow(head[at(c)], external.head.at(period, j),
+                                        external.conductance.at(period, j));
+            });
+  each_cell(std::span<const Evapotranspiration>(model.evapotranspiration),
+            [&](const Evapotranspiration& et, std::size_t j, CellIndex c) {
+              return evapotranspiration_flow(head[at(c)], et.surface.at(period, j),
+                                             et.max_rate.at(period, j),
+                                             et.extinction_depth.at(period, j), layout.area[at(c)],
+                                             layout.smoothing_length[at(c)]);
+            });
   if (model.leakage) {
-    const Leakage& leakage = *model.leakage;
     const bool has_top = !model.aquifer.top.empty();
-    for (std::size_t j = 0; j < leakage.cells.size(); ++j) {
-      const CellIndex c = leakage.cells[j];
-      if (!carries_stress(c)) continue;
-      const double top = has_top ? model.aquifer.top[at(c)] : std::nan("");
-      visit(k, c,
-            StressFlow{leakage_flow(head[at(c)], leakage.source_head.at(period, j), top,
+    each_cell(std::span<const Leakage>(&*model.leakage, 1),
+              [&](const Leakage& leakage, std::size_t j, CellIndex c) {
+                const double top = has_top ? model.aquifer.top[at(c)] : std::nan("");
+                return leakage_flow(head[at(c)], leakage.source_head.at(period, j), top,
                                     leakage.leakance.at(period, j), layout.area[at(c)],
-                                    layout.smoothing_length[at(c)])});
-    }
+                                    layout.smoothing_length[at(c)]);
+              });
   }
 }
 

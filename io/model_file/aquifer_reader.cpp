@@ -5,20 +5,11 @@
 #include "io/model_file/field_value.hpp"
 #include "io/model_file/section_readers.hpp"
 #include "io/model_file/toml_access.hpp"
+#include "io/model_file/unit_system.hpp"
 
 namespace aquiledger {
 
 namespace {
-
-// Defaults of the compressibility route (see solver/model.hpp Compressibility):
-// water compressibility 4.6e-10 1/Pa near 15-20 degC (from memory; handbook tables give
-// 4.4e-10 to 4.8e-10 1/Pa for 0-30 degC);
-// density of water 998.2 kg/m3 at 20 degC (from memory; CRC Handbook of Chemistry and Physics
-// table of water density);
-// standard gravity 9.80665 m/s2 (exact by definition, 3rd CGPM, 1901).
-constexpr double default_water_compressibility = 4.6e-10;  ///< 1/Pa
-constexpr double default_density = 998.2;                  ///< kg/m3
-constexpr double default_gravity = 9.80665;                ///< m/s2
 
 bool any_transient(const Model& model) {
   for (const Period& p : model.periods)
@@ -35,7 +26,7 @@ double active_mean(const ReaderContext& ctx, const std::vector<double>& v) {
 }
 
 /// compressibility = { skeleton, porosity, water, density, gravity }: Ss = rho g (alpha + n beta)
-/// (Jacob, 1940), in 1/m, times 0.3048 m/ft for a model in feet.
+/// (Jacob, 1940), in 1/m, converted to the model's length unit.
 void read_compressibility(ReaderContext& ctx, const toml::node& node, Model& model) {
   const std::string path = "[aquifer].compressibility";
   const toml::table* t = node.as_table();
@@ -48,10 +39,10 @@ void read_compressibility(ReaderContext& ctx, const toml::node& node, Model& mod
   check_keys(ctx, *t, path, {"skeleton", "porosity", "water", "density", "gravity"});
   auto alpha = read_field_key(ctx, *t, "skeleton", path, true);
   auto n = read_field_key(ctx, *t, "porosity", path, true);
-  Compressibility c;
-  c.water = read_number(ctx, *t, "water", path, false).value_or(default_water_compressibility);
-  c.density = read_number(ctx, *t, "density", path, false).value_or(default_density);
-  c.gravity = read_number(ctx, *t, "gravity", path, false).value_or(default_gravity);
+  Compressibility c;  // defaults for water, density and gravity: solver/model.hpp
+  c.water = read_number(ctx, *t, "water", path, false).value_or(c.water);
+  c.density = read_number(ctx, *t, "density", path, false).value_or(c.density);
+  c.gravity = read_number(ctx, *t, "gravity", path, false).value_or(c.gravity);
   bool ok = alpha && n;
   if (alpha)
     ok &= check_field(
@@ -71,16 +62,15 @@ void read_compressibility(ReaderContext& ctx, const toml::node& node, Model& mod
     ctx.error(*t, path + ".water", "value " + show_number(c.water) + "; expected >= 0 1/Pa"),
         ok = false;
   if (!ok || !ctx.grid) return;
-  const double per_length = model.length_unit == "ft" ? 0.3048 : 1.0;  // 1/m -> 1/ft
+  const double metres_per_unit = metres_per_length_unit(model.length_unit);  // 1/m -> 1/L
   Aquifer& a = model.aquifer;
   const std::size_t n_cells = alpha->values.size();
   a.specific_storage.resize(n_cells);
   a.skeleton_share.resize(n_cells);
   for (std::size_t i = 0; i < n_cells; ++i) {
-    const double water_part = n->values[i] * c.water;
-    const double total = alpha->values[i] + water_part;
-    a.specific_storage[i] = c.density * c.gravity * total * per_length;
-    a.skeleton_share[i] = total > 0.0 ? alpha->values[i] / total : 0.0;
+    a.specific_storage[i] =
+        specific_storage_per_metre(c, alpha->values[i], n->values[i]) * metres_per_unit;
+    a.skeleton_share[i] = skeleton_share_of_storage(c, alpha->values[i], n->values[i]);
   }
   c.skeleton = active_mean(ctx, alpha->values);
   c.porosity = active_mean(ctx, n->values);

@@ -8,20 +8,9 @@
 
 #include "io/model_file/period_value_reader.hpp"
 #include "io/model_file/plausibility.hpp"
+#include "solver/time_steps.hpp"
 
 namespace aquiledger {
-
-double first_step_length(const Period& p) {
-  const double g = p.growth;
-  const int n = p.steps;
-  if (n <= 1) return p.length;
-  if (std::abs(g - 1.0) < 1.0e-12) return p.length / n;
-  return p.length * (g - 1.0) / (std::pow(g, n) - 1.0);
-}
-
-double last_step_length(const Period& p) {
-  return first_step_length(p) * std::pow(p.growth, p.steps - 1);
-}
 
 namespace {
 

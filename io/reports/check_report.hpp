@@ -10,9 +10,4 @@ namespace aquiledger {
 /// with their cell counts, observations, settings and warnings.
 std::string format_check_report(const Model& model);
 
-/// Length of the first and last step of a period (T): dt1 = L (g - 1) / (g^n - 1), or L / n
-/// when g = 1, so that the n steps growing by g sum to L (geometric series).
-double first_step_length(const Period& period);
-double last_step_length(const Period& period);
-
 }  // namespace aquiledger

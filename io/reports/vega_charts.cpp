@@ -5,30 +5,13 @@
 #include <algorithm>
 #include <cmath>
 
+#include "io/files/text_encoding.hpp"
+
 namespace aquiledger {
 
-std::string vega_json_number(double v) {
-  if (!std::isfinite(v)) return "null";
-  return fmt::format("{}", v);
-}
+std::string vega_json_number(double v) { return json_number(v); }
 
-std::string vega_json_string(const std::string& s) {
-  std::string out = "\"";
-  for (char ch : s) {
-    const auto c = static_cast<unsigned char>(ch);
-    if (ch == '"' || ch == '\\') {
-      out += '\\';
-      out += ch;
-    } else if (ch == '<') {
-      out += "\\u003c";  // keeps "</script>" out of inlined JSON
-    } else if (c < 0x20) {
-      out += fmt::format("\\u{:04x}", c);
-    } else {
-      out += ch;
-    }
-  }
-  return out + "\"";
-}
+std::string vega_json_string(const std::string& s) { return json_string_for_html(s); }
 
 namespace {
 

@@ -7,21 +7,10 @@
 #include <string_view>
 
 #include "io/files/atomic_file.hpp"
+#include "io/files/text_encoding.hpp"
 
 namespace aquiledger {
 namespace {
-
-/// A text field quoted as RFC 4180 asks when it holds a comma, quote or line break.
-std::string csv_text(std::string_view text) {
-  if (text.find_first_of(",\"\r\n") == std::string_view::npos) return std::string(text);
-  std::string quoted = "\"";
-  for (char ch : text) {
-    if (ch == '"') quoted += '"';
-    quoted += ch;
-  }
-  quoted += '"';
-  return quoted;
-}
 
 /// fmt's "{}" for double is the shortest text that reads back to the same value.
 void append_number(std::string& out, double value) {

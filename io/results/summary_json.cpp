@@ -9,50 +9,10 @@
 #include <string_view>
 
 #include "io/files/atomic_file.hpp"
+#include "io/files/text_encoding.hpp"
 
 namespace aquiledger {
 namespace {
-
-/// A JSON string literal (RFC 8259 section 7): quotes, backslash and control characters
-/// escaped; other bytes (UTF-8) pass through.
-std::string json_string(std::string_view text) {
-  std::string out = "\"";
-  for (unsigned char ch : text) {
-    switch (ch) {
-      case '"':
-        out += "\\\"";
-        break;
-      case '\\':
-        out += "\\\\";
-        break;
-      case '\b':
-        out += "\\b";
-        break;
-      case '\f':
-        out += "\\f";
-        break;
-      case '\n':
-        out += "\\n";
-        break;
-      case '\r':
-        out += "\\r";
-        break;
-      case '\t':
-        out += "\\t";
-        break;
-      default:
-        if (ch < 0x20)
-          fmt::format_to(std::back_inserter(out), "\\u{:04x}", static_cast<unsigned>(ch));
-        else
-          out += static_cast<char>(ch);
-    }
-  }
-  out += '"';
-  return out;
-}
-
-/// JSON has no NaN or infinity: those become null.
-std::string json_number(double v) { return std::isfinite(v) ? fmt::format("{}", v) : "null"; }
 
 /// Builds an object one "key": value line at a time.
 class JsonObject {

@@ -10,34 +10,11 @@
 
 #include "io/files/atomic_file.hpp"
 #include "io/files/csv_table.hpp"
+#include "io/files/text_encoding.hpp"
 
 namespace aquiledger {
 
 namespace {
-
-/// RFC 4180 quoting of a text field holding a comma, quote or line break.
-std::string csv_text(const std::string& text) {
-  if (text.find_first_of(",\"\r\n") == std::string::npos) return text;
-  std::string q = "\"";
-  for (char c : text) q += c == '"' ? std::string("\"\"") : std::string(1, c);
-  return q + "\"";
-}
-
-std::string json_string(const std::string& text) {
-  std::string out = "\"";
-  for (unsigned char c : text) {
-    if (c == '"' || c == '\\')
-      out += {'\\', static_cast<char>(c)};
-    else if (c < 0x20)
-      out += fmt::format("\\u{:04x}", c);
-    else
-      out += static_cast<char>(c);
-  }
-  return out + "\"";
-}
-
-/// fmt's "{}" is the shortest text that reads back to the same double; JSON has no NaN.
-std::string json_number(double v) { return std::isfinite(v) ? fmt::format("{}", v) : "null"; }
 
 /// Budget components by their names in the results contract, version 2.
 std::optional<BudgetComponent> component_named(const std::string& name) {

@@ -1,6 +1,6 @@
 #pragma once
 // The model folder a fuzz input is read in: shared by the fuzz target and the regression
-// test (tests/io/test_fuzz_regressions.cpp) so that both read an input the same way.
+// test (tests/io/test_model_reader_fuzz_regressions.cpp) so that both read an input the same way.
 #include <array>
 #include <string_view>
 

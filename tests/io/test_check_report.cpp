@@ -1,4 +1,4 @@
-// The check report: step lengths of a growing period and the report's content.
+// The check report: what `aquiledger check` prints about a model.
 #include <catch2/catch.hpp>
 #include <cmath>
 #include <fstream>
@@ -8,18 +8,6 @@
 #include "io/model_file/model_reader.hpp"
 
 using namespace aquiledger;
-
-TEST_CASE("first and last step lengths of a growing period", "[check_report]") {
-  // n steps growing by g sum to L: dt1 (g^n - 1) / (g - 1) = L (sum of a geometric series).
-  const Period p{"p", 120.0, 12, 1.2, false};
-  const double dt1 = first_step_length(p);
-  double sum = 0.0;
-  for (int k = 0; k < p.steps; ++k) sum += dt1 * std::pow(p.growth, k);
-  CHECK(sum == Approx(120.0).epsilon(1e-13));
-  CHECK(last_step_length(p) == Approx(dt1 * std::pow(1.2, 11)).epsilon(1e-14));
-  CHECK(first_step_length(Period{"q", 30.0, 4, 1.0, false}) == Approx(7.5));  // L / n when g = 1
-  CHECK(first_step_length(Period{"s", 365.0, 1, 1.0, true}) == 365.0);
-}
 
 TEST_CASE("the report describes the contract example", "[check_report]") {
   const std::string dir = std::string(AQUILEDGER_TEST_DATA_DIR) + "/reader";

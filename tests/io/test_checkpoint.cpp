@@ -25,7 +25,11 @@ Checkpoint sample() {
   // the largest double, 0.1.
   const std::vector<double> awkward{std::nan(""), -0.0, 4.9e-324,
                                     std::numeric_limits<double>::max(), 0.1};
-  c.state = {1, 3, 13.021700000000001, awkward, {1e-300, -2.5}};
+  c.state.period = 1;
+  c.state.step_in_period = 3;
+  c.state.time = 13.021700000000001;
+  c.state.head = awkward;
+  c.state.linear_start = {1e-300, -2.5};
   c.state.previous_head = awkward;
   c.state.previous_dt = 0.1;
   c.state.so_far.steps = 15;

@@ -26,8 +26,10 @@ TEST_CASE("CSV reader follows RFC 4180 quoting", "[report]") {
 }
 
 TEST_CASE("JSON strings are escaped and read back as RFC 8259 defines", "[report]") {
-  // RFC 8259 section 7: quotation mark, reverse solidus and control characters are escaped.
-  CHECK(vega_json_string("a\"b\\c\n") == "\"a\\\"b\\\\c\\u000a\"");
+  // RFC 8259 section 7: quotation mark, reverse solidus and control characters are escaped,
+  // with the two-character form where the RFC has one (\n) and \u00XX otherwise.
+  CHECK(vega_json_string("a\"b\\c\n") == "\"a\\\"b\\\\c\\n\"");
+  CHECK(vega_json_string(std::string("\x01")) == "\"\\u0001\"");
   // "<" is written as \u003c so inlined JSON cannot close a script element (HTML 5,
   // "restrictions for contents of script elements").
   CHECK(vega_json_string("</script>") == "\"\\u003c/script>\"");

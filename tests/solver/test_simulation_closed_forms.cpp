@@ -73,7 +73,7 @@ TEST_CASE("steady Dupuit-Forchheimer flow with recharge between two fixed heads"
   // The mean face thickness (default) is exact for the quadratic h^2 of a uniform strip
   // except beside each held head, where the canal-to-cell difference stands for the
   // gradient half a cell from the face: a flow error ~ n dx / 2 there, which moves heads by
-  // ~ n dx^2 / (2 K h) ~ 2.5e-5 m (second order; test_dupuit.cpp). Tolerance twice that.
+  // ~ n dx^2 / (2 K h) ~ 2.5e-5 m (second order; test_simulation_dupuit.cpp). Tolerance twice that.
   CHECK(worst < 5e-5);
   // All recharge leaves through the fixed heads.
   const WaterBudget& b = obs.budgets.back();

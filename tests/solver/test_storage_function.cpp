@@ -1,0 +1,36 @@
+// The storage function W(h) (solver/storage_function.hpp): values, exact changes and the
+// slope against a central finite difference.
+#include <catch2/catch.hpp>
+#include <cmath>
+
+#include "solver/storage_function.hpp"
+
+using namespace aquiledger;
+
+namespace {
+constexpr double fd_step = 1e-6;
+}
+
+TEST_CASE("storage function W(h): values, exact changes, slope", "[storage_function]") {
+  CellStorage s{Condition::switching, 2e-4, 0.15, 30.0, 10.0};
+  // Piecewise-linear definition (physics decisions): elastic S max(h - top, 0), drainage
+  // Sy (min(h, top) - bottom).
+  CHECK(stored_water(s, 35.0).elastic == Approx(2e-4 * 5.0));
+  CHECK(stored_water(s, 35.0).drainage == Approx(0.15 * 20.0));
+  CHECK(stored_water(s, 20.0).elastic == 0.0);
+  CHECK(stored_water(s, 20.0).drainage == Approx(0.15 * 10.0));
+  // A change across the top equals the difference of W at both ends (mass conservation).
+  const StoredWater d = stored_water_change(s, 33.0, 25.0);
+  CHECK(d.elastic == Approx(stored_water(s, 25.0).elastic - stored_water(s, 33.0).elastic));
+  CHECK(d.drainage == Approx(stored_water(s, 25.0).drainage - stored_water(s, 33.0).drainage));
+  for (Condition c : {Condition::confined, Condition::water_table, Condition::switching}) {
+    s.condition = c;
+    for (double h : {5.0, 12.0, 29.0, 31.0, 40.0}) {
+      const double fd =
+          (stored_water(s, h + fd_step).total() - stored_water(s, h - fd_step).total()) /
+          (2 * fd_step);
+      // Rounding of W ~ 3 over a difference 2e-6 leaves ~1e-9 absolute.
+      CHECK(stored_water_slope(s, h) == Approx(fd).margin(1e-8));
+    }
+  }
+}
