@@ -5,6 +5,7 @@
 
 #include <string>
 
+#include "io/model_file/period_value_reader.hpp"
 #include "io/model_file/reader_context.hpp"
 #include "solver/model.hpp"
 
@@ -31,6 +32,9 @@ void read_observations(ReaderContext& ctx, const toml::table& root, Model& model
 void read_output(ReaderContext& ctx, const toml::table& root, Model& model);
 void read_solver(ReaderContext& ctx, const toml::table& root, Model& model);
 
+/// An optional plain-table section ([output], [solver]); reports one that is not a table.
+const toml::table* optional_table(ReaderContext& ctx, const toml::table& root,
+                                  std::string_view name);
 /// The tables of an array-of-tables section ([[well]] ...); reports a plain [well] table.
 const toml::array* section_tables(ReaderContext& ctx, const toml::table& root,
                                   std::string_view name);
@@ -42,5 +46,20 @@ void warn_fixed_overlap(ReaderContext& ctx, const std::string& path, const Sourc
 /// Reports a name used twice in one kind of feature; names must be unique per section.
 void check_unique_name(ReaderContext& ctx, const toml::table& table, const std::string& path,
                        const std::string& name, std::vector<std::string>& seen);
+
+/// One table of a feature section with its key path and its (unique) name.
+struct FeatureHead {
+  const toml::table* table = nullptr;
+  std::string path;
+  std::string name;
+};
+/// Every table of a section with its key path and a unique name ("well 2" when unnamed);
+/// `keys` are the keys the section allows.
+std::vector<FeatureHead> feature_tables(ReaderContext& ctx, const toml::table& root,
+                                        std::string_view section,
+                                        std::initializer_list<std::string_view> keys);
+/// Value rules the feature sections share: any finite elevation; >= 0 in `unit`.
+extern const ValueRule any_elevation;
+ValueRule non_negative(const std::string& unit);
 
 }  // namespace aquiledger

@@ -9,36 +9,6 @@
 
 namespace aquiledger {
 
-const toml::array* section_tables(ReaderContext& ctx, const toml::table& root,
-                                  std::string_view name) {
-  const toml::node* node = root.get(name);
-  if (!node) return nullptr;
-  const toml::array* arr = node->as_array();
-  if (!arr || !arr->is_array_of_tables()) {
-    ctx.error(*node, "[[" + std::string(name) + "]]",
-              "expected an array of tables, written [[" + std::string(name) +
-                  "]] (double brackets), found " + type_name(*node));
-    return nullptr;
-  }
-  return arr;
-}
-
-std::string feature_path(std::string_view section, const toml::table& table, std::size_t index) {
-  const std::string head = "[[" + std::string(section) + "]]";
-  if (auto name = table["name"].value<std::string>()) return head + " \"" + *name + "\"";
-  return head + " #" + std::to_string(index + 1);
-}
-
-void check_unique_name(ReaderContext& ctx, const toml::table& table, const std::string& path,
-                       const std::string& name, std::vector<std::string>& seen) {
-  if (std::find(seen.begin(), seen.end(), name) != seen.end()) {
-    const toml::node* node = table.get("name");
-    ctx.error(node ? ctx.spot(*node) : ctx.spot(table), path + ".name",
-              "duplicate name \"" + name + "\"; names must be unique within a section");
-  }
-  seen.push_back(name);
-}
-
 void read_model_section(ReaderContext& ctx, const toml::table& root, Model& model) {
   model.title = ctx.model_file.stem().string();
   const toml::node* node = root.get("model");
