@@ -1,4 +1,4 @@
-// [aquifer] (geometry, conductivity, storage routes) and [initial].
+// [aquifer]: condition, geometry, conductivity, specific yield and one elastic storage route.
 #include <cmath>
 
 #include "io/model_file/array_source.hpp"
@@ -77,6 +77,129 @@ void read_compressibility(ReaderContext& ctx, const toml::node& node, Model& mod
   a.compressibility = c;
 }
 
+/// condition = "confined" | "water_table" | "switching" (required).
+std::optional<Condition> read_condition(ReaderContext& ctx, const toml::table& t,
+                                        const std::string& path) {
+  auto condition = read_choice(ctx, t, "condition", path, {"confined", "water_table", "switching"});
+  if (!t.contains("condition"))
+    ctx.error(t, path + ".condition",
+              "missing required key (expected confined | water_table | switching)");
+  if (!condition) return std::nullopt;
+  return *condition == "confined"      ? Condition::confined
+         : *condition == "water_table" ? Condition::water_table
+                                       : Condition::switching;
+}
+
+const char* condition_word(Condition c) {
+  return c == Condition::confined ? "confined"
+         : c == Condition::water_table ? "water_table"
+                                       : "switching";
+}
+
+/// The aquifer's geometry and conductivity as read, each checked.
+struct GeometryFields {
+  std::optional<CellField> top, bottom, k, ratio;
+};
+
+/// top (required unless water_table), bottom, k and k_ratio, with top above bottom.
+GeometryFields read_geometry(ReaderContext& ctx, const toml::table& t, const std::string& path,
+                             bool needs_top) {
+  GeometryFields g;
+  g.top = read_field_key(ctx, t, "top", path, needs_top);
+  g.bottom = read_field_key(ctx, t, "bottom", path, true);
+  g.k = read_field_key(ctx, t, "k", path, true);
+  g.ratio = read_field_key(ctx, t, "k_ratio", path, false);
+  if (g.k)
+    check_field(
+        ctx, *g.k, path + ".k", [](double v) { return v > 0.0; },
+        "> 0 " + ctx.velocity_unit() + " (hydraulic conductivity)");
+  if (g.ratio)
+    check_field(
+        ctx, *g.ratio, path + ".k_ratio", [](double v) { return v > 0.0; }, "> 0 (Ky / Kx)");
+  if (g.bottom)
+    check_field(
+        ctx, *g.bottom, path + ".bottom", [](double v) { return std::isfinite(v); },
+        "an elevation in " + ctx.length_unit);
+  if (g.top && g.bottom) {
+    CellField gap = *g.top;
+    for (std::size_t c = 0; c < gap.values.size(); ++c)
+      gap.values[c] = g.top->values[c] - g.bottom->values[c];
+    check_field(
+        ctx, gap, path + ".top", [](double v) { return v > 0.0; },
+        "top above bottom (top - bottom > 0 " + ctx.length_unit +
+            "; the value shown is top - bottom)");
+  }
+  return g;
+}
+
+/// specific_yield: required unless confined (ignored with a warning there).
+std::optional<CellField> read_specific_yield(ReaderContext& ctx, const toml::table& t,
+                                             const std::string& path, bool known, bool needs_sy) {
+  auto sy = read_field_key(ctx, t, "specific_yield", path, needs_sy);
+  if (sy && known && !needs_sy)
+    ctx.warning(sy->at, path + ".specific_yield",
+                "ignored: a confined aquifer has no specific yield");
+  else if (sy)
+    check_field(
+        ctx, *sy, path + ".specific_yield", [](double v) { return v > 0.0 && v < 1.0; },
+        "a fraction in (0, 1)");
+  return sy;
+}
+
+/// Storage under pressure by exactly one route: specific_storage, storativity (divided by
+/// top - bottom) or compressibility (which fills model.aquifer itself). Returns Ss per cell
+/// for the first two routes.
+std::optional<CellField> read_elastic_storage(ReaderContext& ctx, const toml::table& t,
+                                              const std::string& path,
+                                              std::optional<Condition> condition,
+                                              const GeometryFields& g, Model& model) {
+  const bool needs_storage = condition && *condition != Condition::water_table;
+  const char* routes[] = {"specific_storage", "storativity", "compressibility"};
+  std::vector<std::string> given;
+  for (const char* r : routes)
+    if (t.contains(r)) given.emplace_back(r);
+  if (given.size() > 1) {
+    ctx.error(*t.get(given[1]), path + "." + given[1],
+              "give one storage input, not several (found " + given[0] + " and " + given[1] +
+                  "; choose specific_storage, storativity or compressibility)");
+  } else if (given.empty() && needs_storage && any_transient(model)) {
+    ctx.error(t, path + ".specific_storage",
+              std::string("missing storage input for a transient ") + condition_word(*condition) +
+                  " model: give specific_storage (1/" + ctx.length_unit +
+                  "), storativity (-) or compressibility (1/Pa)");
+  }
+  if (given.size() != 1) return std::nullopt;
+  if (condition == Condition::water_table)
+    ctx.warning(ctx.spot(*t.get(given[0])), path + "." + given[0],
+                "ignored: water_table cells store water by specific yield only");
+
+  std::optional<CellField> ss;
+  if (given[0] == "specific_storage") {
+    ss = read_field_key(ctx, t, "specific_storage", path, true);
+    if (ss)
+      check_field(
+          ctx, *ss, path + ".specific_storage", [](double v) { return v >= 0.0; },
+          ">= 0 1/" + ctx.length_unit);
+  } else if (given[0] == "storativity") {
+    auto s = read_field_key(ctx, t, "storativity", path, true);
+    if (s && check_field(
+                 ctx, *s, path + ".storativity", [](double v) { return v >= 0.0; },
+                 ">= 0 (dimensionless)")) {
+      if (!g.top) {
+        ctx.error(s->at, path + ".storativity",
+                  "storativity needs [aquifer].top (Ss = S / (top - bottom))");
+      } else if (g.bottom) {
+        ss = *s;
+        for (std::size_t c = 0; c < ss->values.size(); ++c)
+          ss->values[c] = s->values[c] / (g.top->values[c] - g.bottom->values[c]);
+      }
+    }
+  } else {
+    read_compressibility(ctx, *t.get("compressibility"), model);
+  }
+  return ss;
+}
+
 }  // namespace
 
 void read_aquifer(ReaderContext& ctx, const toml::table& root, Model& model) {
@@ -94,150 +217,32 @@ void read_aquifer(ReaderContext& ctx, const toml::table& root, Model& model) {
              {"top", "bottom", "k", "k_ratio", "condition", "specific_yield", "specific_storage",
               "storativity", "compressibility"});
   Aquifer& a = model.aquifer;
-  auto condition = read_choice(ctx, t, "condition", path, {"confined", "water_table", "switching"});
-  if (!t.contains("condition"))
-    ctx.error(t, path + ".condition",
-              "missing required key (expected confined | water_table | switching)");
-  if (condition)
-    a.condition = *condition == "confined"      ? Condition::confined
-                  : *condition == "water_table" ? Condition::water_table
-                                                : Condition::switching;
+  const std::optional<Condition> condition = read_condition(ctx, t, path);
+  if (condition) a.condition = *condition;
   const bool known = condition.has_value();
-  const bool needs_top = known && a.condition != Condition::water_table;
-  auto top = read_field_key(ctx, t, "top", path, needs_top);
-  auto bottom = read_field_key(ctx, t, "bottom", path, true);
-  auto k = read_field_key(ctx, t, "k", path, true);
-  auto ratio = read_field_key(ctx, t, "k_ratio", path, false);
-  const std::string K = ctx.velocity_unit();
-  if (k)
-    check_field(
-        ctx, *k, path + ".k", [](double v) { return v > 0.0; },
-        "> 0 " + K + " (hydraulic conductivity)");
-  if (ratio)
-    check_field(
-        ctx, *ratio, path + ".k_ratio", [](double v) { return v > 0.0; }, "> 0 (Ky / Kx)");
-  if (bottom)
-    check_field(
-        ctx, *bottom, path + ".bottom", [](double v) { return std::isfinite(v); },
-        "an elevation in " + ctx.length_unit);
-  if (top && bottom) {
-    CellField gap = *top;
-    for (std::size_t c = 0; c < gap.values.size(); ++c)
-      gap.values[c] = top->values[c] - bottom->values[c];
-    check_field(
-        ctx, gap, path + ".top", [](double v) { return v > 0.0; },
-        "top above bottom (top - bottom > 0 " + ctx.length_unit +
-            "; the value shown is top - bottom)");
-  }
-
-  // Specific yield: needed unless confined.
+  GeometryFields g = read_geometry(ctx, t, path, known && a.condition != Condition::water_table);
   const bool needs_sy = known && a.condition != Condition::confined;
-  auto sy = read_field_key(ctx, t, "specific_yield", path, needs_sy);
-  if (sy && known && !needs_sy)
-    ctx.warning(sy->at, path + ".specific_yield",
-                "ignored: a confined aquifer has no specific yield");
-  else if (sy)
-    check_field(
-        ctx, *sy, path + ".specific_yield", [](double v) { return v > 0.0 && v < 1.0; },
-        "a fraction in (0, 1)");
+  std::optional<CellField> sy = read_specific_yield(ctx, t, path, known, needs_sy);
+  std::optional<CellField> ss = read_elastic_storage(ctx, t, path, condition, g, model);
+  if (ctx.diagnostics.has_errors() || !ctx.grid || !g.k || !g.bottom) return;
 
-  // Storage under pressure: exactly one route.
-  const char* routes[] = {"specific_storage", "storativity", "compressibility"};
-  std::vector<std::string> given;
-  for (const char* r : routes)
-    if (t.contains(r)) given.emplace_back(r);
-  if (given.size() > 1) {
-    ctx.error(*t.get(given[1]), path + "." + given[1],
-              "give one storage input, not several (found " + given[0] + " and " + given[1] +
-                  "; choose specific_storage, storativity or compressibility)");
-  } else if (given.empty() && needs_top && any_transient(model)) {
-    ctx.error(t, path + ".specific_storage",
-              "missing storage input for a transient " + *condition +
-                  " model: give specific_storage (1/" + ctx.length_unit +
-                  "), storativity (-) or compressibility (1/Pa)");
-  }
-  if (given.size() == 1 && known && a.condition == Condition::water_table)
-    ctx.warning(ctx.spot(*t.get(given[0])), path + "." + given[0],
-                "ignored: water_table cells store water by specific yield only");
-
-  std::optional<CellField> ss;
-  if (given.size() == 1 && given[0] == "specific_storage") {
-    ss = read_field_key(ctx, t, "specific_storage", path, true);
-    if (ss)
-      check_field(
-          ctx, *ss, path + ".specific_storage", [](double v) { return v >= 0.0; },
-          ">= 0 1/" + ctx.length_unit);
-  } else if (given.size() == 1 && given[0] == "storativity") {
-    auto s = read_field_key(ctx, t, "storativity", path, true);
-    if (s && check_field(
-                 ctx, *s, path + ".storativity", [](double v) { return v >= 0.0; },
-                 ">= 0 (dimensionless)")) {
-      if (!top) {
-        ctx.error(s->at, path + ".storativity",
-                  "storativity needs [aquifer].top (Ss = S / (top - bottom))");
-      } else if (bottom) {
-        ss = *s;
-        for (std::size_t c = 0; c < ss->values.size(); ++c)
-          ss->values[c] = s->values[c] / (top->values[c] - bottom->values[c]);
-      }
-    }
-  } else if (given.size() == 1 && given[0] == "compressibility") {
-    read_compressibility(ctx, *t.get("compressibility"), model);
-  }
-  if (ctx.diagnostics.has_errors() || !ctx.grid || !k || !bottom) return;
-
-  const std::size_t n = k->values.size();
-  a.kx = k->values;
-  a.ky = k->values;
-  for (const auto* f : {&k, &sy, &ss})
+  // Everything checked: the per-cell arrays of the model.
+  const std::size_t n = g.k->values.size();
+  a.kx = g.k->values;
+  a.ky = g.k->values;
+  for (const auto* f : {&g.k, &sy, &ss})
     if (*f && !(*f)->zone.empty())
-      model.zone_maps.push_back({f == &k    ? "k"
+      model.zone_maps.push_back({f == &g.k  ? "k"
                                  : f == &sy ? "specific_yield"
                                             : "specific_storage",
                                  (*f)->zone});
-  if (ratio)
-    for (std::size_t c = 0; c < n; ++c) a.ky[c] *= ratio->values[c];
-  a.bottom = std::move(bottom->values);
-  a.top = top ? std::move(top->values) : std::vector<double>(n, std::nan(""));
+  if (g.ratio)
+    for (std::size_t c = 0; c < n; ++c) a.ky[c] *= g.ratio->values[c];
+  a.bottom = std::move(g.bottom->values);
+  a.top = g.top ? std::move(g.top->values) : std::vector<double>(n, std::nan(""));
   if (sy && needs_sy) a.specific_yield = std::move(sy->values);
   if (ss) a.specific_storage = std::move(ss->values);
   if (a.specific_storage.empty()) a.specific_storage.assign(n, 0.0);
-}
-
-void read_initial(ReaderContext& ctx, const toml::table& root, Model& model) {
-  const std::string path = "[initial]";
-  const toml::node* node = root.get("initial");
-  if (!node || !node->as_table()) {
-    if (node)
-      ctx.error(*node, path, "expected a table, found " + type_name(*node));
-    else
-      ctx.error(ctx.file_spot(), path,
-                "missing required section (head = field value, or steady = true)");
-    return;
-  }
-  const toml::table& t = *node->as_table();
-  check_keys(ctx, t, path, {"head", "steady"});
-  const bool steady = read_bool(ctx, t, "steady", path).value_or(false);
-  if (steady && t.contains("head")) {
-    ctx.error(*t.get("head"), path + ".head", "give either head or steady = true, not both");
-    return;
-  }
-  model.initial.steady = steady;
-  if (steady) return;
-  auto head = read_field_key(ctx, t, "head", path, true);
-  if (!head) return;
-  if (!check_field(
-          ctx, *head, path + ".head", [](double v) { return std::isfinite(v); },
-          "a head in " + ctx.length_unit))
-    return;
-  // A head array written by a run whose active cells differ marks its inactive cells with
-  // the no-value number: such a cell active here has no head to start from.
-  if (!check_field(
-          ctx, *head, path + ".head", [](double v) { return v != head_array_no_value; },
-          "a head; " + show_number(head_array_no_value) +
-              " marks a cell that was inactive in the run that wrote the head array"))
-    return;
-  if (!ctx.diagnostics.has_errors()) model.initial.head = std::move(head->values);
 }
 
 }  // namespace aquiledger
