@@ -43,40 +43,22 @@ class SerialStepper {
   }
   NewtonResult try_step(std::size_t period, bool steady, double dt) {
     std::copy(head_.begin(), head_.end(), head_old_.begin());
-    // New stresses (another period) or a steady step: the last step says nothing.
-    const bool extrapolate =
-        extrapolate_newton_start && !steady && period == period_prev_ && dt_prev_ > 0.0;
-    start_newton(extrapolate ? dt_prev_ : 0.0, dt, head_, head_prev_, trial_);
+    history_.start(period, steady, dt, head_, trial_);
     system_.set_step(period, steady, dt, head_old_);
     return solve_newton(system_, linear_, settings_, trial_, work_);
   }
   void accept(const StepInfo& info) {
     std::swap(head_, trial_);
     observer_.step_done(info, head_old_, head_);
-    std::swap(head_prev_, head_old_);
-    dt_prev_ = info.dt;
-    period_prev_ = info.period;
+    history_.accepted(info.period, info.dt, head_old_);
   }
-  /// Continues a run whose last accepted step (of `period`) started from previous_head.
   void resume_after(std::size_t period, const std::vector<double>& previous_head, double previous_dt) {
-    if (!(previous_dt > 0.0) || previous_head.size() != head_prev_.size()) return;
-    head_prev_ = previous_head;
-    dt_prev_ = previous_dt;
-    period_prev_ = period;
+    history_.resume_after(period, previous_head, previous_dt);
   }
   void period_done(std::size_t period) { observer_.period_done(period); }
   void checkpoint(std::size_t period, int step_in_period, double time, const RunResult& so_far) {
-    StartState state;
-    state.period = period;
-    state.step_in_period = step_in_period;
-    state.time = time;
-    state.head = head_;
+    StartState state = history_.checkpoint_state(period, step_in_period, time, head_, so_far);
     state.linear_start.assign(work_.update.data(), work_.update.data() + work_.update.size());
-    if (step_in_period > 0 && period == period_prev_ && dt_prev_ > 0.0) {
-      state.previous_head = head_prev_;
-      state.previous_dt = dt_prev_;
-    }
-    state.so_far = so_far;
     options_.checkpoint(state);
   }
   RunResult finish(RunResult r) const {
@@ -97,10 +79,7 @@ class SerialStepper {
   NewtonWorkspace& work_;
   const RunResult& base_;
   std::vector<double> head_old_, trial_;
-  /// The last accepted step: its start heads, length and period (Newton's next start).
-  std::vector<double> head_prev_ = std::vector<double>(head_old_.size(), std::nan(""));
-  double dt_prev_ = 0.0;
-  std::size_t period_prev_ = static_cast<std::size_t>(-1);
+  StepHistory history_{head_old_.size()};
 };
 
 }  // namespace
@@ -121,6 +100,13 @@ void start_newton(double dt_prev, double dt, std::span<const double> head,
   const auto n = static_cast<std::ptrdiff_t>(head.size());
 #pragma omp parallel for schedule(static)
   for (std::ptrdiff_t i = 0; i < n; ++i) trial[i] = head[i] + ratio * (head[i] - head_prev[i]);
+}
+
+void given_initial_heads(const Model& model, const GridPart& part, CellWindow<double> head) {
+  const auto first = static_cast<std::size_t>(part.first_held());
+  for (std::size_t i = first; i < first + part.n_held(); ++i)
+    if (model.grid.is_active(CellIndex{static_cast<std::int32_t>(i)}))
+      head[i] = model.initial.head[i];
 }
 
 void apply_fixed_heads(const Model& model, std::size_t period, CellWindow<double> head,
@@ -183,15 +169,9 @@ RunResult run_simulation(const Model& model, SimulationObserver& observer,
                            options.memory_bytes);
   LinearSolver& linear = *choice.solver;
   const StartState* start = options.start ? &*options.start : nullptr;
-  RunResult result;
-  if (start) result = start->so_far;
-  result.converged = true;
-  result.failure.clear();
-  result.linear_solver = linear.name();
-  result.linear_reason = choice.reason;
+  RunResult result = starting_result(start, linear.name(), choice.reason);
   const RunResult base = result;  // counters before this call
-  const NewtonSettings settings{model.solver.head_tolerance, model.solver.flow_tolerance,
-                                model.solver.max_iterations};
+  const NewtonSettings settings = newton_settings(model);
   NewtonWorkspace work;
   const auto n = static_cast<std::size_t>(model.grid.n_cells());
   std::vector<double> head(n, std::nan(""));
@@ -220,9 +200,7 @@ RunResult run_simulation(const Model& model, SimulationObserver& observer,
       return fail(0, 0, 0.0,
                   "initial steady state: " + describe_failure(model, 0, 0, 0.0, 0.0, 0, nr));
   } else {
-    for (std::size_t i = 0; i < n; ++i)
-      if (model.grid.is_active(CellIndex{static_cast<std::int32_t>(i)}))
-        head[i] = model.initial.head[i];
+    given_initial_heads(model, GridPart::whole(model.grid), head);
   }
   if (!start) observer.initial_state(head);
 

@@ -57,6 +57,77 @@ inline RunResult& mark_failed(RunResult& r, std::size_t period, int step, double
   return r;
 }
 
+/// The given initial heads at the active cells the part holds (NaN elsewhere).
+void given_initial_heads(const Model& model, const GridPart& part, CellWindow<double> head);
+
+/// The counters and names a run starts from: a resumed run's counters so far, or zero.
+inline RunResult starting_result(const StartState* start, std::string linear_solver,
+                                 std::string linear_reason) {
+  RunResult result;
+  if (start) result = start->so_far;
+  result.converged = true;
+  result.failure.clear();
+  result.linear_solver = std::move(linear_solver);
+  result.linear_reason = std::move(linear_reason);
+  return result;
+}
+
+inline NewtonSettings newton_settings(const Model& model) {
+  return {model.solver.head_tolerance, model.solver.flow_tolerance, model.solver.max_iterations};
+}
+
+/// A stepper's memory of its last accepted step (its start heads, length and period): where
+/// Newton starts the next step, what a checkpoint keeps of it, and how a resumed run gets it
+/// back. The same for both engines; heads are the stepper's own (whole grid or held rows).
+class StepHistory {
+ public:
+  explicit StepHistory(std::size_t n_heads) : head_prev_(n_heads, std::nan("")) {}
+
+  /// Newton's start for a step of length dt from head: extrapolated along the last step when
+  /// it was a transient step of the same period (extrapolate_newton_start), head otherwise.
+  void start(std::size_t period, bool steady, double dt, std::span<const double> head,
+             std::span<double> trial) const {
+    const bool extrapolate =
+        extrapolate_newton_start && !steady && period == period_ && dt_ > 0.0;
+    start_newton(extrapolate ? dt_ : 0.0, dt, head, head_prev_, trial);
+  }
+  /// A step of `period` and length dt that started from head_old was accepted; head_old
+  /// receives the history's previous heads (swapped, not copied).
+  void accepted(std::size_t period, double dt, std::vector<double>& head_old) {
+    std::swap(head_prev_, head_old);
+    dt_ = dt;
+    period_ = period;
+  }
+  /// Continues a run whose last accepted step (of `period`) started from previous_head.
+  void resume_after(std::size_t period, const std::vector<double>& previous_head,
+                    double previous_dt) {
+    if (!(previous_dt > 0.0) || previous_head.size() != head_prev_.size()) return;
+    head_prev_ = previous_head;
+    dt_ = previous_dt;
+    period_ = period;
+  }
+  /// The state a checkpoint keeps at this point (the linear solver's start aside).
+  StartState checkpoint_state(std::size_t period, int step_in_period, double time,
+                              const std::vector<double>& head, const RunResult& so_far) const {
+    StartState state;
+    state.period = period;
+    state.step_in_period = step_in_period;
+    state.time = time;
+    state.head = head;
+    if (step_in_period > 0 && period == period_ && dt_ > 0.0) {
+      state.previous_head = head_prev_;
+      state.previous_dt = dt_;
+    }
+    state.so_far = so_far;
+    return state;
+  }
+
+ private:
+  std::vector<double> head_prev_;
+  double dt_ = 0.0;
+  std::size_t period_ = static_cast<std::size_t>(-1);
+};
+
 /// Runs the periods from first_period (after first_step planned steps of it) to the end.
 template <class Stepper>
 RunResult run_periods(const Model& model, Stepper& stepper, RunResult result,

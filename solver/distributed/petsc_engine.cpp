@@ -425,10 +425,7 @@ class DistributedStepper {
   /// Continues a run whose last accepted step (of `period`) started from previous_head.
   void resume_after(std::size_t period, const std::vector<double>& previous_head,
                     double previous_dt) {
-    if (!(previous_dt > 0.0) || previous_head.size() != head_prev_.size()) return;
-    head_prev_ = previous_head;
-    dt_prev_ = previous_dt;
-    period_prev_ = period;
+    history_.resume_after(period, previous_head, previous_dt);
   }
 
   void apply_fixed_heads(std::size_t period) {
@@ -440,10 +437,8 @@ class DistributedStepper {
     e_.period = period;
     e_.steady = steady;
     e_.dt = dt;
-    // The same extrapolated start as the serial engine (simulation.cpp), cell by cell.
-    const bool extrapolate =
-        extrapolate_newton_start && !steady && period == period_prev_ && dt_prev_ > 0.0;
-    start_newton(extrapolate ? dt_prev_ : 0.0, dt, head_, head_prev_, trial_);
+    // The same extrapolated start as the serial engine (StepHistory), cell by cell.
+    history_.start(period, steady, dt, head_, trial_);
     e_.set_iterate(trial_);
     DistributedProblem problem(e_);
     const NewtonResult nr = newton_iterate(problem, settings_);
@@ -454,24 +449,12 @@ class DistributedStepper {
   void accept(const StepInfo& info) {
     std::swap(head_, trial_);
     observer_.step_done(info, e_.head_old, head_);
-    head_prev_ = e_.head_old;
-    dt_prev_ = info.dt;
-    period_prev_ = info.period;
+    history_.accepted(info.period, info.dt, e_.head_old);  // e_.head_old is set anew next step
   }
   void period_done(std::size_t period) { observer_.period_done(period); }
   /// Collective: every rank hands its rows' state to options.checkpoint at the same step.
   void checkpoint(std::size_t period, int step_in_period, double time, const RunResult& so_far) {
-    StartState state;
-    state.period = period;
-    state.step_in_period = step_in_period;
-    state.time = time;
-    state.head = head_;
-    if (step_in_period > 0 && period == period_prev_ && dt_prev_ > 0.0) {
-      state.previous_head = head_prev_;
-      state.previous_dt = dt_prev_;
-    }
-    state.so_far = so_far;
-    options_.checkpoint(state);
+    options_.checkpoint(history_.checkpoint_state(period, step_in_period, time, head_, so_far));
     e_.forget_preconditioner();
   }
   RunResult finish(RunResult r) const {
@@ -489,9 +472,7 @@ class DistributedStepper {
   std::vector<double>& head_;
   const RunResult& base_;  ///< counters of the run before this call (a resumed run's)
   std::vector<double> trial_;
-  std::vector<double> head_prev_ = std::vector<double>(trial_.size(), std::nan(""));
-  double dt_prev_ = 0.0;
-  std::size_t period_prev_ = static_cast<std::size_t>(-1);
+  StepHistory history_{trial_.size()};
 };
 
 }  // namespace
@@ -507,15 +488,10 @@ RunResult DistributedEngine::run(SimulationObserver& observer, const SimulationO
   // One thread per rank unless asked: ranks already share the cores.
   omp_set_num_threads(model.solver.threads > 0 ? model.solver.threads : 1);
   const StartState* start = options.start ? &*options.start : nullptr;
-  RunResult result;
-  if (start) result = start->so_far;
-  result.converged = true;
-  result.failure.clear();
-  result.linear_solver = e.solver_name();
-  result.linear_reason = "distributed engine: Krylov solver with algebraic multigrid";
+  RunResult result = starting_result(start, e.solver_name(),
+                                     "distributed engine: Krylov solver with algebraic multigrid");
   const RunResult base = result;  // counters before this call
-  const NewtonSettings settings{model.solver.head_tolerance, model.solver.flow_tolerance,
-                                model.solver.max_iterations};
+  const NewtonSettings settings = newton_settings(model);
   std::vector<double> head(e.part.n_held(), std::nan(""));
   const CellWindow<double> window(head, e.part.first_held());
   DistributedStepper stepper(e, settings, observer, options, head, base);
@@ -548,10 +524,7 @@ RunResult DistributedEngine::run(SimulationObserver& observer, const SimulationO
     e.update_ghosts();
     e.get_iterate(head);
   } else {
-    const auto first = static_cast<std::size_t>(e.part.first_held());
-    for (std::size_t k = 0; k < head.size(); ++k)
-      if (model.grid.is_active(CellIndex{static_cast<std::int32_t>(first + k)}))
-        head[k] = model.initial.head[first + k];
+    given_initial_heads(model, e.part, window);
   }
   if (!start) observer.initial_state(head);
   return run_periods(model, stepper, result, first_period, first_step,
