@@ -6,6 +6,7 @@
 //                   [--threads N] [--linear auto|direct|pcg|bicgstab] [--json FILE]
 //                   [--face-thickness mean|upstream]
 // Each case runs in its own child process (own peak memory); --steps is per period.
+#include <fmt/format.h>
 #include <sys/resource.h>
 
 #include <algorithm>
@@ -16,8 +17,6 @@
 #include <numeric>
 #include <string>
 #include <vector>
-
-#include <fmt/format.h>
 
 #include "benchmarks/basin_generator.hpp"
 #include "benchmarks/bench_support.hpp"
@@ -42,14 +41,16 @@ class TimingObserver final : public SimulationObserver {
  public:
   explicit TimingObserver(const Model& model) : model_(model) {}
   void initial_state(std::span<const double>) override { last_ = Clock::now(); }
-  void step_done(const StepInfo& info, std::span<const double>, std::span<const double> head) override {
+  void step_done(const StepInfo& info, std::span<const double>,
+                 std::span<const double> head) override {
     const auto now = Clock::now();
     step_seconds.push_back(std::chrono::duration<double>(now - last_).count());
     newton.push_back(info.newton_iterations);
     if (model_.aquifer.condition == Condition::switching) {
       std::size_t below = 0;
       for (std::size_t i = 0; i < head.size(); ++i) below += head[i] < model_.aquifer.top[i];
-      max_unconfined = std::max(max_unconfined, static_cast<double>(below) / static_cast<double>(head.size()));
+      max_unconfined =
+          std::max(max_unconfined, static_cast<double>(below) / static_cast<double>(head.size()));
     }
     last_ = Clock::now();  // the counting above is not part of the step
   }
@@ -89,7 +90,8 @@ CaseResult run_case(const bench::BasinSpec& spec, const CaseOptions& opt) {
   if (!obs.step_seconds.empty()) out.first_step_seconds = obs.step_seconds.front();
   out.median_step_seconds = bench::median(obs.step_seconds);
   out.median_newton = bench::median(obs.newton);
-  out.max_newton = obs.newton.empty() ? 0.0 : *std::max_element(obs.newton.begin(), obs.newton.end());
+  out.max_newton =
+      obs.newton.empty() ? 0.0 : *std::max_element(obs.newton.begin(), obs.newton.end());
   out.linear_iterations = static_cast<double>(r.linear_iterations);
   out.factorizations = static_cast<double>(r.factorizations);
   out.reuses = static_cast<double>(r.factorization_reuses);
@@ -112,7 +114,8 @@ double log_log_slope(const std::vector<double>& x, const std::vector<double>& y)
   const double mx = std::accumulate(lx.begin(), lx.end(), 0.0) / lx.size();
   const double my = std::accumulate(ly.begin(), ly.end(), 0.0) / ly.size();
   double sxy = 0, sxx = 0;
-  for (std::size_t k = 0; k < lx.size(); ++k) sxy += (lx[k] - mx) * (ly[k] - my), sxx += (lx[k] - mx) * (lx[k] - mx);
+  for (std::size_t k = 0; k < lx.size(); ++k)
+    sxy += (lx[k] - mx) * (ly[k] - my), sxx += (lx[k] - mx) * (lx[k] - mx);
   return sxy / sxx;
 }
 
@@ -140,25 +143,42 @@ int main(int argc, char** argv) {
         sizes.push_back(std::stod(value.substr(pos, end - pos)));
         pos = end == std::string::npos ? value.size() : end + 1;
       }
-    } else if (key == "--steps") steps = std::stoi(value);
-    else if (key == "--variant") variant = value;
-    else if (key == "--json") json_path = value;
-    else if (key == "--threads") options.threads = std::stoi(value);
-    else if (key == "--linear") options.linear = parse_linear(value);
+    } else if (key == "--steps")
+      steps = std::stoi(value);
+    else if (key == "--variant")
+      variant = value;
+    else if (key == "--json")
+      json_path = value;
+    else if (key == "--threads")
+      options.threads = std::stoi(value);
+    else if (key == "--linear")
+      options.linear = parse_linear(value);
     else if (key == "--face-thickness")
       options.face_thickness = value == "upstream" ? FaceThickness::upstream : FaceThickness::mean;
-    else { std::fprintf(stderr, "unknown option %s\n", key.c_str()); return 64; }
+    else {
+      std::fprintf(stderr, "unknown option %s\n", key.c_str());
+      return 64;
+    }
   }
-  if (argc % 2 == 0) { std::fprintf(stderr, "options come in pairs: --key value\n"); return 64; }
+  if (argc % 2 == 0) {
+    std::fprintf(stderr, "options come in pairs: --key value\n");
+    return 64;
+  }
 
-  struct Bandwidth { double bytes_per_s; };
-  const double bandwidth = bench::run_in_child([] { return Bandwidth{bench::triad_bandwidth()}; }).bytes_per_s;
-  fmt::print("streaming triad bandwidth: {:.2f} GB/s; {} steps per period, 2 periods\n\n", bandwidth / 1e9, steps);
-  fmt::print("{:<10} {:>8} {:>5} {:>9} {:>9} {:>9} {:>6} {:>6} {:>7} {:>9} {:>6} {:>6} {:>5}  {}\n", "variant",
-             "cells", "steps", "s/step", "1st step", "floor", "ratio", "Newton", "lin.it", "fact/reuse", "MiB",
-             "B/cell", "dewat", "linear solver");
-  std::string json = fmt::format("{{\n  \"triad_bandwidth_bytes_per_s\": {:.6g},\n  \"steps_per_period\": {},\n  \"cases\": [\n",
-                                 bandwidth, steps);
+  struct Bandwidth {
+    double bytes_per_s;
+  };
+  const double bandwidth =
+      bench::run_in_child([] { return Bandwidth{bench::triad_bandwidth()}; }).bytes_per_s;
+  fmt::print("streaming triad bandwidth: {:.2f} GB/s; {} steps per period, 2 periods\n\n",
+             bandwidth / 1e9, steps);
+  fmt::print("{:<10} {:>8} {:>5} {:>9} {:>9} {:>9} {:>6} {:>6} {:>7} {:>9} {:>6} {:>6} {:>5}  {}\n",
+             "variant", "cells", "steps", "s/step", "1st step", "floor", "ratio", "Newton",
+             "lin.it", "fact/reuse", "MiB", "B/cell", "dewat", "linear solver");
+  std::string json = fmt::format(
+      "{{\n  \"triad_bandwidth_bytes_per_s\": {:.6g},\n  \"steps_per_period\": {},\n  \"cases\": "
+      "[\n",
+      bandwidth, steps);
   bool first = true;
   int failures = 0;
   for (const std::string v : {"confined", "switching"}) {
@@ -172,31 +192,39 @@ int main(int argc, char** argv) {
       const CaseResult r = bench::run_in_child([&] { return run_case(spec, options); });
       const double floor = floor_bytes(r.cells) / bandwidth;
       const double bytes_per_cell = r.peak_rss_mib * 1048576.0 / std::max(1.0, r.cells);
-      fmt::print("{:<10} {:>8.0f} {:>5.0f} {:>9.4g} {:>9.4g} {:>9.3g} {:>6.1f} {:>6.1f} {:>7.0f} {:>4.0f}/{:<5.0f} {:>6.0f} "
-                 "{:>6.0f} {:>5.2f}  {}{}\n",
-                 v, r.cells, r.steps, r.median_step_seconds, r.first_step_seconds, floor,
-                 r.median_step_seconds / floor, r.median_newton, r.linear_iterations, r.factorizations, r.reuses,
-                 r.peak_rss_mib, bytes_per_cell, r.max_unconfined_fraction, r.solver,
-                 r.converged ? "" : "  (NOT CONVERGED)");
+      fmt::print(
+          "{:<10} {:>8.0f} {:>5.0f} {:>9.4g} {:>9.4g} {:>9.3g} {:>6.1f} {:>6.1f} {:>7.0f} "
+          "{:>4.0f}/{:<5.0f} {:>6.0f} "
+          "{:>6.0f} {:>5.2f}  {}{}\n",
+          v, r.cells, r.steps, r.median_step_seconds, r.first_step_seconds, floor,
+          r.median_step_seconds / floor, r.median_newton, r.linear_iterations, r.factorizations,
+          r.reuses, r.peak_rss_mib, bytes_per_cell, r.max_unconfined_fraction, r.solver,
+          r.converged ? "" : "  (NOT CONVERGED)");
       std::fflush(stdout);
       if (!r.converged) ++failures;
       json += fmt::format(
-          "{}    {{\"variant\": \"{}\", \"cells\": {:.0f}, \"steps\": {:.0f}, \"median_step_seconds\": {:.6g}, "
-          "\"first_step_seconds\": {:.6g}, \"floor_seconds\": {:.6g}, \"median_newton\": {:.3g}, \"max_newton\": {:.0f}, "
-          "\"linear_iterations\": {:.0f}, \"factorizations\": {:.0f}, \"factorization_reuses\": {:.0f}, "
+          "{}    {{\"variant\": \"{}\", \"cells\": {:.0f}, \"steps\": {:.0f}, "
+          "\"median_step_seconds\": {:.6g}, "
+          "\"first_step_seconds\": {:.6g}, \"floor_seconds\": {:.6g}, \"median_newton\": {:.3g}, "
+          "\"max_newton\": {:.0f}, "
+          "\"linear_iterations\": {:.0f}, \"factorizations\": {:.0f}, \"factorization_reuses\": "
+          "{:.0f}, "
           "\"cutbacks\": {:.0f}, \"peak_rss_mib\": {:.1f}, \"bytes_per_cell\": {:.0f}, "
           "\"max_unconfined_fraction\": {:.4f}, \"linear_solver\": \"{}\", \"converged\": {}}}",
-          first ? "" : ",\n", v, r.cells, r.steps, r.median_step_seconds, r.first_step_seconds, floor, r.median_newton,
-          r.max_newton, r.linear_iterations, r.factorizations, r.reuses, r.cutbacks, r.peak_rss_mib, bytes_per_cell,
-          r.max_unconfined_fraction, r.solver, r.converged ? "true" : "false");
+          first ? "" : ",\n", v, r.cells, r.steps, r.median_step_seconds, r.first_step_seconds,
+          floor, r.median_newton, r.max_newton, r.linear_iterations, r.factorizations, r.reuses,
+          r.cutbacks, r.peak_rss_mib, bytes_per_cell, r.max_unconfined_fraction, r.solver,
+          r.converged ? "true" : "false");
       first = false;
       cells.push_back(r.cells);
       seconds.push_back(r.median_step_seconds);
       rss.push_back(r.peak_rss_mib);
     }
     if (cells.size() >= 2)
-      fmt::print("{:<10} growth exponent (least squares, log-log) of time per step: {:.3f}; of peak memory: {:.3f}\n", v,
-                 log_log_slope(cells, seconds), log_log_slope(cells, rss));
+      fmt::print(
+          "{:<10} growth exponent (least squares, log-log) of time per step: {:.3f}; of peak "
+          "memory: {:.3f}\n",
+          v, log_log_slope(cells, seconds), log_log_slope(cells, rss));
   }
   json += "\n  ]\n}\n";
   if (!json_path.empty()) std::ofstream(json_path) << json;

@@ -13,7 +13,7 @@ namespace aquiledger::bench {
 struct BasinSpec {
   int n_rows = 100;
   int n_cols = 100;
-  bool switching = false;      ///< false: confined
+  bool switching = false;  ///< false: confined
   int steps_per_period = 30;
   /// Cells between wells of the regular well field (over the east three quarters): the well
   /// density, and so the drawdown pattern, is the same at every size.
@@ -27,7 +27,8 @@ inline Model make_basin(const BasinSpec& spec) {
   Model m;
   m.title = "benchmark basin";
   const double cell = 100.0;  // m
-  m.grid = RectilinearGrid(std::vector<double>(spec.n_cols, cell), std::vector<double>(spec.n_rows, cell), 0.0, 0.0);
+  m.grid = RectilinearGrid(std::vector<double>(spec.n_cols, cell),
+                           std::vector<double>(spec.n_rows, cell), 0.0, 0.0);
   const std::size_t n = static_cast<std::size_t>(m.grid.n_cells());
   Aquifer& a = m.aquifer;
   a.condition = spec.switching ? Condition::switching : Condition::confined;
@@ -38,8 +39,8 @@ inline Model make_basin(const BasinSpec& spec) {
   for (int r = 0; r < spec.n_rows; ++r)
     for (int c = 0; c < spec.n_cols; ++c) {
       const double x = m.grid.x_center(c) / lx, y = m.grid.y_center(r) / ly;
-      a.kx[m.grid.cell(r, c).value] =
-          10.0 * std::exp(0.8 * std::sin(2 * std::numbers::pi * 3 * x) * std::cos(2 * std::numbers::pi * 2 * y));
+      a.kx[m.grid.cell(r, c).value] = 10.0 * std::exp(0.8 * std::sin(2 * std::numbers::pi * 3 * x) *
+                                                      std::cos(2 * std::numbers::pi * 2 * y));
     }
   a.ky = a.kx;
   a.specific_storage.assign(n, 2.0e-6);
@@ -47,7 +48,8 @@ inline Model make_basin(const BasinSpec& spec) {
   m.initial.head.assign(n, spec.switching ? 40.5 : 60.0);
 
   for (int p = 0; p < 2; ++p)
-    m.periods.push_back({p == 0 ? "pumping" : "recovery", 365.0, spec.steps_per_period, 1.0, false});
+    m.periods.push_back(
+        {p == 0 ? "pumping" : "recovery", 365.0, spec.steps_per_period, 1.0, false});
 
   FixedHead west{"west edge", {}, PeriodValues(spec.switching ? 40.5 : 60.0)};
   for (int r = 0; r < spec.n_rows; ++r) west.cells.push_back(m.grid.cell(r, 0));

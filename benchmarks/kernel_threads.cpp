@@ -4,13 +4,12 @@
 // on a generated basin. Medians of repeats; each thread count runs in its own child.
 //
 //   kernel_threads [--cells 1e6] [--repeats 15] [--variant confined|switching]
+#include <fmt/format.h>
 #include <omp.h>
 
 #include <cmath>
 #include <string>
 #include <vector>
-
-#include <fmt/format.h>
 
 #include "benchmarks/basin_generator.hpp"
 #include "benchmarks/bench_support.hpp"
@@ -35,7 +34,8 @@ KernelTimes time_kernels(const bench::BasinSpec& spec, int threads, int repeats)
   FlowSystem system(model, layout);
   // A head field that is not uniform, part below the top in the switching variant.
   std::vector<double> head_old(model.initial.head), head(model.initial.head);
-  for (std::size_t i = 0; i < head.size(); ++i) head[i] -= 1.0 * std::sin(0.001 * static_cast<double>(i));
+  for (std::size_t i = 0; i < head.size(); ++i)
+    head[i] -= 1.0 * std::sin(0.001 * static_cast<double>(i));
   system.set_step(0, false, 12.0, head_old);
   std::vector<double> ta, tr, tb;
   KernelTimes out;
@@ -65,17 +65,24 @@ int main(int argc, char** argv) {
   std::string variant = "confined";
   for (int i = 1; i + 1 < argc; i += 2) {
     const std::string key = argv[i], value = argv[i + 1];
-    if (key == "--cells") cells = std::stod(value);
-    else if (key == "--repeats") repeats = std::stoi(value);
-    else if (key == "--variant") variant = value;
-    else { fmt::print(stderr, "unknown option {}\n", key); return 64; }
+    if (key == "--cells")
+      cells = std::stod(value);
+    else if (key == "--repeats")
+      repeats = std::stoi(value);
+    else if (key == "--variant")
+      variant = value;
+    else {
+      fmt::print(stderr, "unknown option {}\n", key);
+      return 64;
+    }
   }
   bench::BasinSpec spec;
   spec.n_rows = spec.n_cols = static_cast<int>(std::lround(std::sqrt(cells)));
   spec.switching = variant == "switching";
   const KernelTimes one = bench::run_in_child([&] { return time_kernels(spec, 1, repeats); });
   const KernelTimes two = bench::run_in_child([&] { return time_kernels(spec, 2, repeats); });
-  fmt::print("{} basin, {} cells, median of {} repeats\n", variant, spec.n_rows * spec.n_cols, repeats);
+  fmt::print("{} basin, {} cells, median of {} repeats\n", variant, spec.n_rows * spec.n_cols,
+             repeats);
   fmt::print("{:<28} {:>12} {:>12} {:>8}\n", "loop", "1 thread s", "2 threads s", "ratio");
   auto row = [](const char* name, double a, double b) {
     fmt::print("{:<28} {:>12.4g} {:>12.4g} {:>8.2f}\n", name, a, b, b > 0 ? a / b : 0.0);

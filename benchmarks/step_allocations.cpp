@@ -38,7 +38,8 @@ void trace(std::size_t n) {
   const int depth = backtrace(frames, 10);
   char head[64];
   const int len = std::snprintf(head, sizeof head, "allocation of %zu bytes:\n", n);
-  if (write(2, head, static_cast<std::size_t>(len)) < 0) {}
+  if (write(2, head, static_cast<std::size_t>(len)) < 0) {
+  }
   backtrace_symbols_fd(frames + 1, depth - 1, 2);
   in_trace = false;
 }
@@ -156,14 +157,26 @@ int main(int argc, char** argv) {
   bool trace_allocations = false;
   for (int i = 1; i + 1 < argc; i += 2) {
     const std::string key = argv[i], value = argv[i + 1];
-    if (key == "--cells") cells = std::stod(value);
-    else if (key == "--steps") steps = std::stoi(value);
-    else if (key == "--variant") variant = value;
-    else if (key == "--trace") trace_allocations = value == "1";
-    else { std::fprintf(stderr, "unknown option %s\n", key.c_str()); return 64; }
+    if (key == "--cells")
+      cells = std::stod(value);
+    else if (key == "--steps")
+      steps = std::stoi(value);
+    else if (key == "--variant")
+      variant = value;
+    else if (key == "--trace")
+      trace_allocations = value == "1";
+    else {
+      std::fprintf(stderr, "unknown option %s\n", key.c_str());
+      return 64;
+    }
   }
-  if (argc % 2 == 0) { std::fprintf(stderr, "options come in pairs: --key value\n"); return 64; }
-  fmt::print("heap allocations per step (every library included), {} steps per period, 2 periods\n\n", steps);
+  if (argc % 2 == 0) {
+    std::fprintf(stderr, "options come in pairs: --key value\n");
+    return 64;
+  }
+  fmt::print(
+      "heap allocations per step (every library included), {} steps per period, 2 periods\n\n",
+      steps);
   fmt::print("{:<10} {:>8} {:>5} {:>9} {:>9} {:>9} {:>12} {:>6}  {}\n", "variant", "cells", "steps",
              "1st step", "median", "largest", "median bytes", "Newton", "linear solver");
   int failures = 0;

@@ -8,7 +8,8 @@ namespace aquiledger {
 RectilinearGrid::RectilinearGrid(std::vector<double> dx, std::vector<double> dy, double origin_x,
                                  double origin_y, std::vector<std::uint8_t> active)
     : dx_(std::move(dx)), dy_(std::move(dy)), active_(std::move(active)) {
-  if (dx_.empty() || dy_.empty()) throw std::invalid_argument("grid needs at least one row and column");
+  if (dx_.empty() || dy_.empty())
+    throw std::invalid_argument("grid needs at least one row and column");
   for (double w : dx_)
     if (!(w > 0.0)) throw std::invalid_argument("column widths must be positive");
   for (double h : dy_)
@@ -27,7 +28,8 @@ RectilinearGrid::RectilinearGrid(std::vector<double> dx, std::vector<double> dy,
   y_edges_[0] = origin_y + total_y;
   for (std::size_t i = 0; i < dy_.size(); ++i) y_edges_[i + 1] = y_edges_[i] - dy_[i];
   y_edges_.back() = origin_y;
-  n_active_ = static_cast<int>(std::count_if(active_.begin(), active_.end(), [](auto a) { return a != 0; }));
+  n_active_ = static_cast<int>(
+      std::count_if(active_.begin(), active_.end(), [](auto a) { return a != 0; }));
 }
 
 std::optional<CellIndex> RectilinearGrid::locate(double x, double y) const {

@@ -17,8 +17,8 @@ class RectilinearGrid {
   RectilinearGrid() = default;
   /// dx: column widths west to east (L); dy: row heights north to south (L);
   /// origin: south-west corner (L); active: n_rows * n_cols flags in raster order (empty = all).
-  RectilinearGrid(std::vector<double> dx, std::vector<double> dy, double origin_x,
-                  double origin_y, std::vector<std::uint8_t> active = {});
+  RectilinearGrid(std::vector<double> dx, std::vector<double> dy, double origin_x, double origin_y,
+                  std::vector<std::uint8_t> active = {});
 
   int n_rows() const { return static_cast<int>(dy_.size()); }
   int n_cols() const { return static_cast<int>(dx_.size()); }

@@ -82,7 +82,8 @@ void Recorder::step_done(const StepInfo& info, std::span<const double> head_old,
 
 void run_or_throw(const Model& model, Recorder& recorder) {
   const RunResult result = run_simulation(model, recorder);
-  if (!result.converged) throw std::runtime_error("benchmark run did not converge: " + result.failure);
+  if (!result.converged)
+    throw std::runtime_error("benchmark run did not converge: " + result.failure);
 }
 
 std::size_t step_nearest(const Recorder& r, double t) {

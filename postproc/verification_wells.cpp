@@ -67,8 +67,8 @@ VerificationCurve profile(const Model& m, const Recorder& r, std::size_t s, int 
 }
 
 /// Relative drawdown errors at radii 10..1000 m at the steps nearest 1, 5 and 10 d. Error
-/// estimate (test_simulation_theis.cpp): spatial O((g - 1)^2) ~ 1 % relative on the smooth part of the
-/// cone with growth g = 1.1, backward Euler with dt / t ~ 0.07 late in the period ~ 1 %:
+/// estimate (test_simulation_theis.cpp): spatial O((g - 1)^2) ~ 1 % relative on the smooth part of
+/// the cone with growth g = 1.1, backward Euler with dt / t ~ 0.07 late in the period ~ 1 %:
 /// tolerance 3 %. The well cell (2 m) and the far tail where s is tiny are left out.
 void check_radial(const Model& m, const Recorder& r, int dir,
                   const std::function<double(double, double, double)>& exact, WorstPoint& worst) {

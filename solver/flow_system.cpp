@@ -152,7 +152,8 @@ void FlowSystem::assemble(std::span<const double> head) {
   // Fixed heads enter the budget as the net flow of each fixed cell to its neighbours (the
   // same function as the budget's and the distributed engine's).
   double abs_sum = abs_sum_;
-  for (CellIndex c : fixed_cells_) abs_sum += std::abs(fixed_cell_net_flow(model_, layout_, c, head));
+  for (CellIndex c : fixed_cells_)
+    abs_sum += std::abs(fixed_cell_net_flow(model_, layout_, c, head));
   throughflow_ = 0.5 * abs_sum;
   rounding_floor_ = aquiledger::rounding_floor(abs_sum, face_sum_, quantum_sum_);
 }

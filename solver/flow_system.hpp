@@ -31,7 +31,9 @@ class FlowSystem {
   const SparseMatrix& matrix() const { return matrix_; }
   const Eigen::VectorXd& residual() const { return residual_; }
   /// The matrix's diagonal entry of unknown u.
-  double diagonal(int u) const { return matrix_.valuePtr()[diagonal_[static_cast<std::size_t>(u)]]; }
+  double diagonal(int u) const {
+    return matrix_.valuePtr()[diagonal_[static_cast<std::size_t>(u)]];
+  }
   /// L3/T: half the sum of the absolute values of every budget term (the step's (in+out)/2).
   double throughflow() const { return throughflow_; }
   /// L3/T: the imbalance rounding alone can leave, from the sizes of all terms including the
@@ -47,7 +49,7 @@ class FlowSystem {
 
  private:
   static constexpr int max_neighbours = 4;
-  struct Neighbour {  // 16 bytes: the double first, so no padding
+  struct Neighbour {      // 16 bytes: the double first, so no padding
     double factor = 0.0;  ///< see Face::factor
     CellIndex cell;
     int value = -1;  ///< position of the (row, neighbour) entry in the matrix values; -1 if fixed
@@ -61,9 +63,9 @@ class FlowSystem {
   std::vector<Neighbour> neighbours_;  ///< max_neighbours per unknown, unused slots have no cell
   std::vector<int> diagonal_;          ///< position of each diagonal entry in the matrix values
   std::vector<CellStorage> storage_;   ///< per unknown
-  std::vector<double> stress_q_, stress_dq_;  ///< per grid cell
+  std::vector<double> stress_q_, stress_dq_;     ///< per grid cell
   std::vector<std::uint8_t> parallel_recharge_;  ///< per recharge: cells distinct
-  std::vector<ValueSlope> thickness_;  ///< L and -, per grid cell at the assembled heads
+  std::vector<ValueSlope> thickness_;            ///< L and -, per grid cell at the assembled heads
   double abs_sum_ = 0.0, face_sum_ = 0.0, quantum_sum_ = 0.0;  ///< L3/T, sums of the cell loop
   /// The loop over unknowns: residual, matrix values, budget sums.
   template <bool Confined>

@@ -90,7 +90,8 @@ LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int
     case LinearChoice::pcg:
       if (symmetric) return {make_pcg_solver(), "pcg requested"};
       return {make_bicgstab_solver(),
-              "pcg requested but the system is not symmetric (head-dependent face thickness): bicgstab"};
+              "pcg requested but the system is not symmetric (head-dependent face thickness): "
+              "bicgstab"};
     case LinearChoice::bicgstab:
       return {make_bicgstab_solver(), "bicgstab requested"};
     case LinearChoice::automatic:
@@ -112,10 +113,12 @@ LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int
             "auto: symmetric (confined), " + size + ": pcg (a Cholesky factor " + fit + ")"};
   }
   if (n <= umfpack_auto_limit)
-    return {make_umfpack_solver(), "auto: non-symmetric (head-dependent face thickness), " + size + ": LU"};
-  return {make_picard_krylov_solver(),
-          "auto: non-symmetric (head-dependent face thickness), " + size +
-              " (over the direct limit): bicgstab with a Cholesky factor of the fixed-thickness matrix"};
+    return {make_umfpack_solver(),
+            "auto: non-symmetric (head-dependent face thickness), " + size + ": LU"};
+  return {make_picard_krylov_solver(), "auto: non-symmetric (head-dependent face thickness), " +
+                                           size +
+                                           " (over the direct limit): bicgstab with a Cholesky "
+                                           "factor of the fixed-thickness matrix"};
 }
 
 }  // namespace aquiledger

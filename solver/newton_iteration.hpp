@@ -96,8 +96,8 @@ NewtonResult newton_iterate(Problem& problem, const NewtonSettings& settings) {
   ForcingTerm forcing;
   while (result.iterations < settings.max_iterations) {
     if constexpr (requires { problem.set_linear_tolerance(1.0); }) {
-      problem.set_linear_tolerance(forcing.next(norm, problem.throughflow(),
-                                                settings.flow_tolerance, problem.n_unknowns()));
+      problem.set_linear_tolerance(
+          forcing.next(norm, problem.throughflow(), settings.flow_tolerance, problem.n_unknowns()));
     }
     int linear_iterations = 0;
     if (!problem.solve_linear(linear_iterations)) {

@@ -19,10 +19,11 @@ struct NewtonResult {
   bool converged = false;
   int iterations = 0;  ///< linear solves
   int linear_iterations = 0;
-  double max_head_change = 0.0;  ///< L, last update (estimated next one when the proving solve was skipped)
-  double max_imbalance = 0.0;    ///< -, largest |R_i| over the throughflow
-  double sum_imbalance = 0.0;    ///< -, |sum R_i| over the throughflow
-  CellIndex worst_cell;          ///< cell of the largest |R_i|
+  double max_head_change =
+      0.0;  ///< L, last update (estimated next one when the proving solve was skipped)
+  double max_imbalance = 0.0;  ///< -, largest |R_i| over the throughflow
+  double sum_imbalance = 0.0;  ///< -, |sum R_i| over the throughflow
+  CellIndex worst_cell;        ///< cell of the largest |R_i|
   bool linear_failure = false;
 };
 
@@ -45,8 +46,8 @@ ResidualNorms residual_norms(const Eigen::VectorXd& r);
 /// |sum R_i| <= 0.01 flow_tolerance * throughflow (the last closes the step's budget to
 /// 1e-6 percent with the default tolerance); or, after an exact solve of a Jacobian that the
 /// new heads leave unchanged, when the residual meets 1e-3 of the flow tolerance and the next
-/// update, estimated as max |R_i| / A_ii, 1e-3 of the head tolerance. head (per grid cell) holds the start on entry
-/// and the last iterate on return; the system must have its step set.
+/// update, estimated as max |R_i| / A_ii, 1e-3 of the head tolerance. head (per grid cell) holds
+/// the start on entry and the last iterate on return; the system must have its step set.
 NewtonResult solve_newton(FlowSystem& system, LinearSolver& linear, const NewtonSettings& settings,
                           std::span<double> head, NewtonWorkspace& work);
 

@@ -52,7 +52,8 @@ class SerialStepper {
     observer_.step_done(info, head_old_, head_);
     history_.accepted(info.period, info.dt, head_old_);
   }
-  void resume_after(std::size_t period, const std::vector<double>& previous_head, double previous_dt) {
+  void resume_after(std::size_t period, const std::vector<double>& previous_head,
+                    double previous_dt) {
     history_.resume_after(period, previous_head, previous_dt);
   }
   void period_done(std::size_t period) { observer_.period_done(period); }
@@ -164,9 +165,8 @@ RunResult run_simulation(const Model& model, SimulationObserver& observer,
   omp_set_num_threads(model.solver.threads > 0 ? model.solver.threads : omp_get_num_procs());
   const SystemLayout layout = make_system_layout(model);
   FlowSystem system(model, layout);
-  LinearSolverChoice choice =
-      choose_linear_solver(model.solver.linear, system.symmetric(), system.n_unknowns(),
-                           options.memory_bytes);
+  LinearSolverChoice choice = choose_linear_solver(model.solver.linear, system.symmetric(),
+                                                   system.n_unknowns(), options.memory_bytes);
   LinearSolver& linear = *choice.solver;
   const StartState* start = options.start ? &*options.start : nullptr;
   RunResult result = starting_result(start, linear.name(), choice.reason);
@@ -182,14 +182,16 @@ RunResult run_simulation(const Model& model, SimulationObserver& observer,
   std::size_t first_period = 0;
   int first_step = 0;
   if (start) {
-    if (start->head.size() != n) return fail(start->period, 0, start->time, "start state does not fit the grid");
+    if (start->head.size() != n)
+      return fail(start->period, 0, start->time, "start state does not fit the grid");
     head = start->head;
     if (start->linear_start.size() == static_cast<std::size_t>(system.n_unknowns()))
-      work.update = Eigen::Map<const Eigen::VectorXd>(start->linear_start.data(),
-                                                      static_cast<Eigen::Index>(start->linear_start.size()));
+      work.update = Eigen::Map<const Eigen::VectorXd>(
+          start->linear_start.data(), static_cast<Eigen::Index>(start->linear_start.size()));
     first_period = start->period;
     first_step = start->step_in_period;
-    if (first_step > 0) stepper.resume_after(first_period, start->previous_head, start->previous_dt);
+    if (first_step > 0)
+      stepper.resume_after(first_period, start->previous_head, start->previous_dt);
   } else if (model.initial.steady) {
     steady_guess(model, layout, head, GridPart::whole(model.grid));
     apply_fixed_heads(model, 0, head, GridPart::whole(model.grid));

@@ -12,14 +12,14 @@ namespace aquiledger {
 
 /// What the time controller reports about one accepted step.
 struct StepInfo {
-  std::size_t period = 0;   ///< 0-based
-  int step = 1;             ///< 1-based step of the period as planned
-  double time = 0.0;        ///< T, end of the step
-  double dt = 0.0;          ///< T, length of the (possibly cut) step
+  std::size_t period = 0;  ///< 0-based
+  int step = 1;            ///< 1-based step of the period as planned
+  double time = 0.0;       ///< T, end of the step
+  double dt = 0.0;         ///< T, length of the (possibly cut) step
   bool steady = false;
   int newton_iterations = 0;
   int linear_iterations = 0;
-  int cutbacks = 0;         ///< halvings needed for this step
+  int cutbacks = 0;              ///< halvings needed for this step
   double max_head_change = 0.0;  ///< L, last Newton update
   double max_imbalance = 0.0;    ///< -, largest cell imbalance over throughflow
 };
@@ -37,7 +37,7 @@ class SimulationObserver {
 
 struct RunResult {
   bool converged = true;
-  std::string failure;        ///< names period, step, time and worst cell when not converged
+  std::string failure;  ///< names period, step, time and worst cell when not converged
   std::size_t failed_period = 0;
   int failed_step = 0;
   double failed_time = 0.0;
@@ -47,8 +47,8 @@ struct RunResult {
   long newton_iterations = 0;
   long linear_iterations = 0;
   int cutbacks = 0;
-  long factorizations = 0;         ///< numeric factorisations (or preconditioner set-ups)
-  long factorization_reuses = 0;   ///< solves that reused the previous factorisation
+  long factorizations = 0;        ///< numeric factorisations (or preconditioner set-ups)
+  long factorization_reuses = 0;  ///< solves that reused the previous factorisation
 };
 
 /// Runs every period of the model, reporting each accepted step to the observer.
@@ -60,17 +60,17 @@ RunResult run_simulation(const Model& model, SimulationObserver& observer);
 /// exactly: the same step end times (recomputed from time 0 as the uninterrupted run does),
 /// the same heads, the same start of the iterative linear solver.
 struct StartState {
-  std::size_t period = 0;        ///< 0-based
-  int step_in_period = 0;        ///< planned steps of that period already done
-  double time = 0.0;             ///< T, end of the last step done
-  std::vector<double> head;      ///< L, per grid cell (NaN where inactive)
+  std::size_t period = 0;            ///< 0-based
+  int step_in_period = 0;            ///< planned steps of that period already done
+  double time = 0.0;                 ///< T, end of the last step done
+  std::vector<double> head;          ///< L, per grid cell (NaN where inactive)
   std::vector<double> linear_start;  ///< L per unknown: start of the next iterative solve
   /// L per grid cell: heads at the start of the last accepted step of this period, and its
   /// length (T); the next step's Newton start is extrapolated along it. Empty (and 0) at the
   /// start of a period.
   std::vector<double> previous_head;
   double previous_dt = 0.0;
-  RunResult so_far;              ///< counters of the run up to this point
+  RunResult so_far;  ///< counters of the run up to this point
 };
 
 struct SimulationOptions {

@@ -20,7 +20,8 @@ namespace {
 /// 1e5 cells). Looked up at run time: the reference BLAS has no such call.
 void set_blas_threads(int n) {
   using SetThreads = void (*)(int);
-  static const auto set = reinterpret_cast<SetThreads>(dlsym(RTLD_DEFAULT, "openblas_set_num_threads"));
+  static const auto set =
+      reinterpret_cast<SetThreads>(dlsym(RTLD_DEFAULT, "openblas_set_num_threads"));
   if (set) set(n);
 }
 
@@ -128,10 +129,22 @@ class HeldCholesky {
   using Factor = KeptCholesky;
   HeldCholesky() = default;
   void hold(const Factor* f) { factor_ = f; }
-  template <class M> HeldCholesky& analyzePattern(const M&) { return *this; }
-  template <class M> HeldCholesky& factorize(const M&) { return *this; }
-  template <class M> HeldCholesky& compute(const M&) { return *this; }
-  template <class V> Eigen::VectorXd solve(const V& b) const { return factor_->solve(Eigen::VectorXd(b)); }
+  template <class M>
+  HeldCholesky& analyzePattern(const M&) {
+    return *this;
+  }
+  template <class M>
+  HeldCholesky& factorize(const M&) {
+    return *this;
+  }
+  template <class M>
+  HeldCholesky& compute(const M&) {
+    return *this;
+  }
+  template <class V>
+  Eigen::VectorXd solve(const V& b) const {
+    return factor_->solve(Eigen::VectorXd(b));
+  }
   Eigen::ComputationInfo info() const { return factor_ ? factor_->info() : Eigen::Success; }
 
  private:
@@ -265,8 +278,7 @@ std::unique_ptr<LinearSolver> make_cholmod_solver(CholmodOrdering ordering) {
   const char* name = ordering == CholmodOrdering::metis ? "cholmod (METIS)"
                      : ordering == CholmodOrdering::amd ? "cholmod (AMD)"
                                                         : "cholmod";
-  return std::make_unique<DirectSolver<KeptCholesky>>(
-      name, ordering);
+  return std::make_unique<DirectSolver<KeptCholesky>>(name, ordering);
 }
 
 std::unique_ptr<LinearSolver> make_umfpack_solver() {

@@ -66,14 +66,16 @@ void visit_stress_flows(const Model& model, const SystemLayout& layout, std::siz
       ++k;
     }
   };
-  each_cell(std::span<const River>(model.rivers), [&](const River& river, std::size_t j, CellIndex c) {
-    return river_flow(head[at(c)], river.stage.at(period, j), river.bed_bottom.at(period, j),
-                      river.conductance.at(period, j), layout.smoothing_length[at(c)]);
-  });
-  each_cell(std::span<const Drain>(model.drains), [&](const Drain& drain, std::size_t j, CellIndex c) {
-    return drain_flow(head[at(c)], drain.elevation.at(period, j), drain.conductance.at(period, j),
-                      layout.smoothing_length[at(c)]);
-  });
+  each_cell(
+      std::span<const River>(model.rivers), [&](const River& river, std::size_t j, CellIndex c) {
+        return river_flow(head[at(c)], river.stage.at(period, j), river.bed_bottom.at(period, j),
+                          river.conductance.at(period, j), layout.smoothing_length[at(c)]);
+      });
+  each_cell(std::span<const Drain>(model.drains),
+            [&](const Drain& drain, std::size_t j, CellIndex c) {
+              return drain_flow(head[at(c)], drain.elevation.at(period, j),
+                                drain.conductance.at(period, j), layout.smoothing_length[at(c)]);
+            });
   each_cell(std::span<const ExternalHead>(model.external_heads),
             [&](const ExternalHead& external, std::size_t j, CellIndex c) {
               return external_head_flow(head[at(c)], external.head.at(period, j),

@@ -15,7 +15,16 @@
 
 namespace aquiledger {
 
-enum class FeatureKind { well, fixed_head, recharge, river, drain, external_head, evapotranspiration, leakage };
+enum class FeatureKind {
+  well,
+  fixed_head,
+  recharge,
+  river,
+  drain,
+  external_head,
+  evapotranspiration,
+  leakage
+};
 
 /// "well", "fixed_head", ... as written in budget_features.csv.
 const char* feature_kind_label(FeatureKind kind);

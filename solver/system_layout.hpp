@@ -11,10 +11,10 @@ namespace aquiledger {
 /// Numbers derived once from a model before the time loop: which cells are unknowns, cell
 /// areas, and the per-cell lengths of the smoothing intervals.
 struct SystemLayout {
-  std::vector<std::uint8_t> fixed;        ///< per grid cell: 1 when held by a fixed_head
+  std::vector<std::uint8_t> fixed;            ///< per grid cell: 1 when held by a fixed_head
   std::vector<std::int32_t> unknown_of_cell;  ///< per grid cell: equation number, -1 if none
   std::vector<CellIndex> cell_of_unknown;     ///< per equation: its grid cell
-  std::vector<double> area;               ///< L2 per grid cell
+  std::vector<double> area;                   ///< L2 per grid cell
   /// L per grid cell: full saturated thickness top - bottom (NaN when there is no top).
   std::vector<double> full_thickness;
   /// L per grid cell: width of the smoothing of saturated thickness near the base and top.
@@ -40,6 +40,7 @@ struct UnknownRange {
 UnknownRange owned_unknowns(const SystemLayout& layout, const GridPart& part);
 
 /// Saturated thickness of a cell (L) and its derivative with respect to head.
-ValueSlope saturated_thickness(const Model& model, const SystemLayout& layout, CellIndex c, double head);
+ValueSlope saturated_thickness(const Model& model, const SystemLayout& layout, CellIndex c,
+                               double head);
 
 }  // namespace aquiledger

@@ -87,8 +87,7 @@ class StepHistory {
   /// it was a transient step of the same period (extrapolate_newton_start), head otherwise.
   void start(std::size_t period, bool steady, double dt, std::span<const double> head,
              std::span<double> trial) const {
-    const bool extrapolate =
-        extrapolate_newton_start && !steady && period == period_ && dt_ > 0.0;
+    const bool extrapolate = extrapolate_newton_start && !steady && period == period_ && dt_ > 0.0;
     start_newton(extrapolate ? dt_ : 0.0, dt, head, head_prev_, trial);
   }
   /// A step of `period` and length dt that started from head_old was accepted; head_old

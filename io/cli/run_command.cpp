@@ -105,8 +105,8 @@ CheckpointPlan read_checkpoint_plan(const RunOptions& options, const Model& mode
   } else {
     plan.resume_from = read_checkpoint(folder);
   }
-  if (auto why = checkpoint_mismatch(plan.resume_from->inputs, *plan.fingerprint,
-                                     options.model_file))
+  if (auto why =
+          checkpoint_mismatch(plan.resume_from->inputs, *plan.fingerprint, options.model_file))
     throw CheckpointError(
         fmt::format("cannot resume: {}; the checkpoint in '{}' belongs to another "
                     "model (run without --resume to start over)",
@@ -128,34 +128,33 @@ void print_run_header(const RunOptions& options, const Model& model,
              stdout);
   for (const auto& w : model.warnings) std::fprintf(stdout, "  warning: %s\n", w.c_str());
   if (resume_from)
-    std::fputs(fmt::format("  resumed at period {}, step {}, t = {:g} {}\n",
-                           resume_from->state.period + 1, resume_from->state.step_in_period,
-                           resume_from->state.time, model.time_unit)
-                   .c_str(),
-               stdout);
+    std::fputs(
+        fmt::format("  resumed at period {}, step {}, t = {:g} {}\n", resume_from->state.period + 1,
+                    resume_from->state.step_in_period, resume_from->state.time, model.time_unit)
+            .c_str(),
+        stdout);
   std::fflush(stdout);
 }
 
 /// A progress line on the terminal, at most four times a second.
 void show_progress(const Model& model, ResultRecorder& recorder) {
   const std::size_t n_periods = model.periods.size();
-  recorder.set_progress_callback([&model, n_periods, last = Clock::now()](
-                                     const StepInfo& info) mutable {
-    if (Clock::now() - last < std::chrono::milliseconds(250)) return;
-    last = Clock::now();
-    std::fprintf(stderr, "\r  period %zu/%zu  step %d/%d  t = %-12.6g %s  Newton %d   ",
-                 info.period + 1, n_periods, info.step, model.periods[info.period].steps,
-                 info.time, model.time_unit.c_str(), info.newton_iterations);
-    std::fflush(stderr);
-  });
+  recorder.set_progress_callback(
+      [&model, n_periods, last = Clock::now()](const StepInfo& info) mutable {
+        if (Clock::now() - last < std::chrono::milliseconds(250)) return;
+        last = Clock::now();
+        std::fprintf(stderr, "\r  period %zu/%zu  step %d/%d  t = %-12.6g %s  Newton %d   ",
+                     info.period + 1, n_periods, info.step, model.periods[info.period].steps,
+                     info.time, model.time_unit.c_str(), info.newton_iterations);
+        std::fflush(stderr);
+      });
 }
 
 /// Writes a checkpoint: one file (serial), or every rank's part and then, once all parts are
 /// on disk, rank 0's index (a killed run leaves the last complete set; the other slot's parts
 /// are the ones overwritten). Collective in a distributed run.
-void write_run_checkpoint(const std::filesystem::path& folder, bool distributed,
-                          RunEngine& engine, std::uint64_t& generation,
-                          const Checkpoint& checkpoint) {
+void write_run_checkpoint(const std::filesystem::path& folder, bool distributed, RunEngine& engine,
+                          std::uint64_t& generation, const Checkpoint& checkpoint) {
   if (!distributed) return write_checkpoint(folder, checkpoint);
   const CheckpointSet set{engine.n_ranks(), ++generation};
   auto agree = [&engine](const std::string& error) {
@@ -317,9 +316,9 @@ int run_run_command(const RunOptions& options) {
     if (options.checkpoint_every > 0) {
       sim.checkpoint_every = options.checkpoint_every;
       sim.checkpoint = [&](const StartState& state) {
-        write_run_checkpoint(folder, distributed, *engine, plan.generation,
-                             Checkpoint{*plan.fingerprint, model.solver.threads, state,
-                                        recorder->state()});
+        write_run_checkpoint(
+            folder, distributed, *engine, plan.generation,
+            Checkpoint{*plan.fingerprint, model.solver.threads, state, recorder->state()});
       };
     }
     run = engine->run(model, *recorder, sim);

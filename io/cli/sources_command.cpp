@@ -15,11 +15,11 @@
 #include <stdexcept>
 
 #include "aquiledger_version.hpp"
-#include "io/files/atomic_file.hpp"
 #include "io/cli/commands.hpp"
 #include "io/cli/model_diagnostics.hpp"
-#include "io/model_file/model_reader.hpp"
+#include "io/files/atomic_file.hpp"
 #include "io/files/output_lock.hpp"
+#include "io/model_file/model_reader.hpp"
 #include "io/reports/run_report.hpp"
 #include "io/results/water_sources_files.hpp"
 #include "postproc/water_sources.hpp"

@@ -22,7 +22,7 @@ class FormatError : public std::runtime_error {
 class BinaryWriter {
  public:
   template <class T>
-    requires std::is_arithmetic_v<T>
+  requires std::is_arithmetic_v<T>
   void put(T value) {
     char bytes[sizeof(T)];
     std::memcpy(bytes, &value, sizeof(T));
@@ -34,7 +34,7 @@ class BinaryWriter {
     data_.append(s);
   }
   template <class T>
-    requires std::is_arithmetic_v<T>
+  requires std::is_arithmetic_v<T>
   void put_vector(const std::vector<T>& v) {
     put_size(v.size());
     if (!v.empty()) data_.append(reinterpret_cast<const char*>(v.data()), v.size() * sizeof(T));
@@ -49,8 +49,7 @@ class BinaryReader {
  public:
   explicit BinaryReader(std::string_view data) : data_(data) {}
   template <class T>
-    requires std::is_arithmetic_v<T>
-  T get() {
+  requires std::is_arithmetic_v<T> T get() {
     need(sizeof(T));
     T value;
     std::memcpy(&value, data_.data() + pos_, sizeof(T));
@@ -72,8 +71,7 @@ class BinaryReader {
     return s;
   }
   template <class T>
-    requires std::is_arithmetic_v<T>
-  std::vector<T> get_vector() {
+  requires std::is_arithmetic_v<T> std::vector<T> get_vector() {
     const std::size_t n = get_size(sizeof(T));
     std::vector<T> v(n);
     if (n) std::memcpy(v.data(), data_.data() + pos_, n * sizeof(T));

@@ -96,6 +96,8 @@ std::string read_text_file(const std::filesystem::path& path) {
   return s.str();
 }
 
-CsvTable read_csv_file(const std::filesystem::path& path) { return parse_csv(read_text_file(path)); }
+CsvTable read_csv_file(const std::filesystem::path& path) {
+  return parse_csv(read_text_file(path));
+}
 
 }  // namespace aquiledger

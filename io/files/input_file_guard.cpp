@@ -25,8 +25,9 @@ std::optional<std::string> input_file_refusal(const std::filesystem::path& path,
   const auto status = std::filesystem::status(path, ec);
   if (ec || !std::filesystem::exists(status)) return std::nullopt;
   if (!std::filesystem::is_regular_file(status))
-    return fmt::format("'{}' is not a regular file (a folder, device or pipe cannot be read as input)",
-                       path.string());
+    return fmt::format(
+        "'{}' is not a regular file (a folder, device or pipe cannot be read as input)",
+        path.string());
   const std::uintmax_t size = std::filesystem::file_size(path, ec);
   if (ec) return std::nullopt;
   if (size > max_bytes)

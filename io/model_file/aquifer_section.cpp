@@ -91,7 +91,7 @@ std::optional<Condition> read_condition(ReaderContext& ctx, const toml::table& t
 }
 
 const char* condition_word(Condition c) {
-  return c == Condition::confined ? "confined"
+  return c == Condition::confined      ? "confined"
          : c == Condition::water_table ? "water_table"
                                        : "switching";
 }

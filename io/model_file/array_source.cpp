@@ -1,12 +1,12 @@
 #include "io/model_file/array_source.hpp"
 
-#include "io/files/input_file_guard.hpp"
-
 #include <algorithm>
 #include <cctype>
 #include <charconv>
 #include <cmath>
 #include <fstream>
+
+#include "io/files/input_file_guard.hpp"
 
 namespace aquiledger {
 

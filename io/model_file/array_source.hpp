@@ -1,7 +1,8 @@
 #pragma once
 // Array files as written by users: plain text (one grid row per line, the northern row
 // first, values split by white space or commas, '#' starts a comment) or ESRI ASCII
-// rasters (.asc). This layer only parses; io/model_file/field_value checks the shape against the grid.
+// rasters (.asc). This layer only parses; io/model_file/field_value checks the shape against the
+// grid.
 #include <cstdint>
 #include <filesystem>
 #include <optional>
@@ -42,7 +43,7 @@ struct ArraySource {
   std::vector<ArrayRow> rows;          ///< data rows; NODATA cells of a raster hold NaN
   std::optional<RasterHeader> raster;  ///< set for .asc files
   std::vector<ArrayProblem> problems;  ///< unreadable values, NaN, bad header
-  std::string refusal;                 ///< set when the file was not read (io/files/input_file_guard)
+  std::string refusal;  ///< set when the file was not read (io/files/input_file_guard)
   std::size_t n_values() const;
 };
 

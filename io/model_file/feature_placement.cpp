@@ -8,8 +8,8 @@
 #include <set>
 
 #include "io/model_file/field_value.hpp"
-#include "mesh/polyline_crossing.hpp"
 #include "io/model_file/toml_access.hpp"
+#include "mesh/polyline_crossing.hpp"
 
 namespace aquiledger {
 

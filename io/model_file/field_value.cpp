@@ -20,8 +20,10 @@ const ArraySource* load_cached(ReaderContext& ctx, const std::filesystem::path& 
   if (it == ctx.array_cache.end()) {
     // No array can need more values than the grid has cells.
     // (dx and dy files are read before the grid is known: at most 10 million values.)
-    const double n_values = ctx.shape ? static_cast<double>(ctx.shape->nrow) * ctx.shape->ncol : 1.0e7;
-    it = ctx.array_cache.emplace(file, load_array_source(file, max_array_file_bytes(n_values))).first;
+    const double n_values =
+        ctx.shape ? static_cast<double>(ctx.shape->nrow) * ctx.shape->ncol : 1.0e7;
+    it = ctx.array_cache.emplace(file, load_array_source(file, max_array_file_bytes(n_values)))
+             .first;
   }
   const ArraySource& src = it->second;
   if (!src.refusal.empty()) {

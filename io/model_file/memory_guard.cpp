@@ -40,10 +40,11 @@ std::optional<std::string> work_refusal(double n_cells, double n_steps) {
   const double work = n_cells * n_steps;
   if (work <= max_cell_steps) return std::nullopt;
   char text[320];
-  std::snprintf(text, sizeof text,
-                "%.0f cells over %.0f time steps make %.3g cell-steps, about %.0f days of computing at "
-                "5 microseconds per cell-step; at most %.0g cell-steps are accepted",
-                n_cells, n_steps, work, work * 5e-6 / 86400.0, max_cell_steps);
+  std::snprintf(
+      text, sizeof text,
+      "%.0f cells over %.0f time steps make %.3g cell-steps, about %.0f days of computing at "
+      "5 microseconds per cell-step; at most %.0g cell-steps are accepted",
+      n_cells, n_steps, work, work * 5e-6 / 86400.0, max_cell_steps);
   return std::string(text);
 }
 
@@ -51,11 +52,12 @@ std::optional<std::string> memory_refusal(double n_cells, double available_bytes
   const double needed = n_cells * bytes_per_cell_estimate;
   if (needed <= available_bytes) return std::nullopt;
   char text[256];
-  std::snprintf(text, sizeof text,
-                "a grid of %.0f cells needs about %.1f GiB (about 1 KiB per cell), but only %.1f GiB "
-                "of memory is usable here (the least of the physical memory, the control-group "
-                "limit and AQUILEDGER_MEMORY_LIMIT_MB)",
-                n_cells, needed / 1073741824.0, available_bytes / 1073741824.0);
+  std::snprintf(
+      text, sizeof text,
+      "a grid of %.0f cells needs about %.1f GiB (about 1 KiB per cell), but only %.1f GiB "
+      "of memory is usable here (the least of the physical memory, the control-group "
+      "limit and AQUILEDGER_MEMORY_LIMIT_MB)",
+      n_cells, needed / 1073741824.0, available_bytes / 1073741824.0);
   return std::string(text);
 }
 

@@ -13,10 +13,11 @@ namespace {
 /// The modules a static chart needs (Debian ships Vega as separate UMD modules and no
 /// single bundle). vega-functions asks for "vega-selections", shipped as vega-selection.
 constexpr const char* vega_modules[] = {
-    "vega-util", "vega-canvas", "vega-time", "vega-format", "vega-loader", "vega-dataflow",
-    "vega-scale", "vega-scenegraph", "vega-expression", "vega-selection", "vega-statistics",
-    "vega-event-selector", "vega-functions", "vega-parser", "vega-runtime", "vega-view",
-    "vega-transforms", "vega-encode", "vega-view-transforms"};
+    "vega-util",       "vega-canvas",    "vega-time",           "vega-format",
+    "vega-loader",     "vega-dataflow",  "vega-scale",          "vega-scenegraph",
+    "vega-expression", "vega-selection", "vega-statistics",     "vega-event-selector",
+    "vega-functions",  "vega-parser",    "vega-runtime",        "vega-view",
+    "vega-transforms", "vega-encode",    "vega-view-transforms"};
 
 std::string read_text(const std::filesystem::path& path) {
   std::ifstream in(path, std::ios::binary);
@@ -49,11 +50,20 @@ std::string html_escape(const std::string& text) {
   std::string out;
   for (char c : text) {
     switch (c) {
-      case '&': out += "&amp;"; break;
-      case '<': out += "&lt;"; break;
-      case '>': out += "&gt;"; break;
-      case '"': out += "&quot;"; break;
-      default: out += c;
+      case '&':
+        out += "&amp;";
+        break;
+      case '<':
+        out += "&lt;";
+        break;
+      case '>':
+        out += "&gt;";
+        break;
+      case '"':
+        out += "&quot;";
+        break;
+      default:
+        out += c;
     }
   }
   return out;
@@ -63,7 +73,8 @@ std::string load_vega_library(const std::filesystem::path& folder) {
   std::string js =
       "(function(){var defs={},cache={};\n"
       "function req(n){if(n==='vega-selections')n='vega-selection';"
-      "if(cache[n])return cache[n].exports;if(!defs[n])throw new Error('Vega module '+n+' missing');"
+      "if(cache[n])return cache[n].exports;if(!defs[n])throw new Error('Vega module '+n+' "
+      "missing');"
       "var m={exports:{}};cache[n]=m;defs[n].call(window,m.exports,m,req);return m.exports;}\n";
   for (const char* name : vega_modules) {
     std::string code = read_text(folder / (std::string(name) + ".min.js"));
@@ -75,7 +86,8 @@ std::string load_vega_library(const std::filesystem::path& folder) {
   }
   js +=
       "var df=req('vega-dataflow');"
-      "Object.assign(df.transforms,req('vega-transforms'),req('vega-view-transforms'),req('vega-encode'));"
+      "Object.assign(df.transforms,req('vega-transforms'),req('vega-view-transforms'),req('vega-"
+      "encode'));"
       "window.vega=Object.assign({},req('vega-util'),req('vega-scale'),req('vega-parser'),"
       "req('vega-view'),{transforms:df.transforms});})();\n";
   return js;
@@ -100,7 +112,8 @@ void HtmlReport::add_table(const std::vector<std::string>& header,
     body_ += "<tr>";
     for (std::size_t i = 0; i < row.size(); ++i) {
       std::string cls;
-      if (static_cast<int>(i) == fail_column) cls = row[i] == "pass" ? " class=\"pass\"" : " class=\"fail\"";
+      if (static_cast<int>(i) == fail_column)
+        cls = row[i] == "pass" ? " class=\"pass\"" : " class=\"fail\"";
       body_ += "<td" + cls + ">" + html_escape(row[i]) + "</td>";
     }
     body_ += "</tr>\n";
@@ -110,8 +123,9 @@ void HtmlReport::add_table(const std::vector<std::string>& header,
 
 void HtmlReport::add_chart(const std::string& caption, const std::string& vega_spec) {
   const std::size_t n = specs_.size();
-  body_ += "<figure><figcaption>" + html_escape(caption) + "</figcaption><div class=\"chart\" id=\"chart-" +
-           std::to_string(n) + "\"></div></figure>\n";
+  body_ += "<figure><figcaption>" + html_escape(caption) +
+           "</figcaption><div class=\"chart\" id=\"chart-" + std::to_string(n) +
+           "\"></div></figure>\n";
   specs_.push_back(vega_spec);
 }
 
@@ -127,8 +141,10 @@ std::string HtmlReport::render(const std::string& vega_library) const {
   std::string page = "<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\">\n<title>" +
                      html_escape(title_) + "</title>\n<style>" + page_style + "</style>\n";
   page +=
-      "<script>window.reportErrors=[];window.onerror=function(m){window.reportErrors.push(String(m));"
-      "var e=document.getElementById('render-status');if(e){e.textContent='error: '+m;}};</script>\n";
+      "<script>window.reportErrors=[];window.onerror=function(m){window.reportErrors.push(String(m)"
+      ");"
+      "var e=document.getElementById('render-status');if(e){e.textContent='error: "
+      "'+m;}};</script>\n";
   page += "<script>\n" + vega_library + "</script>\n</head><body>\n<h1>" + html_escape(title_) +
           "</h1>\n<p id=\"render-status\">rendering</p>\n" + body_;
   page += "<script>\n(function(){var specs=" + specs + ";\n";
@@ -136,7 +152,8 @@ std::string HtmlReport::render(const std::string& vega_library) const {
       "var status=document.getElementById('render-status');\n"
       "Promise.all(specs.map(function(s,i){return new vega.View(vega.parse(s),"
       "{renderer:'svg',container:'#chart-'+i,hover:true}).runAsync();}))"
-      ".then(function(){status.textContent=window.reportErrors.length?'error: '+window.reportErrors[0]:'ok';})"
+      ".then(function(){status.textContent=window.reportErrors.length?'error: "
+      "'+window.reportErrors[0]:'ok';})"
       ".catch(function(e){status.textContent='error: '+e;});})();\n</script>\n</body></html>\n";
   return page;
 }

@@ -7,12 +7,12 @@
 #include <map>
 
 #include "io/files/csv_table.hpp"
-#include "io/reports/html_report.hpp"
-#include "io/model_file/model_reader.hpp"
 #include "io/files/output_error.hpp"
+#include "io/model_file/model_reader.hpp"
+#include "io/reports/html_report.hpp"
 #include "io/reports/vega_charts.hpp"
-#include "io/results/vtk_fields.hpp"
 #include "io/reports/water_sources_report.hpp"
+#include "io/results/vtk_fields.hpp"
 #include "postproc/observation_sampler.hpp"
 #include "postproc/water_budget.hpp"
 

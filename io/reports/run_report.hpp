@@ -14,6 +14,7 @@ inline constexpr const char* professional_caution =
     "local regulations that apply.";
 
 /// Per-period water budget table for the terminal (volumes in the model's units).
-std::string format_period_budget_table(const Model& model, const std::vector<BudgetPeriodRow>& rows);
+std::string format_period_budget_table(const Model& model,
+                                       const std::vector<BudgetPeriodRow>& rows);
 
 }  // namespace aquiledger

@@ -40,8 +40,9 @@ std::string line_chart_spec(const std::vector<ChartSeries>& series, const AxisOp
     for (std::size_t i = 0; i < n; ++i) {
       if (!std::isfinite(s.x[i]) || !std::isfinite(s.y[i])) continue;
       if ((x.log && s.x[i] <= 0.0) || (y.log && s.y[i] <= 0.0)) continue;
-      const std::string row = fmt::format(R"J({{"s":{},"x":{},"y":{},"i":{}}})J", vega_json_string(s.label),
-                                          vega_json_number(s.x[i]), vega_json_number(s.y[i]), i);
+      const std::string row =
+          fmt::format(R"J({{"s":{},"x":{},"y":{},"i":{}}})J", vega_json_string(s.label),
+                      vega_json_number(s.x[i]), vega_json_number(s.y[i]), i);
       if (target.size() > 1) target += ",";
       target += row;
       if (all.size() > 1) all += ",";
@@ -76,8 +77,8 @@ std::string stacked_bar_spec(const std::vector<BarValue>& values, const std::str
   for (const BarValue& v : values) {
     if (!std::isfinite(v.value)) continue;
     if (rows.size() > 1) rows += ",";
-    rows += fmt::format(R"J({{"c":{},"g":{},"v":{}}})J", vega_json_string(v.category), vega_json_string(v.segment),
-                        vega_json_number(v.value));
+    rows += fmt::format(R"J({{"c":{},"g":{},"v":{}}})J", vega_json_string(v.category),
+                        vega_json_string(v.segment), vega_json_number(v.value));
     if (std::find(seen.begin(), seen.end(), v.category) == seen.end()) {
       seen.push_back(v.category);
       if (categories.size() > 1) categories += ",";
@@ -98,9 +99,9 @@ std::string stacked_bar_spec(const std::vector<BarValue>& values, const std::str
       R"J("width":{{"scale":"x","band":1}},"y":{{"scale":"y","field":"y0"}},"y2":{{"scale":"y","field":"y1"}},)J"
       R"J("fill":{{"scale":"colour","field":"g"}},"tooltip":{{"signal":"datum.g + ': ' + format(datum.v, '.4~s')"}}}}}}}},)J"
       R"J({{"type":"rule","encode":{{"enter":{{"x":{{"value":0}},"x2":{{"signal":"width"}},"y":{{"scale":"y","value":0}},"stroke":{{"value":"#222"}}}}}}}}]}})J",
-      fmt::arg("w", width), fmt::arg("h", height), fmt::arg("rows", rows), fmt::arg("cats", categories),
-      fmt::arg("palette", palette), fmt::arg("xt", vega_json_string(x_title)),
-      fmt::arg("yt", vega_json_string(y_title)));
+      fmt::arg("w", width), fmt::arg("h", height), fmt::arg("rows", rows),
+      fmt::arg("cats", categories), fmt::arg("palette", palette),
+      fmt::arg("xt", vega_json_string(x_title)), fmt::arg("yt", vega_json_string(y_title)));
 }
 
 std::string heatmap_spec(const std::vector<double>& x_edges, const std::vector<double>& y_edges,
@@ -113,9 +114,10 @@ std::string heatmap_spec(const std::vector<double>& x_edges, const std::vector<d
       const double v = values[r * n_cols + c];
       if (!std::isfinite(v)) continue;
       if (rows.size() > 1) rows += ",";
-      rows += fmt::format(R"J({{"a":{},"b":{},"n":{},"s":{},"v":{}}})J", vega_json_number(x_edges[c]),
-                          vega_json_number(x_edges[c + 1]), vega_json_number(y_edges[r]),
-                          vega_json_number(y_edges[r + 1]), vega_json_number(v));
+      rows +=
+          fmt::format(R"J({{"a":{},"b":{},"n":{},"s":{},"v":{}}})J", vega_json_number(x_edges[c]),
+                      vega_json_number(x_edges[c + 1]), vega_json_number(y_edges[r]),
+                      vega_json_number(y_edges[r + 1]), vega_json_number(v));
     }
   rows += "]";
   const double span_x = x_edges.back() - x_edges.front();
@@ -133,9 +135,11 @@ std::string heatmap_spec(const std::vector<double>& x_edges, const std::vector<d
       R"J("x2":{{"scale":"x","field":"b"}},"y":{{"scale":"y","field":"n"}},"y2":{{"scale":"y","field":"s"}},)J"
       R"J("fill":{{"scale":"colour","field":"v"}},"tooltip":{{"signal":"format(datum.v, '.4~g')"}}}}}}}}]}})J",
       fmt::arg("w", width), fmt::arg("h", height), fmt::arg("rows", rows),
-      fmt::arg("x0", vega_json_number(x_edges.front())), fmt::arg("x1", vega_json_number(x_edges.back())),
-      fmt::arg("y0", vega_json_number(y_edges.back())), fmt::arg("y1", vega_json_number(y_edges.front())),
-      fmt::arg("scheme", scheme), fmt::arg("lu", length_unit), fmt::arg("vt", vega_json_string(value_title)));
+      fmt::arg("x0", vega_json_number(x_edges.front())),
+      fmt::arg("x1", vega_json_number(x_edges.back())),
+      fmt::arg("y0", vega_json_number(y_edges.back())),
+      fmt::arg("y1", vega_json_number(y_edges.front())), fmt::arg("scheme", scheme),
+      fmt::arg("lu", length_unit), fmt::arg("vt", vega_json_string(value_title)));
 }
 
 }  // namespace aquiledger

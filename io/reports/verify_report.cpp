@@ -5,8 +5,8 @@
 #include <system_error>
 
 #include "io/files/atomic_file.hpp"
-#include "io/reports/html_report.hpp"
 #include "io/files/output_error.hpp"
+#include "io/reports/html_report.hpp"
 #include "io/reports/vega_charts.hpp"
 
 namespace aquiledger {
@@ -27,14 +27,15 @@ std::string verification_table_header() {
 
 std::string verification_table_row(const VerificationResult& r) {
   const std::string unit = r.unit == "-" ? "" : " " + r.unit;
-  return fmt::format("{:<16} {:<34} {:<66} {:>11} {:>11} {:>9.4f} {:>6}  {:.1f} s\n", r.name, r.source,
-                     r.quantity, number(r.largest_error) + unit, number(r.tolerance) + unit,
-                     r.tolerance > 0 ? r.largest_error / r.tolerance : 0.0, r.passed ? "pass" : "FAIL",
-                     r.seconds);
+  return fmt::format(
+      "{:<16} {:<34} {:<66} {:>11} {:>11} {:>9.4f} {:>6}  {:.1f} s\n", r.name, r.source, r.quantity,
+      number(r.largest_error) + unit, number(r.tolerance) + unit,
+      r.tolerance > 0 ? r.largest_error / r.tolerance : 0.0, r.passed ? "pass" : "FAIL", r.seconds);
 }
 
 std::string verification_curve_csv(const VerificationCurve& c) {
-  std::string out = is_time_axis(c) ? "t,numerical,analytical,error\n" : "x,numerical,analytical,error\n";
+  std::string out =
+      is_time_axis(c) ? "t,numerical,analytical,error\n" : "x,numerical,analytical,error\n";
   for (std::size_t i = 0; i < c.x.size(); ++i)
     out += fmt::format("{},{},{},{}\n", c.x[i], c.numerical[i], c.analytical[i],
                        c.numerical[i] - c.analytical[i]);
@@ -48,13 +49,14 @@ void write_verification_results(const std::filesystem::path& folder,
   if (ec) throw OutputError("cannot create " + folder.string() + ": " + ec.message());
   check_output_folder_writable(folder);
 
-  std::string summary = "benchmark,source,quantity,unit,largest_error,tolerance,points,passed,seconds\n";
+  std::string summary =
+      "benchmark,source,quantity,unit,largest_error,tolerance,points,passed,seconds\n";
   HtmlReport page("aquiledger verification: numerical against analytical solutions");
   std::vector<std::vector<std::string>> rows;
   for (const VerificationResult& r : results) {
     summary += fmt::format("{},\"{}\",\"{}\",{},{},{},{},{},{:.3f}\n", r.name, r.source, r.quantity,
-                           r.unit, r.largest_error, r.tolerance, r.points, r.passed ? "true" : "false",
-                           r.seconds);
+                           r.unit, r.largest_error, r.tolerance, r.points,
+                           r.passed ? "true" : "false", r.seconds);
     rows.push_back({r.name, r.source, r.quantity, number(r.largest_error), number(r.tolerance),
                     r.unit, std::to_string(r.points), r.passed ? "pass" : "fail"});
   }

@@ -15,7 +15,8 @@ inline std::string_view folder_of(std::string_view text) {
   if (text.substr(0, 2) == "#@") {
     const std::string_view line = text.substr(2, text.find('\n') - 2);
     for (std::string_view f : seed_folders)
-      if (line == f || (line.size() == f.size() + 1 && line.back() == '\r' && line.substr(0, f.size()) == f))
+      if (line == f ||
+          (line.size() == f.size() + 1 && line.back() == '\r' && line.substr(0, f.size()) == f))
         return f;
   }
   return seed_folders[0];

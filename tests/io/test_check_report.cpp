@@ -4,8 +4,8 @@
 #include <fstream>
 #include <iterator>
 
-#include "io/reports/check_report.hpp"
 #include "io/model_file/model_reader.hpp"
+#include "io/reports/check_report.hpp"
 
 using namespace aquiledger;
 

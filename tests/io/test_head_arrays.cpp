@@ -1,5 +1,5 @@
-// Head arrays (io/results/head_arrays.hpp): written heads read back through `[initial] head = { file
-// = ... }` unchanged, as text array and as ESRI ASCII grid. The reference is the value
+// Head arrays (io/results/head_arrays.hpp): written heads read back through `[initial] head = {
+// file = ... }` unchanged, as text array and as ESRI ASCII grid. The reference is the value
 // written: numbers are the shortest text that reads back to the same double (Steele and
 // White, 1990; fmt's "{}"), so the read-back must be bit for bit.
 #include <catch2/catch.hpp>

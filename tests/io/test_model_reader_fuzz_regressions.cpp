@@ -4,9 +4,8 @@
 // invalid, so the reader must reject it with at least one error diagnostic, without
 // throwing; under the sanitizer build (AQUILEDGER_SANITIZE) the read must also be free of
 // undefined behaviour and memory errors, which is how the faults first showed.
-#include <catch2/catch.hpp>
-
 #include <algorithm>
+#include <catch2/catch.hpp>
 #include <filesystem>
 #include <fstream>
 #include <sstream>
@@ -24,8 +23,9 @@ std::string read_bytes(const std::filesystem::path& file) {
 }
 
 bool has_error(const aquiledger::ReadResult& result) {
-  return std::any_of(result.diagnostics.begin(), result.diagnostics.end(),
-                     [](const aquiledger::Diagnostic& d) { return d.severity == aquiledger::Severity::error; });
+  return std::any_of(
+      result.diagnostics.begin(), result.diagnostics.end(),
+      [](const aquiledger::Diagnostic& d) { return d.severity == aquiledger::Severity::error; });
 }
 
 }  // namespace

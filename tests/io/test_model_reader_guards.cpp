@@ -1,9 +1,10 @@
 // Input that would exhaust memory, time or the reader itself is refused before anything big
-// is allocated or read, with the estimated figure (io/model_file/memory_guard, io/files/input_file_guard).
-#include <catch2/catch.hpp>
+// is allocated or read, with the estimated figure (io/model_file/memory_guard,
+// io/files/input_file_guard).
 #include <sys/stat.h>
 #include <unistd.h>
 
+#include <catch2/catch.hpp>
 #include <cstdlib>
 #include <filesystem>
 #include <fstream>
@@ -54,7 +55,8 @@ struct TempFolder {
 TEST_CASE("a grid larger than memory is refused with the estimate", "[io][guards]") {
   // 40000 x 40000 = 1.6e9 cells at the guard's 1 KiB per cell = 1.6384e12 bytes = 1525.9 GiB
   // (arithmetic), more than any machine this runs on.
-  const ReadResult r = read_model_text(model_text(40000, 40000, "1.0", one_period), "/x/model.toml");
+  const ReadResult r =
+      read_model_text(model_text(40000, 40000, "1.0", one_period), "/x/model.toml");
   CHECK_FALSE(r.ok());
   CHECK(error_says(r, {"1600000000 cells", "1525.9 GiB"}));
 }

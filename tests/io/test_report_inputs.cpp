@@ -4,8 +4,8 @@
 #include <cmath>
 
 #include "io/files/csv_table.hpp"
-#include "io/reports/html_report.hpp"
 #include "io/files/output_error.hpp"
+#include "io/reports/html_report.hpp"
 #include "io/reports/results_report.hpp"
 #include "io/reports/vega_charts.hpp"
 
@@ -14,7 +14,8 @@ using namespace aquiledger;
 TEST_CASE("CSV reader follows RFC 4180 quoting", "[report]") {
   // RFC 4180 section 2: fields with commas, quotes or line breaks are quoted; a quote inside
   // is doubled; CRLF ends a record.
-  const CsvTable t = parse_csv("name,value\r\n\"a, b\",1.5\r\n\"say \"\"hi\"\"\",nan\r\n\"two\nlines\",-2e3\r\n");
+  const CsvTable t =
+      parse_csv("name,value\r\n\"a, b\",1.5\r\n\"say \"\"hi\"\"\",nan\r\n\"two\nlines\",-2e3\r\n");
   REQUIRE(t.header == std::vector<std::string>{"name", "value"});
   REQUIRE(t.rows.size() == 3);
   CHECK(t.texts("name") == std::vector<std::string>{"a, b", "say \"hi\"", "two\nlines"});
@@ -35,7 +36,8 @@ TEST_CASE("JSON strings are escaped and read back as RFC 8259 defines", "[report
   CHECK(vega_json_string("</script>") == "\"\\u003c/script>\"");
   CHECK(vega_json_number(NAN) == "null");
   CHECK(vega_json_number(0.1) == "0.1");  // shortest round-trip form
-  const std::string json = "{\n  \"model_file\": \"cases/a \\\"b\\\".toml\",\n  \"failure\": null\n}";
+  const std::string json =
+      "{\n  \"model_file\": \"cases/a \\\"b\\\".toml\",\n  \"failure\": null\n}";
   CHECK(json_text_value(json, "model_file") == "cases/a \"b\".toml");
   CHECK(json_text_value(json, "failure").empty());
   CHECK(json_text_value(json, "absent").empty());

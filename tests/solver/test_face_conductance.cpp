@@ -33,7 +33,8 @@ TEST_CASE("face conductance: harmonic mean and upstream derivatives", "[face_con
   }
 }
 
-TEST_CASE("blended face thickness: derivatives at wet, drying and dry states", "[face_conductance]") {
+TEST_CASE("blended face thickness: derivatives at wet, drying and dry states",
+          "[face_conductance]") {
   auto thickness = [](double h) { return smooth_ramp(h - 1.0, 0.05); };
   auto q = [&](double a, double b) {
     return blended_face_flow(0.7, a, thickness(a), b, thickness(b)).q;

@@ -8,7 +8,8 @@
 
 using namespace aquiledger;
 
-TEST_CASE("saturated thickness is C1 and exact outside the smoothing intervals", "[system_layout]") {
+TEST_CASE("saturated thickness is C1 and exact outside the smoothing intervals",
+          "[system_layout]") {
   test::AquiferSpec a;
   a.condition = Condition::switching;
   a.top = 10.0;
