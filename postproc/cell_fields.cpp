@@ -133,10 +133,10 @@ void update_cell_fields(const Model& model, const SystemLayout& layout, const Gr
     double elastic = 0.0, drainage = 0.0;  // L3/T released
     // Fixed cells and steady steps have no storage term.
     if (!steady && !layout.fixed[i]) {
-      const StoredWater change =
-          stored_water_change(cell_storage(model, c), head_old[i], head_new[i]);
-      elastic = -layout.area[i] * change.elastic / dt;
-      drainage = -layout.area[i] * change.drainage / dt;
+      const StorageRelease release = storage_release_rate(cell_storage(model, c), layout.area[i],
+                                                          head_old[i], head_new[i], dt);
+      elastic = release.elastic;
+      drainage = release.drainage;
     }
     const double share = split ? model.aquifer.skeleton_share[i] : 1.0;
     f.storage_rate[k] = elastic + drainage;

@@ -129,10 +129,8 @@ WaterBudget step_budget(const Model& model, const SystemLayout& layout, const Gr
     for (std::ptrdiff_t u = first; u < n; ++u) {
       const CellIndex c = layout.cell_of_unknown[static_cast<std::size_t>(u)];
       const std::size_t i = at(c);
-      const StoredWater change =
-          stored_water_change(cell_storage(model, c), head_old[i], head_new[i]);
-      const double elastic = -layout.area[i] * change.elastic / dt;
-      const double drainage = -layout.area[i] * change.drainage / dt;
+      const auto [elastic, drainage] = storage_release_rate(cell_storage(model, c), layout.area[i],
+                                                            head_old[i], head_new[i], dt);
       auto add = [](double& in, double& out, double q) { q > 0.0 ? in += q : out -= q; };
       if (split) {
         const double share = model.aquifer.skeleton_share[i];

@@ -56,6 +56,20 @@ inline StoredWater stored_water_change(const CellStorage& s, double h_old, doubl
   return {};
 }
 
+/// Rates (L3/T, positive = released into the aquifer's flow) at which a cell of plan area
+/// `area` (L2) gives water from storage over a step of length dt (T) from h_old to h_new,
+/// by mechanism: -area (W(h_new) - W(h_old)) / dt for the elastic and the drainage part.
+/// Used by the budget and the cell fields (the Newton row takes the total directly).
+struct StorageRelease {
+  double elastic = 0.0;   ///< L3/T
+  double drainage = 0.0;  ///< L3/T
+};
+inline StorageRelease storage_release_rate(const CellStorage& s, double area, double h_old,
+                                           double h_new, double dt) {
+  const StoredWater change = stored_water_change(s, h_old, h_new);
+  return {-area * change.elastic / dt, -area * change.drainage / dt};
+}
+
 /// dW/dh (-). At the kink h = top of a switching cell the confined (upper) slope is taken.
 inline double stored_water_slope(const CellStorage& s, double h) {
   switch (s.condition) {

@@ -34,3 +34,23 @@ TEST_CASE("storage function W(h): values, exact changes, slope", "[storage_funct
     }
   }
 }
+
+TEST_CASE("storage release rate: a falling head releases water by mechanism", "[storage_function]") {
+  // Definitions of storativity (volume released per unit area per unit decline of head under
+  // pressure; Jacob, 1940) and specific yield (volume drained per unit area per unit decline
+  // of the water table): a decline releases water, counted positive into the flow.
+  const CellStorage confined{Condition::confined, 1e-4, 0.0, 10.0, 0.0};
+  const StorageRelease c = storage_release_rate(confined, 100.0, 10.0, 9.0, 2.0);
+  CHECK(c.elastic == Approx(100.0 * 1e-4 * 1.0 / 2.0));  // 5e-3 L3/T
+  CHECK(c.drainage == 0.0);
+  // A switching cell falling from 0.5 above its top to 0.5 below: the elastic part releases
+  // S x 0.5, the drainage part Sy x 0.5, per unit area over dt = 1.
+  const CellStorage switching{Condition::switching, 1e-4, 0.2, 10.0, 0.0};
+  const StorageRelease s = storage_release_rate(switching, 1.0, 10.5, 9.5, 1.0);
+  CHECK(s.elastic == Approx(1e-4 * 0.5));
+  CHECK(s.drainage == Approx(0.2 * 0.5));
+  // A rise stores water: the same rates with the opposite sign.
+  const StorageRelease r = storage_release_rate(switching, 1.0, 9.5, 10.5, 1.0);
+  CHECK(r.elastic == Approx(-s.elastic));
+  CHECK(r.drainage == Approx(-s.drainage));
+}
