@@ -3,6 +3,7 @@
 
 #include "io/cli/commands.hpp"
 #include "io/files/output_error.hpp"
+#include "io/files/read_error.hpp"
 #include "io/reports/results_report.hpp"
 
 namespace aquiledger {
@@ -24,6 +25,9 @@ int run_report_command(const ReportOptions& options) {
   } catch (const ReportModelError& e) {
     std::fprintf(stderr, "error: %s\n", e.what());
     return exit_invalid_model;
+  } catch (const ReadError& e) {
+    std::fprintf(stderr, "error: %s\nNo report was written.\n", e.what());
+    return exit_output_failure;
   } catch (const OutputError& e) {
     std::fprintf(stderr, "error: %s\nNo report was written.\n", e.what());
     return exit_output_failure;

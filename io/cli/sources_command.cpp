@@ -19,6 +19,7 @@
 #include "io/cli/model_diagnostics.hpp"
 #include "io/files/atomic_file.hpp"
 #include "io/files/output_lock.hpp"
+#include "io/files/read_error.hpp"
 #include "io/model_file/model_reader.hpp"
 #include "io/reports/run_report.hpp"
 #include "io/results/water_sources_files.hpp"
@@ -104,6 +105,9 @@ int compare_folders(const SourcesOptions& o, const std::vector<std::string>& cho
     const std::filesystem::path folder = o.output_folder ? *o.output_folder : *o.with_wells_folder;
     const OutputFolderLock lock(folder);
     write_water_sources(folder, sources, context);
+  } catch (const ReadError& e) {
+    std::fprintf(stderr, "error: %s\n", e.what());
+    return exit_output_failure;
   } catch (const OutputError& e) {
     std::fprintf(stderr, "error: %s\n", e.what());
     return exit_output_failure;

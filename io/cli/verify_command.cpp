@@ -6,6 +6,7 @@
 
 #include "io/cli/commands.hpp"
 #include "io/files/output_error.hpp"
+#include "io/files/read_error.hpp"
 #include "io/reports/verify_report.hpp"
 #include "postproc/verification_suite.hpp"
 
@@ -34,6 +35,9 @@ int run_verify_command(const VerifyOptions& options) {
   for (const auto& r : results) failed += r.passed ? 0 : 1;
   try {
     write_verification_results(options.output_folder, results);
+  } catch (const ReadError& e) {  // the Vega library the page inlines
+    std::fprintf(stderr, "error: %s\n", e.what());
+    return exit_output_failure;
   } catch (const OutputError& e) {
     std::fprintf(stderr, "error: %s\n", e.what());
     return exit_output_failure;

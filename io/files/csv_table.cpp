@@ -7,6 +7,7 @@
 #include <sstream>
 
 #include "io/files/output_error.hpp"
+#include "io/files/read_error.hpp"
 
 namespace aquiledger {
 
@@ -90,7 +91,7 @@ CsvTable parse_csv(const std::string& text) {
 
 std::string read_text_file(const std::filesystem::path& path) {
   std::ifstream in(path, std::ios::binary);
-  if (!in) throw OutputError("cannot read " + path.string());
+  if (!in) throw ReadError("cannot read " + path.string());
   std::ostringstream s;
   s << in.rdbuf();
   return s.str();

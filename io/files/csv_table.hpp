@@ -21,10 +21,10 @@ struct CsvTable {
 /// Parses CSV text whose first line is the header.
 CsvTable parse_csv(const std::string& text);
 
-/// Reads and parses a file; throws OutputError naming the path when it cannot be read.
+/// Reads and parses a file; throws ReadError naming the path when it cannot be read.
 CsvTable read_csv_file(const std::filesystem::path& path);
 
-/// Whole file as text; throws OutputError naming the path.
+/// Whole file as text; throws ReadError naming the path.
 std::string read_text_file(const std::filesystem::path& path);
 
 }  // namespace aquiledger

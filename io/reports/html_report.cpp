@@ -5,6 +5,7 @@
 
 #include "io/files/atomic_file.hpp"
 #include "io/files/output_error.hpp"
+#include "io/files/read_error.hpp"
 
 namespace aquiledger {
 
@@ -22,9 +23,9 @@ constexpr const char* vega_modules[] = {
 std::string read_text(const std::filesystem::path& path) {
   std::ifstream in(path, std::ios::binary);
   if (!in)
-    throw OutputError("cannot read " + path.string() +
-                      ": the HTML report needs Vega from Debian's libjs-vega package "
-                      "(apt-get install libjs-vega)");
+    throw ReadError("cannot read " + path.string() +
+                    ": the HTML report needs Vega from Debian's libjs-vega package "
+                    "(apt-get install libjs-vega)");
   std::ostringstream s;
   s << in.rdbuf();
   return s.str();

@@ -12,7 +12,7 @@ namespace aquiledger {
 inline constexpr const char* vega_library_folder = "/usr/share/javascript/vega";
 
 /// The Vega modules bundled into one script that defines window.vega (View, parse). Throws
-/// OutputError naming the missing file and the package (libjs-vega) when it is absent.
+/// ReadError naming the missing file and the package (libjs-vega) when it is absent.
 std::string load_vega_library(const std::filesystem::path& folder = vega_library_folder);
 
 class HtmlReport {
@@ -30,7 +30,8 @@ class HtmlReport {
   int charts() const { return static_cast<int>(specs_.size()); }
   /// The whole page with the given Vega library inlined.
   std::string render(const std::string& vega_library) const;
-  /// Loads the library and writes the page atomically; throws OutputError on failure.
+  /// Loads the library (ReadError when it is missing) and writes the page atomically
+  /// (OutputError when it cannot be written).
   void write(const std::filesystem::path& path) const;
 
  private:

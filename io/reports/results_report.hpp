@@ -35,9 +35,9 @@ struct ResultsReportSummary {
   std::string note;  ///< why measured heads or maps are missing, if they are
 };
 
-/// Builds and writes the page; throws OutputError naming the file that could not be read
-/// or written, ReportModelError when the model for the measured heads cannot be read (an
-/// existing page is then left as it was).
+/// Builds and writes the page; throws ReadError naming a results file that could not be read,
+/// OutputError naming the page when it could not be written, ReportModelError when the model for
+/// the measured heads cannot be read (an existing page is then left as it was).
 ResultsReportSummary write_results_report(const ResultsReportOptions& options);
 
 /// The string value of a top-level key of a JSON object text ("" when absent or null).

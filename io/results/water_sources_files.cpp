@@ -10,6 +10,7 @@
 
 #include "io/files/atomic_file.hpp"
 #include "io/files/csv_table.hpp"
+#include "io/files/read_error.hpp"
 #include "io/files/text_encoding.hpp"
 
 namespace aquiledger {
@@ -44,7 +45,7 @@ class TableReader {
       for (const std::string& n : names)
         if (!found) found = table_.column(n);
       if (!found)
-        throw OutputError(
+        throw ReadError(
             fmt::format("{}, line 1: no column '{}' (is this a results folder of "
                         "results contract version 2?)",
                         path_.string(), names.front()));
@@ -55,7 +56,7 @@ class TableReader {
   const std::string& text(std::size_t row, std::size_t column) const {
     const auto& r = table_.rows[row];
     if (columns_[column] >= r.size())
-      throw OutputError(
+      throw ReadError(
           fmt::format("{}, line {}: the row is shorter than the header", path_.string(), row + 2));
     return r[columns_[column]];
   }
@@ -64,12 +65,12 @@ class TableReader {
     char* end = nullptr;
     const double v = std::strtod(t.c_str(), &end);
     if (t.empty() || *end != '\0' || !std::isfinite(v))
-      throw OutputError(fmt::format("{}, line {}, column '{}': '{}' is not a finite number",
-                                    path_.string(), row + 2, table_.header[columns_[column]], t));
+      throw ReadError(fmt::format("{}, line {}, column '{}': '{}' is not a finite number",
+                                  path_.string(), row + 2, table_.header[columns_[column]], t));
     return v;
   }
   [[noreturn]] void fail(std::size_t row, const std::string& what) const {
-    throw OutputError(fmt::format("{}, line {}: {}", path_.string(), row + 2, what));
+    throw ReadError(fmt::format("{}, line {}: {}", path_.string(), row + 2, what));
   }
 
  private:
@@ -189,8 +190,7 @@ FolderBudgets read_folder_budgets(const std::filesystem::path& folder, bool feat
       b.storage.push_back(*c);
     }
   }
-  if (b.volumes.empty())
-    throw OutputError((folder / "budget_periods.csv").string() + ": no periods");
+  if (b.volumes.empty()) throw ReadError((folder / "budget_periods.csv").string() + ": no periods");
   if (!features) return b;
 
   const TableReader f(
@@ -216,13 +216,13 @@ std::vector<PeriodPair> pair_folders(const FolderBudgets& with_wells, const Fold
                                      std::vector<SourceFeature>& features,
                                      std::vector<BudgetComponent>& storage) {
   if (with_wells.volumes.size() != without.volumes.size())
-    throw OutputError(fmt::format("the runs differ in their periods ({} and {})",
-                                  with_wells.volumes.size(), without.volumes.size()));
+    throw ReadError(fmt::format("the runs differ in their periods ({} and {})",
+                                with_wells.volumes.size(), without.volumes.size()));
   for (std::size_t p = 0; p < with_wells.volumes.size(); ++p)
     if (std::abs(with_wells.end[p] - without.end[p]) >
         1e-9 * std::max(1.0, std::abs(with_wells.end[p])))
-      throw OutputError(fmt::format("period {} ends at {} in one run and at {} in the other", p + 1,
-                                    with_wells.end[p], without.end[p]));
+      throw ReadError(fmt::format("period {} ends at {} in one run and at {} in the other", p + 1,
+                                  with_wells.end[p], without.end[p]));
   // The storage components either table lists, less those empty in every period of both
   // runs (a table may list all four whatever the model has).
   storage.clear();
@@ -270,7 +270,7 @@ std::vector<PeriodPair> pair_folders(const FolderBudgets& with_wells, const Fold
   for (const std::string& name : chosen_wells) {
     auto found = index.find({FeatureKind::well, name});
     if (found == index.end())
-      throw OutputError("no well named '" + name + "' in budget_features.csv of either run");
+      throw ReadError("no well named '" + name + "' in budget_features.csv of either run");
     features[found->second].chosen = true;
   }
   for (std::size_t p = 0; p < pairs.size(); ++p) {

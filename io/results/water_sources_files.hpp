@@ -47,14 +47,14 @@ struct FolderBudgets {
 /// Reads budget_periods.csv (version 2 long layout:
 /// period,period_name,start,end,component,into_aquifer,out_of_aquifer,unit) and, when
 /// features is set, budget_features.csv (feature,kind,period and in,out or
-/// into_aquifer,out_of_aquifer). Throws OutputError naming file, line and column.
+/// into_aquifer,out_of_aquifer). Throws ReadError naming file, line and column.
 FolderBudgets read_folder_budgets(const std::filesystem::path& folder, bool features);
 
 /// Lines both folders up for water_sources(): the features of either run (by kind and
 /// name; a feature missing from one run counts zero there), chosen = wells named in
 /// chosen_wells; without feature tables, one line per component and every well chosen.
 /// Storage components empty in every period of both runs get no line.
-/// Throws OutputError when the periods differ or a chosen name is not a well of either run.
+/// Throws ReadError when the periods differ or a chosen name is not a well of either run.
 std::vector<PeriodPair> pair_folders(const FolderBudgets& with_wells, const FolderBudgets& without,
                                      const std::vector<std::string>& chosen_wells,
                                      std::vector<SourceFeature>& features,

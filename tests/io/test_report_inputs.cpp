@@ -5,6 +5,7 @@
 
 #include "io/files/csv_table.hpp"
 #include "io/files/output_error.hpp"
+#include "io/files/read_error.hpp"
 #include "io/reports/html_report.hpp"
 #include "io/reports/results_report.hpp"
 #include "io/reports/vega_charts.hpp"
@@ -49,7 +50,7 @@ TEST_CASE("a missing Vega library is reported with the package to install", "[re
   try {
     load_vega_library("/nonexistent/vega");
     FAIL("no error for a missing Vega library");
-  } catch (const OutputError& e) {
+  } catch (const ReadError& e) {
     const std::string message = e.what();
     CHECK(message.find("/nonexistent/vega/vega-util.min.js") != std::string::npos);
     CHECK(message.find("libjs-vega") != std::string::npos);

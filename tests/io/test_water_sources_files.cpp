@@ -8,6 +8,7 @@
 #include <numeric>
 
 #include "io/files/csv_table.hpp"
+#include "io/files/read_error.hpp"
 #include "io/results/water_sources_files.hpp"
 #include "small_model.hpp"
 
@@ -95,7 +96,7 @@ TEST_CASE("unreadable budget tables are named with file, line and column", "[wat
   try {
     read_folder_budgets(root / "a", false);
     FAIL("no error");
-  } catch (const OutputError& e) {
+  } catch (const ReadError& e) {
     CHECK(std::string(e.what()).find("budget_periods.csv, line 2, column 'into_aquifer'") !=
           std::string::npos);
   }

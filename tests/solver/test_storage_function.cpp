@@ -35,7 +35,8 @@ TEST_CASE("storage function W(h): values, exact changes, slope", "[storage_funct
   }
 }
 
-TEST_CASE("storage release rate: a falling head releases water by mechanism", "[storage_function]") {
+TEST_CASE("storage release rate: a falling head releases water by mechanism",
+          "[storage_function]") {
   // Definitions of storativity (volume released per unit area per unit decline of head under
   // pressure; Jacob, 1940) and specific yield (volume drained per unit area per unit decline
   // of the water table): a decline releases water, counted positive into the flow.
