@@ -1,5 +1,7 @@
 #include "solver/newton_solver.hpp"
 
+#include <omp.h>
+
 #include <cmath>
 #include <vector>
 
@@ -9,24 +11,16 @@ namespace aquiledger {
 
 ResidualNorms residual_norms(const Eigen::VectorXd& r) {
   const auto n = static_cast<int>(r.size());
-  double sum_sq = 0.0, largest = -1.0;
-  int worst = -1;
+  std::vector<ResidualScan> scans(static_cast<std::size_t>(omp_get_max_threads()));
 #pragma omp parallel
   {
-    double local = -1.0;
-    int local_worst = -1;
-#pragma omp for schedule(static) reduction(+ : sum_sq) nowait
-    for (int i = 0; i < n; ++i) {
-      const double a = std::abs(r[i]);
-      sum_sq += a * a;
-      if (a > local) local = a, local_worst = i;
-    }
-    // Ties go to the lowest index, as in a serial scan, so the report does not depend on threads.
-#pragma omp critical
-    if (local > largest || (local == largest && local_worst >= 0 && local_worst < worst))
-      largest = local, worst = local_worst;
+    ResidualScan& local = scans[static_cast<std::size_t>(omp_get_thread_num())];
+#pragma omp for schedule(static)
+    for (int i = 0; i < n; ++i) local.add(r[i], i);
   }
-  return {std::max(largest, 0.0), std::sqrt(sum_sq), worst};
+  ResidualScan total;
+  for (const ResidualScan& s : scans) total.merge(s);
+  return total.norms();
 }
 
 namespace {

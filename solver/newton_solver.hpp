@@ -1,4 +1,6 @@
 #pragma once
+#include <algorithm>
+#include <cmath>
 // Newton-Raphson on the cell mass balances with a backtracking line search on the residual
 // norm. It reports a result; the time controller decides what to do with it.
 #include <span>
@@ -40,6 +42,29 @@ struct ResidualNorms {
   double norm = 0.0;     ///< L3/T
   int worst = -1;        ///< unknown of the largest |R_i|
 };
+
+/// The norms of a residual scanned equation by equation in increasing index order, so that
+/// ties of the largest go to the lowest index; scans of disjoint ranges (threads, ranks)
+/// merge into the scan of their union. Both engines' norms are made with it.
+struct ResidualScan {
+  double sum_sq = 0.0;    ///< (L3/T)^2
+  double largest = -1.0;  ///< L3/T, -1 before any equation
+  int worst = -1;         ///< index of the largest, -1 before any equation
+  void add(double r, int index) {
+    const double a = std::abs(r);
+    sum_sq += a * a;
+    if (a > largest) largest = a, worst = index;
+  }
+  void merge(const ResidualScan& o) {
+    sum_sq += o.sum_sq;
+    if (o.largest > largest || (o.largest == largest && o.worst >= 0 && o.worst < worst))
+      largest = o.largest, worst = o.worst;
+  }
+  ResidualNorms norms() const { return {std::max(largest, 0.0), std::sqrt(sum_sq), worst}; }
+};
+
+/// The norms of r over its threads' static ranges, merged in thread order (the same sums for
+/// the same thread count).
 ResidualNorms residual_norms(const Eigen::VectorXd& r);
 
 /// Converged when max |dh| < head_tolerance, max |R_i| <= flow_tolerance * throughflow and

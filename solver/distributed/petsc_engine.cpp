@@ -334,27 +334,25 @@ struct DistributedEngine::Impl {
   ResidualNorms norms() const {
     const PetscScalar* r;
     check(VecGetArrayRead(residual, &r), "VecGetArrayRead");
-    double sum_sq = 0.0;
-    struct {
-      double value;
-      int cell;
-    } largest{-1.0, INT_MAX};
+    ResidualScan scan;  // this rank's owned unknowns, in increasing cell order
     const std::size_t n_owned = part.n_owned();
     for (std::size_t k = 0; k < n_owned; ++k) {
       const std::size_t i = static_cast<std::size_t>(part.first_owned()) + k;
-      if (layout.unknown_of_cell[i] < 0) continue;
-      const double a = std::abs(r[k]);
-      sum_sq += a * a;
-      // Ties go to the lowest cell, as in the serial scan.
-      if (a > largest.value) largest = {a, static_cast<int>(i)};
+      if (layout.unknown_of_cell[i] >= 0) scan.add(r[k], static_cast<int>(i));
     }
     check(VecRestoreArrayRead(residual, &r), "VecRestoreArrayRead");
-    check_mpi(MPI_Allreduce(MPI_IN_PLACE, &sum_sq, 1, MPI_DOUBLE, MPI_SUM, comm),
+    // Merged over the ranks: the sum, and the largest with ties to the lowest cell.
+    struct {
+      double value;
+      int cell;
+    } largest{scan.largest, scan.worst >= 0 ? scan.worst : INT_MAX};
+    check_mpi(MPI_Allreduce(MPI_IN_PLACE, &scan.sum_sq, 1, MPI_DOUBLE, MPI_SUM, comm),
               "MPI_Allreduce (residual norm)");
     check_mpi(MPI_Allreduce(MPI_IN_PLACE, &largest, 1, MPI_DOUBLE_INT, MPI_MAXLOC, comm),
               "MPI_Allreduce (largest residual)");
-    const bool any = largest.value >= 0.0;
-    return {std::max(largest.value, 0.0), std::sqrt(sum_sq), any ? largest.cell : -1};
+    scan.largest = largest.value;
+    scan.worst = largest.value >= 0.0 ? largest.cell : -1;
+    return scan.norms();
   }
 
   bool solve_linear(int& iterations) {
