@@ -12,7 +12,7 @@ namespace aquiledger {
 
 std::size_t ArraySource::n_values() const {
   std::size_t n = 0;
-  for (const auto& r : rows) n += r.values.size();
+  for (const auto& r : rows) n += r.n_values;
   return n;
 }
 
@@ -94,7 +94,10 @@ void read_data_line(const std::string& line, int line_no, ArraySource& out) {
   if (tokens.empty()) return;
   ArrayRow row;
   row.line = line_no;
-  row.values.reserve(tokens.size());
+  row.n_values = tokens.size();
+  const int index = static_cast<int>(out.rows.size());
+  const bool keep = !out.band || (index >= out.band->first && index < out.band->end());
+  if (keep) row.values.reserve(tokens.size());
   for (std::size_t t = 0; t < tokens.size(); ++t) {
     auto v = parse_value(tokens[t]);
     if (!v) {
@@ -104,20 +107,22 @@ void read_data_line(const std::string& line, int line_no, ArraySource& out) {
       out.problems.push_back({line_no, (is_nan ? "value '" : "not a number: '") + tokens[t] +
                                            "' (value " + std::to_string(t + 1) + " on the line)" +
                                            (is_nan ? " is not a finite number" : "")});
-      row.values.push_back(std::nan(""));
+      if (keep) row.values.push_back(std::nan(""));
       continue;
     }
     if (out.raster && out.raster->nodata && *v == *out.raster->nodata) v = std::nan("");
-    row.values.push_back(*v);
+    if (keep) row.values.push_back(*v);
   }
   out.rows.push_back(std::move(row));
 }
 
 }  // namespace
 
-ArraySource load_array_source(const std::filesystem::path& file, std::uintmax_t max_bytes) {
+ArraySource load_array_source(const std::filesystem::path& file, std::uintmax_t max_bytes,
+                              std::optional<RowBand> band) {
   ArraySource out;
   out.file = file;
+  out.band = band;
   if (auto refusal = input_file_refusal(file, max_bytes)) {
     out.readable = true;  // it exists; the refusal is the message
     out.refusal = std::move(*refusal);

@@ -9,6 +9,8 @@
 #include <string>
 #include <vector>
 
+#include "mesh/grid_part.hpp"
+
 namespace aquiledger {
 
 /// What inactive cells hold in the head arrays a run writes (io/results/head_arrays.hpp) and
@@ -17,8 +19,9 @@ namespace aquiledger {
 inline constexpr double head_array_no_value = -9999.0;
 
 struct ArrayRow {
-  int line = 0;  ///< 1-based line in the file
-  std::vector<double> values;
+  int line = 0;                ///< 1-based line in the file
+  std::size_t n_values = 0;    ///< values on the line, whether kept or not
+  std::vector<double> values;  ///< the values; empty for a row outside the band read
 };
 
 struct ArrayProblem {
@@ -40,7 +43,8 @@ struct RasterHeader {
 struct ArraySource {
   std::filesystem::path file;
   bool readable = false;
-  std::vector<ArrayRow> rows;          ///< data rows; NODATA cells of a raster hold NaN
+  std::vector<ArrayRow> rows;          ///< every data row; NODATA cells of a raster hold NaN
+  std::optional<RowBand> band;         ///< data rows whose values are kept (all when unset)
   std::optional<RasterHeader> raster;  ///< set for .asc files
   std::vector<ArrayProblem> problems;  ///< unreadable values, NaN, bad header
   std::string refusal;  ///< set when the file was not read (io/files/input_file_guard)
@@ -49,8 +53,13 @@ struct ArraySource {
 
 /// Reads a text array or (by the .asc extension) a raster. Never throws; problems are listed.
 /// A file that is not a regular file or exceeds max_bytes is not read (refusal says why).
+/// With a band, the file is still read and checked line by line to the end (every process
+/// of a distributed run finds the same problems), but only the values of data rows
+/// [band.first, band.end()) are kept (data row 0 is the first data line, the northern grid
+/// row); the other rows keep their line and value count only.
 ArraySource load_array_source(const std::filesystem::path& file,
-                              std::uintmax_t max_bytes = UINTMAX_MAX);
+                              std::uintmax_t max_bytes = UINTMAX_MAX,
+                              std::optional<RowBand> band = std::nullopt);
 
 /// Parses one value token; rejects NaN, infinities and trailing text.
 std::optional<double> parse_value(const std::string& token);

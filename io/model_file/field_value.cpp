@@ -22,7 +22,8 @@ const ArraySource* load_cached(ReaderContext& ctx, const std::filesystem::path& 
     // (dx and dy files are read before the grid is known: at most 10 million values.)
     const double n_values =
         ctx.shape ? static_cast<double>(ctx.shape->nrow) * ctx.shape->ncol : 1.0e7;
-    it = ctx.array_cache.emplace(file, load_array_source(file, max_array_file_bytes(n_values)))
+    it = ctx.array_cache
+             .emplace(file, load_array_source(file, max_array_file_bytes(n_values), ctx.band))
              .first;
   }
   const ArraySource& src = it->second;
@@ -91,21 +92,22 @@ bool fill_from_file(ReaderContext& ctx, const ArraySource& src, const std::strin
     return false;
   }
   for (const ArrayRow& row : src.rows) {
-    if (static_cast<int>(row.values.size()) != g.ncol) {
+    if (static_cast<int>(row.n_values) != g.ncol) {
       ctx.error(SourceSpot{src.file, row.line, 0}, key,
-                "line has " + std::to_string(row.values.size()) +
+                "line has " + std::to_string(row.n_values) +
                     " values, expected ncol = " + std::to_string(g.ncol));
       ok = false;
     }
   }
   if (!ok) return false;
-  field.values.resize(static_cast<std::size_t>(g.n_cells()));
+  const RowBand band = src.band ? *src.band : RowBand{0, g.nrow};
+  field.first = band.first * g.ncol;
+  field.values.resize(static_cast<std::size_t>(band.count) * g.ncol);
   field.row_line.resize(static_cast<std::size_t>(g.nrow));
-  for (int r = 0; r < g.nrow; ++r) {
-    field.row_line[r] = src.rows[r].line;
+  for (int r = 0; r < g.nrow; ++r) field.row_line[r] = src.rows[r].line;
+  for (int r = band.first; r < band.end(); ++r)
     std::copy(src.rows[r].values.begin(), src.rows[r].values.end(),
-              field.values.begin() + std::ptrdiff_t(r) * g.ncol);
-  }
+              field.values.begin() + std::ptrdiff_t(r - band.first) * g.ncol);
   field.file = src.file;
   return true;
 }
@@ -155,11 +157,13 @@ std::optional<CellField> read_zones(ReaderContext& ctx, const toml::table& t,
   if (!src || !fill_from_file(ctx, *src, key + ".zones", zones)) return std::nullopt;
   field.file = zones.file;
   field.row_line = zones.row_line;
+  field.first = zones.first;
   field.values.assign(zones.values.size(), std::nan(""));
   field.zone.assign(zones.values.size(), 0);
   std::map<long long, std::pair<int, int>> missing;  // zone -> (cell count, first cell)
-  for (std::size_t c = 0; c < zones.values.size(); ++c) {
-    const double z = zones.values[c];
+  for (std::size_t i = 0; i < zones.values.size(); ++i) {
+    const std::size_t c = i + static_cast<std::size_t>(zones.first);  // grid cell
+    const double z = zones.values[i];
     if (std::isnan(z) && !active_cell(ctx, c)) continue;
     if (!(z == std::floor(z))) {
       ctx.error(field_cell_spot(zones, ctx.shape->ncol, int(c)), key + ".zones",
@@ -169,8 +173,8 @@ std::optional<CellField> read_zones(ReaderContext& ctx, const toml::table& t,
     }
     auto it = zone_value.find(static_cast<long long>(z));
     if (it != zone_value.end()) {
-      field.values[c] = it->second;
-      field.zone[c] = static_cast<int>(z);
+      field.values[i] = it->second;
+      field.zone[i] = static_cast<int>(z);
     } else if (active_cell(ctx, c)) {
       auto& m = missing[static_cast<long long>(z)];
       if (m.first++ == 0) m.second = int(c);
@@ -193,7 +197,12 @@ std::optional<CellField> read_field(ReaderContext& ctx, const toml::node& node,
   field.at = ctx.spot(node);
   if (auto v = number_of(node)) {
     // Without a grid a number is still checked, as a field of one cell.
-    field.values.assign(ctx.shape ? static_cast<std::size_t>(ctx.shape->n_cells()) : 1, *v);
+    std::size_t n = ctx.shape ? static_cast<std::size_t>(ctx.shape->n_cells()) : 1;
+    if (ctx.shape && ctx.band) {
+      field.first = ctx.band->first * ctx.shape->ncol;
+      n = static_cast<std::size_t>(ctx.band->count) * ctx.shape->ncol;
+    }
+    field.values.assign(n, *v);
     field.uniform = true;
     return field;
   }
@@ -237,14 +246,15 @@ SourceSpot field_cell_spot(const CellField& field, int n_cols, int cell) {
 
 bool check_field(ReaderContext& ctx, const CellField& field, const std::string& key,
                  const std::function<bool(double)>& ok, const std::string& expected) {
-  int n_bad = 0, first = -1;
-  for (std::size_t c = 0; c < field.values.size(); ++c) {
-    if (!active_cell(ctx, c) || ok(field.values[c])) continue;
+  int n_bad = 0, first = -1;  // first: grid cell
+  for (std::size_t i = 0; i < field.values.size(); ++i) {
+    const std::size_t c = i + static_cast<std::size_t>(field.first);
+    if (!active_cell(ctx, c) || ok(field.values[i])) continue;
     if (n_bad++ == 0) first = static_cast<int>(c);
   }
   if (n_bad == 0) return true;
   const int ncol = ctx.shape ? ctx.shape->ncol : 1;
-  const double v = field.values[static_cast<std::size_t>(first)];
+  const double v = field.values[static_cast<std::size_t>(first - field.first)];
   std::string message = (field.uniform ? "value " + show_number(v)
                                        : (std::isnan(v) ? std::string("no value (NODATA)")
                                                         : "value " + show_number(v)) +

@@ -14,18 +14,22 @@ namespace aquiledger {
 
 /// A field value read for every grid cell, with where it came from (for messages).
 struct CellField {
-  std::vector<double> values;  ///< n_cells, raster order; NaN where a raster has NODATA
+  std::vector<double> values;  ///< raster order from cell `first`; NaN where a raster has NODATA
+  std::int32_t first = 0;      ///< grid cell of values[0]: 0, or a band's first cell
   SourceSpot at;               ///< the TOML value
   std::filesystem::path file;  ///< the array file, empty for a number
   std::vector<int> row_line;   ///< line of each grid row in `file` (empty for a number)
   bool uniform = false;        ///< given as one number
-  std::vector<int> zone;       ///< zone number per cell when given by zones (0 = none)
+  std::vector<int> zone;       ///< zone number per value when given by zones (0 = none)
+  /// The values indexed by grid cell.
+  CellWindow<const double> cells() const { return {std::span<const double>(values), first}; }
 };
 
 /// True when the node looks like a field value (a number or a table with file/zones).
 bool is_field_node(const toml::node& node);
 
 /// Reads a field value; needs ctx.shape. Returns nullopt (after reporting) when invalid.
+/// With ctx.band set, keeps the values of the band's rows only (CellField::first on).
 std::optional<CellField> read_field(ReaderContext& ctx, const toml::node& node,
                                     const std::string& key);
 std::optional<CellField> read_field_key(ReaderContext& ctx, const toml::table& table,

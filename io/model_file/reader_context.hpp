@@ -10,6 +10,7 @@
 
 #include "io/model_file/array_source.hpp"
 #include "io/model_file/diagnostics.hpp"
+#include "mesh/grid_part.hpp"
 #include "mesh/rectilinear_grid.hpp"
 
 namespace aquiledger {
@@ -36,6 +37,9 @@ struct ReaderContext {
   int n_periods = 0;                    ///< 0 while [[period]] is unknown or invalid
   std::vector<std::uint8_t> fixed;      ///< per cell: 1 when a fixed_head holds it
   std::map<std::filesystem::path, ArraySource> array_cache;
+  /// Rows whose per-cell field values are kept (read_field); every row when unset. Array
+  /// files are still read and checked to the end, so every band finds the same errors.
+  std::optional<RowBand> band;
 
   SourceSpot spot(const toml::node& node) const;
   SourceSpot spot(const toml::source_region& region) const;
