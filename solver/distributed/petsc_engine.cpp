@@ -24,6 +24,17 @@
 
 namespace aquiledger {
 
+std::vector<RowBand> row_split(int n_rows, int n_ranks) {
+  std::vector<RowBand> bands;
+  int first = 0;
+  for (int r = 0; r < n_ranks; ++r) {
+    const int count = n_rows / n_ranks + (r < n_rows % n_ranks ? 1 : 0);
+    bands.push_back({first, count});
+    first += count;
+  }
+  return bands;
+}
+
 namespace {
 
 std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
@@ -98,9 +109,16 @@ struct DistributedEngine::Impl {
     const RectilinearGrid& g = m.grid;
     confined = m.aquifer.condition == Condition::confined;
     // Bands of whole rows (one process across x): PETSc's ordering is then the raster order,
-    // and a band's cells are one run of grid cells.
+    // and a band's cells are one run of grid cells. The rows of each band are given (row_split).
+    int size = 1, rank = 0;
+    check_mpi(MPI_Comm_size(comm, &size), "MPI_Comm_size");
+    check_mpi(MPI_Comm_rank(comm, &rank), "MPI_Comm_rank");
+    if (size > g.n_rows()) throw std::runtime_error("more ranks than grid rows");
+    const std::vector<RowBand> split = row_split(g.n_rows(), size);
+    std::vector<PetscInt> rows_per_rank;
+    for (const RowBand& b : split) rows_per_rank.push_back(b.count);
     check(DMDACreate2d(comm, DM_BOUNDARY_NONE, DM_BOUNDARY_NONE, DMDA_STENCIL_STAR, g.n_cols(),
-                       g.n_rows(), 1, PETSC_DECIDE, 1, 1, nullptr, nullptr, &da),
+                       g.n_rows(), 1, size, 1, 1, nullptr, rows_per_rank.data(), &da),
           "DMDACreate2d (more ranks than grid rows?)");
     check(DMSetFromOptions(da), "DMSetFromOptions");
     check(DMSetUp(da), "DMSetUp");
@@ -109,6 +127,9 @@ struct DistributedEngine::Impl {
     check(DMDAGetGhostCorners(da, &gxs, &gys, nullptr, &gxm, &gym, nullptr), "DMDAGetGhostCorners");
     if (xs != 0 || xm != g.n_cols() || gxm != g.n_cols())
       throw std::runtime_error("the distributed engine needs bands of whole rows");
+    if (ys != split[static_cast<std::size_t>(rank)].first ||
+        ym != split[static_cast<std::size_t>(rank)].count)
+      throw std::runtime_error("PETSc's band of rows differs from the engine's row split");
     part.n_cols = g.n_cols();
     part.owned = {static_cast<int>(ys), static_cast<int>(ym)};
     part.window = {static_cast<int>(gys), static_cast<int>(gym)};

@@ -6,6 +6,7 @@
 // residual and of -dR/dh, and PETSc's Krylov solvers with algebraic multigrid solve for the
 // Newton update. No PETSc or MPI type appears here: callers need neither header.
 #include <memory>
+#include <vector>
 
 #include "mesh/grid_part.hpp"
 #include "solver/result_reduction.hpp"
@@ -33,6 +34,12 @@ class PetscRuntime {
   int n_ranks_ = 1;
   std::unique_ptr<ResultReduction> reduction_;
 };
+
+/// The engine's split of n_rows grid rows into n_ranks bands, rank 0 the northern band: the
+/// first n_rows % n_ranks bands one row longer than the others (PETSc's own default split
+/// for a DMDA). Given to the DMDA explicitly, so that a reader that keeps only a rank's band
+/// of the inputs (ReaderContext::band) and PETSc cannot disagree. Needs 1 <= n_ranks <= n_rows.
+std::vector<RowBand> row_split(int n_rows, int n_ranks);
 
 class DistributedEngine {
  public:

@@ -245,3 +245,30 @@ int main(int argc, char** argv) {
   const bool any = petsc.reduction().any(failed != 0);
   return any ? 1 : 0;
 }
+
+// The row split given to PETSc: whole rows, contiguous from the northern row, sizes differing
+// by at most one with the longer bands first (PETSc's DMDA default, ly[i] = N/n + (N % n > i),
+// from memory of PETSc's DMSetUp_DA_2D), and each rank's engine part is its band.
+TEST_CASE("the engine's row split covers the rows and is the band each rank owns",
+          "[distributed]") {
+  for (auto [n_rows, n_ranks] : {std::pair{7, 1}, {7, 2}, {7, 3}, {8, 4}, {5, 5}, {1000, 64}}) {
+    const std::vector<RowBand> split = row_split(n_rows, n_ranks);
+    REQUIRE(split.size() == std::size_t(n_ranks));
+    int next = 0;
+    for (std::size_t r = 0; r < split.size(); ++r) {
+      CHECK(split[r].first == next);
+      CHECK(split[r].count == n_rows / n_ranks + (int(r) < n_rows % n_ranks ? 1 : 0));
+      next = split[r].end();
+    }
+    CHECK(next == n_rows);
+  }
+  CHECK(row_split(7, 3)[0].count == 3);  // 7 rows on 3 ranks: 3, 2, 2
+  CHECK(row_split(7, 3)[2].first == 5);
+  const Model m = confined_model();
+  if (runtime->n_ranks() > m.grid.n_rows()) return;
+  DistributedEngine engine(m);
+  const RowBand mine =
+      row_split(m.grid.n_rows(), runtime->n_ranks())[std::size_t(runtime->rank())];
+  CHECK(engine.part().owned.first == mine.first);
+  CHECK(engine.part().owned.count == mine.count);
+}
