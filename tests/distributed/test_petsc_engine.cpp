@@ -267,8 +267,7 @@ TEST_CASE("the engine's row split covers the rows and is the band each rank owns
   const Model m = confined_model();
   if (runtime->n_ranks() > m.grid.n_rows()) return;
   DistributedEngine engine(m);
-  const RowBand mine =
-      row_split(m.grid.n_rows(), runtime->n_ranks())[std::size_t(runtime->rank())];
+  const RowBand mine = row_split(m.grid.n_rows(), runtime->n_ranks())[std::size_t(runtime->rank())];
   CHECK(engine.part().owned.first == mine.first);
   CHECK(engine.part().owned.count == mine.count);
 }

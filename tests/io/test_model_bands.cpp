@@ -5,11 +5,12 @@
 // line and key as the whole read. The reference is the whole read of the same input (the
 // reader's own result, checked against the files by the other reader tests), compared bit
 // for bit: a band read only copies values, so nothing may differ.
+#include <toml++/toml.h>
+
 #include <catch2/catch.hpp>
 #include <cmath>
 #include <filesystem>
 #include <fstream>
-#include <toml++/toml.h>
 
 #include "io/model_file/field_value.hpp"
 
@@ -37,8 +38,9 @@ ReaderContext context(const std::filesystem::path& dir, std::optional<RowBand> b
   ReaderContext ctx;
   ctx.model_file = dir / "scenario.toml";
   ctx.base_dir = dir;
-  ctx.shape = GridShape{n_rows, n_cols, std::vector<double>(n_cols, 10.0),
-                        std::vector<double>(n_rows, 10.0), 0.0, 0.0};
+  ctx.shape = GridShape{
+      n_rows, n_cols, std::vector<double>(n_cols, 10.0), std::vector<double>(n_rows, 10.0),
+      0.0,    0.0};
   ctx.band = band;
   return ctx;
 }
@@ -49,9 +51,7 @@ std::optional<CellField> read_k(ReaderContext& ctx, const std::string& toml_text
   return read_field(ctx, *root.get("k"), "[aquifer].k");
 }
 
-bool same_bits(double a, double b) {
-  return (std::isnan(a) && std::isnan(b)) || a == b;
-}
+bool same_bits(double a, double b) { return (std::isnan(a) && std::isnan(b)) || a == b; }
 
 /// The band read of the text holds the whole read's values of the band's rows, by grid cell.
 void check_band_matches_whole(const std::filesystem::path& dir, const std::string& toml_text) {
@@ -96,8 +96,7 @@ TEST_CASE("a band read of a number holds the number on the band's cells", "[io][
   check_band_matches_whole(scratch("number"), "k = 12.5");
 }
 
-TEST_CASE("a band read of an array file holds the band's rows of the whole read",
-          "[io][bands]") {
+TEST_CASE("a band read of an array file holds the band's rows of the whole read", "[io][bands]") {
   const auto dir = scratch("file");
   write(dir / "k.txt", text_array);
   check_band_matches_whole(dir, "k = { file = \"k.txt\" }");
@@ -106,7 +105,8 @@ TEST_CASE("a band read of an array file holds the band's rows of the whole read"
 TEST_CASE("a band read of zones holds the band's rows of the whole read", "[io][bands]") {
   const auto dir = scratch("zones");
   write(dir / "zones.txt", "1 1 2\n1 2 2\n3 3 2\n3 1 1\n2 2 3\n");
-  check_band_matches_whole(dir, "k = { zones = \"zones.txt\", values = { 1 = 0.5, 2 = 7.25, 3 = 40 } }");
+  check_band_matches_whole(dir,
+                           "k = { zones = \"zones.txt\", values = { 1 = 0.5, 2 = 7.25, 3 = 40 } }");
 }
 
 TEST_CASE("a band read of an ESRI ASCII raster holds the band's rows, NODATA included",
@@ -118,8 +118,7 @@ TEST_CASE("a band read of an ESRI ASCII raster holds the band's rows, NODATA inc
   check_band_matches_whole(dir, "k = { file = \"k.asc\" }");
 }
 
-TEST_CASE("a bad array file read for a band names the same file, line and key",
-          "[io][bands]") {
+TEST_CASE("a bad array file read for a band names the same file, line and key", "[io][bands]") {
   const auto dir = scratch("errors");
   // Line 2 has a word for a number, line 6 one value too few: both outside the band of the
   // rank holding rows 3 and 4 (lines 4 and 5), which must still stop with the same errors.
@@ -145,8 +144,7 @@ TEST_CASE("a bad array file read for a band names the same file, line and key",
   }
 }
 
-TEST_CASE("a value check on a band names the grid cell and the line of its row",
-          "[io][bands]") {
+TEST_CASE("a value check on a band names the grid cell and the line of its row", "[io][bands]") {
   const auto dir = scratch("check");
   write(dir / "k.txt", text_array);
   ReaderContext ctx = context(dir, RowBand{3, 2});
@@ -154,8 +152,8 @@ TEST_CASE("a value check on a band names the grid cell and the line of its row",
   REQUIRE(field);
   // Rows 4 and 5 (1-based) hold 10..15.125; the first value not below 12 is row 4, column 3
   // (12 is not < 12), written on line 6 of the file.
-  CHECK_FALSE(check_field(ctx, *field, "[aquifer].k", [](double v) { return v < 12.0; },
-                          "< 12"));
+  CHECK_FALSE(check_field(
+      ctx, *field, "[aquifer].k", [](double v) { return v < 12.0; }, "< 12"));
   REQUIRE(ctx.diagnostics.items().size() == 1);
   const Diagnostic& d = ctx.diagnostics.items()[0];
   CHECK(d.line == 6);
