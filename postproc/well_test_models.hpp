@@ -1,0 +1,60 @@
+#pragma once
+// Drawdown models for interpreting a pumping test: a unit-rate response of each published
+// solution, superposed in time over a rate schedule (steps and recovery) and in space over
+// image wells for a straight boundary. Pure numerics, no I/O.
+
+#include <string>
+#include <vector>
+
+namespace aquiledger {
+
+/// The closed-form models a test can be fitted with.
+enum class WellTestModel {
+  theis,          ///< Theis (1935): parameters T, S
+  cooper_jacob,   ///< Cooper and Jacob (1946) straight line: parameters T, S
+  hantush_jacob,  ///< Hantush and Jacob (1955) leaky: parameters T, S, B
+};
+
+/// Plain name used in files and messages ("theis", "cooper-jacob", "hantush-jacob").
+std::string model_name(WellTestModel model);
+/// Names of the parameters in fitting order, e.g. {"transmissivity", "storativity"}.
+std::vector<std::string> model_parameter_names(WellTestModel model);
+int n_model_parameters(WellTestModel model);
+
+/// One step of the pumping rate: `rate` (L3/T, positive = withdrawal) from `start` (T, since
+/// the start of the test) until the next step's start. A step with rate 0 is recovery.
+struct RateStep {
+  double start = 0.0;  ///< T
+  double rate = 0.0;   ///< L3/T
+};
+
+/// A straight boundary seen from one observation well, represented by an image well at
+/// `image_distance` (L) from it (Ferris et al., 1962): a barrier adds the image's drawdown,
+/// a recharge boundary (fixed head) subtracts it.
+struct ImageWell {
+  double image_distance = 0.0;  ///< L
+  bool recharge = false;
+};
+
+/// Drawdown (L) for a unit rate, time t (T) after the pumping began, at radius r (L), for the
+/// model's parameters (T in L2/T, S dimensionless, B in L). Zero for t <= 0. The Cooper-Jacob
+/// line q/(4 pi T) ln(2.25 T t / (r^2 S)) is returned as is (negative at early times); it
+/// approximates Theis for u = r^2 S / (4 T t) small (u < 0.01, Cooper and Jacob, 1946).
+double unit_rate_drawdown(WellTestModel model, const std::vector<double>& parameters, double r,
+                          double t);
+
+/// Drawdown (L) at time t (T) at radius r (L) from the pumped well with the rate schedule
+/// (sorted by start) superposed in time, s(t) = sum_i (Q_i - Q_{i-1}) s_1(t - t_i)
+/// (Theis, 1935, for recovery; the principle of superposition), and the image wells in space.
+double schedule_drawdown(WellTestModel model, const std::vector<double>& parameters,
+                         const std::vector<RateStep>& schedule, double r, double t,
+                         const std::vector<ImageWell>& images = {});
+
+/// Logarithmic derivative ds/d ln t of a series (Bourdet et al., 1989): for each point the
+/// slopes to the first neighbours at least `smoothing` (in ln t) away on each side, weighted
+/// by the distance to them. Points without a neighbour on one side use the one-sided slope.
+std::vector<double> logarithmic_derivative(const std::vector<double>& times,
+                                           const std::vector<double>& drawdowns,
+                                           double smoothing = 0.2);
+
+}  // namespace aquiledger
