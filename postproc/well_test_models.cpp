@@ -5,6 +5,7 @@
 #include <numbers>
 
 #include "postproc/analytical_solutions.hpp"
+#include "postproc/laplace_inversion.hpp"
 
 namespace aquiledger {
 
@@ -67,6 +68,20 @@ double schedule_drawdown(WellTestModel model, const std::vector<double>& paramet
     s += change * unit;
   }
   return s;
+}
+
+double papadopulos_cooper_drawdown(double q, double transmissivity, double storativity,
+                                   double r_well, double r_casing, double r, double t) {
+  if (t <= 0.0) return 0.0;
+  const double t_d = transmissivity * t / (storativity * r_well * r_well);
+  const double r_d = r / r_well;
+  const double c_d = r_casing * r_casing / (2.0 * storativity * r_well * r_well);
+  auto transform = [&](double p) {
+    const double root = std::sqrt(p);
+    return std::cyl_bessel_k(0.0, r_d * root) /
+           (p * (root * std::cyl_bessel_k(1.0, root) + c_d * p * std::cyl_bessel_k(0.0, root)));
+  };
+  return q / (2.0 * std::numbers::pi * transmissivity) * stehfest_inverse(transform, t_d);
 }
 
 std::vector<double> logarithmic_derivative(const std::vector<double>& times,

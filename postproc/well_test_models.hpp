@@ -50,6 +50,15 @@ double schedule_drawdown(WellTestModel model, const std::vector<double>& paramet
                          const std::vector<RateStep>& schedule, double r, double t,
                          const std::vector<ImageWell>& images = {});
 
+/// Papadopulos and Cooper (1967): drawdown (L) at radius r >= r_well (L) around a
+/// large-diameter well with casing radius r_casing (L) whose stored water supplies part of the
+/// rate q (L3/T) early on. In the Laplace domain, with t_D = T t / (S r_well^2), r_D = r / r_well
+/// and C_D = r_casing^2 / (2 S r_well^2) (derived from their well-bore balance):
+///   s_D = 2 pi T s / q,  s_D(p) = K0(r_D sqrt p) / (p [sqrt p K1(sqrt p) + C_D p K0(sqrt p)]),
+/// inverted by Stehfest (1970). With C_D -> 0 and r_well -> 0 it is Theis.
+double papadopulos_cooper_drawdown(double q, double transmissivity, double storativity,
+                                   double r_well, double r_casing, double r, double t);
+
 /// Logarithmic derivative ds/d ln t of a series (Bourdet et al., 1989): for each point the
 /// slopes to the first neighbours at least `smoothing` (in ln t) away on each side, weighted
 /// by the distance to them. Points without a neighbour on one side use the one-sided slope.

@@ -4,6 +4,7 @@
 #include <cmath>
 #include <numbers>
 
+#include "postproc/analytical_solutions.hpp"
 #include "postproc/well_test_models.hpp"
 
 using namespace aquiledger;
@@ -95,4 +96,22 @@ TEST_CASE("logarithmic derivative of known series", "[well_test_models]") {
   // Theis: the derivative tends to 1 / (4 pi T) at late time (Cooper and Jacob, 1946).
   CHECK(logarithmic_derivative(times, theis).back() ==
         Approx(1.0 / (4.0 * pi * 200.0)).epsilon(1e-3));
+}
+
+TEST_CASE("Papadopulos-Cooper: well-bore storage early, Theis late", "[well_test_models]") {
+  const double t_aq = 50.0, s_aq = 1e-3, r_w = 0.5, r_c = 0.5, q = 100.0;  // m2/d, -, m, m3/d
+  // Early on the casing supplies all of q: s_w = q t / (pi r_c^2) (mass balance of the
+  // well bore; Papadopulos and Cooper, 1967).
+  const double t_early = 1e-7;
+  CHECK(papadopulos_cooper_drawdown(q, t_aq, s_aq, r_w, r_c, r_w, t_early) ==
+        Approx(q * t_early / (std::numbers::pi * r_c * r_c)).epsilon(0.02));
+  // After t > 250 r_c^2 / T the well-bore storage no longer matters (Papadopulos and Cooper,
+  // 1967): the drawdown is Theis's at the well radius, within the Stehfest accuracy (1e-4 of the
+  // scale q / (2 pi T); see test_laplace_inversion.cpp).
+  const double t_late = 250.0 * r_c * r_c / t_aq * 10.0;
+  CHECK(papadopulos_cooper_drawdown(q, t_aq, s_aq, r_w, r_c, r_w, t_late) ==
+        Approx(theis_drawdown(q, t_aq, s_aq, r_w, t_late)).epsilon(0.01));
+  // A vanishing casing at a small well is Theis at an observation radius at any time.
+  CHECK(papadopulos_cooper_drawdown(q, t_aq, s_aq, 0.01, 1e-6, 20.0, 0.5) ==
+        Approx(theis_drawdown(q, t_aq, s_aq, 20.0, 0.5)).epsilon(2e-3));
 }
