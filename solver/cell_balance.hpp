@@ -4,6 +4,7 @@
 // (solver/distributed/), so there is one copy of the discrete physics.
 #include <cmath>
 
+#include "mesh/cell_index.hpp"
 #include "solver/face_conductance.hpp"
 #include "solver/storage_function.hpp"
 
@@ -45,6 +46,63 @@ inline constexpr double head_quantum_factor = 0x1p-51;
 /// filled to its canal's level, a basin at steady state in a transient period).
 inline double rounding_floor(double term_sum, double face_sum, double quantum_sum) {
   return rounding_factor * (term_sum + face_sum) + head_quantum_factor * quantum_sum;
+}
+
+/// A cell has at most four neighbours (west, east, north, south) on the rectilinear grid.
+inline constexpr int max_cell_neighbours = 4;
+
+/// What every row of one step shares: storage only in a transient step (1/dt), and the face
+/// thickness rule of the model.
+struct RowStep {
+  bool transient = false;
+  double inv_dt = 0.0;  ///< 1/T, 0 in a steady step
+  FaceThickness face_thickness = FaceThickness::mean;
+};
+
+inline RowStep row_step(bool steady, double dt, FaceThickness face_thickness) {
+  return {!steady, steady ? 0.0 : 1.0 / dt, face_thickness};
+}
+
+/// Cell c's CellRowInput in both engines: head_at(c) and thickness_at(c) give a cell's head
+/// and saturated thickness (the latter never called when Confined); the stresses' flow and
+/// slope; the storage law, start head and area, which only a transient step uses.
+template <bool Confined, class HeadAt, class ThicknessAt>
+inline CellRowInput row_input(const RowStep& step, CellIndex c, HeadAt&& head_at,
+                              ThicknessAt&& thickness_at, double stress_q, double stress_dq,
+                              const CellStorage& storage, double head_old, double area) {
+  CellRowInput in;
+  in.head = head_at(c);
+  if constexpr (!Confined) {
+    in.thickness = thickness_at(c);
+    in.face_thickness = step.face_thickness;
+  }
+  in.stress_q = stress_q;
+  in.stress_dq = stress_dq;
+  if (step.transient) {
+    in.storage = &storage;
+    in.head_old = head_old;
+    in.area = area;
+    in.inv_dt = step.inv_dt;
+  }
+  return in;
+}
+
+/// The faces argument of cell_row over a cell's neighbour list (max_cell_neighbours entries
+/// with a cell and a factor, ended early by an invalid cell): head_at(c) and thickness_at(c)
+/// give a neighbour's head and saturated thickness (the latter never called when Confined).
+template <bool Confined, class Neighbour, class HeadAt, class ThicknessAt>
+inline auto neighbour_faces(const Neighbour* neighbours, HeadAt&& head_at,
+                            ThicknessAt&& thickness_at) {
+  return [=, &head_at, &thickness_at](auto&& visit) {
+    for (int k = 0; k < max_cell_neighbours; ++k) {
+      const Neighbour& nb = neighbours[k];
+      if (!nb.cell.valid()) break;
+      if constexpr (Confined)
+        visit(k, nb.factor, head_at(nb.cell), ValueSlope{});
+      else
+        visit(k, nb.factor, head_at(nb.cell), thickness_at(nb.cell));
+    }
+  };
 }
 
 /// faces(visit) calls visit(k, factor, hj, bj) for each active neighbour k in the order W, E,

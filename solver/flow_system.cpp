@@ -79,40 +79,19 @@ void FlowSystem::assemble_cells(std::span<const double> head) {
   double face_sum = 0.0;
   double quantum_sum = 0.0;
   double sum = 0.0;
-  const bool transient = !steady_;
-  const double inv_dt = transient ? 1.0 / dt_ : 0.0;
-  const FaceThickness face_thickness = model_.solver.face_thickness;
+  const RowStep step = row_step(steady_, dt_, model_.solver.face_thickness);
+  auto head_at = [&](CellIndex c) { return head[at(c)]; };
+  // The thickness is cached once per cell for both sides of each face.
+  auto thickness_at = [&](CellIndex c) { return thickness_[at(c)]; };
 #pragma omp parallel for schedule(static) reduction(+ : abs_sum, sum, face_sum, quantum_sum)
   for (int u = 0; u < n; ++u) {
     const CellIndex c = layout_.cell_of_unknown[static_cast<std::size_t>(u)];
     const std::size_t i = at(c);
     const Neighbour* nbs = &neighbours_[static_cast<std::size_t>(u * max_neighbours)];
-    CellRowInput in;
-    in.head = head[i];
-    if constexpr (!Confined) {
-      in.thickness = thickness_[i];
-      in.face_thickness = face_thickness;
-    }
-    in.stress_q = stress_q_[i];
-    in.stress_dq = stress_dq_[i];
-    if (transient) {
-      in.storage = &storage_[static_cast<std::size_t>(u)];
-      in.head_old = head_old_[i];
-      in.area = layout_.area[i];
-      in.inv_dt = inv_dt;
-    }
-    auto faces = [&](auto&& visit) {
-      for (int k = 0; k < max_neighbours; ++k) {
-        const Neighbour& nb = nbs[k];
-        if (!nb.cell.valid()) break;
-        const std::size_t j = at(nb.cell);
-        // The thickness is cached once per cell for both sides of each face.
-        if constexpr (Confined)
-          visit(k, nb.factor, head[j], ValueSlope{});
-        else
-          visit(k, nb.factor, head[j], thickness_[j]);
-      }
-    };
+    const CellRowInput in =
+        row_input<Confined>(step, c, head_at, thickness_at, stress_q_[i], stress_dq_[i],
+                            storage_[static_cast<std::size_t>(u)], head_old_[i], layout_.area[i]);
+    auto faces = neighbour_faces<Confined>(nbs, head_at, thickness_at);
     auto off = [&](int k, double value) {
       if (nbs[k].value >= 0) values[nbs[k].value] = value;
     };

@@ -7,6 +7,7 @@
 #include <span>
 #include <vector>
 
+#include "solver/cell_balance.hpp"
 #include "solver/model.hpp"
 #include "solver/storage_function.hpp"
 #include "solver/system_layout.hpp"
@@ -48,7 +49,7 @@ class FlowSystem {
   const Model& model() const { return model_; }
 
  private:
-  static constexpr int max_neighbours = 4;
+  static constexpr int max_neighbours = max_cell_neighbours;
   struct Neighbour {      // 16 bytes: the double first, so no padding
     double factor = 0.0;  ///< see Face::factor
     CellIndex cell;

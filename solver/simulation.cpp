@@ -52,9 +52,16 @@ class SerialStepper {
     observer_.step_done(info, head_old_, head_);
     history_.accepted(info.period, info.dt, head_old_);
   }
-  void resume_after(std::size_t period, const std::vector<double>& previous_head,
-                    double previous_dt) {
-    history_.resume_after(period, previous_head, previous_dt);
+  void resume(const StartState& start) {
+    if (start.linear_start.size() == static_cast<std::size_t>(system_.n_unknowns()))
+      work_.update = Eigen::Map<const Eigen::VectorXd>(
+          start.linear_start.data(), static_cast<Eigen::Index>(start.linear_start.size()));
+    if (start.step_in_period > 0)
+      history_.resume_after(start.period, start.previous_head, start.previous_dt);
+  }
+  NewtonResult solve_initial_steady() {
+    system_.set_step(0, true, 1.0, head_);
+    return solve_newton(system_, linear_, settings_, head_, work_);
   }
   void period_done(std::size_t period) { observer_.period_done(period); }
   void checkpoint(std::size_t period, int step_in_period, double time, const RunResult& so_far) {
@@ -176,38 +183,8 @@ RunResult run_simulation(const Model& model, SimulationObserver& observer,
   const auto n = static_cast<std::size_t>(model.grid.n_cells());
   std::vector<double> head(n, std::nan(""));
   SerialStepper stepper(system, linear, settings, observer, options, head, work, base);
-  auto fail = [&](std::size_t period, int step, double time, std::string text) {
-    return stepper.finish(mark_failed(result, period, step, time, std::move(text)));
-  };
-  std::size_t first_period = 0;
-  int first_step = 0;
-  if (start) {
-    if (start->head.size() != n)
-      return fail(start->period, 0, start->time, "start state does not fit the grid");
-    head = start->head;
-    if (start->linear_start.size() == static_cast<std::size_t>(system.n_unknowns()))
-      work.update = Eigen::Map<const Eigen::VectorXd>(
-          start->linear_start.data(), static_cast<Eigen::Index>(start->linear_start.size()));
-    first_period = start->period;
-    first_step = start->step_in_period;
-    if (first_step > 0)
-      stepper.resume_after(first_period, start->previous_head, start->previous_dt);
-  } else if (model.initial.steady) {
-    steady_guess(model, layout, head, GridPart::whole(model.grid));
-    apply_fixed_heads(model, 0, head, GridPart::whole(model.grid));
-    system.set_step(0, true, 1.0, head);
-    const NewtonResult nr = solve_newton(system, linear, settings, head, work);
-    result.newton_iterations += nr.iterations;
-    if (!nr.converged)
-      return fail(0, 0, 0.0,
-                  "initial steady state: " + describe_failure(model, 0, 0, 0.0, 0.0, 0, nr));
-  } else {
-    given_initial_heads(model, GridPart::whole(model.grid), head);
-  }
-  if (!start) observer.initial_state(head);
-
-  return run_periods(model, stepper, result, first_period, first_step,
-                     options.checkpoint ? options.checkpoint_every : 0);
+  return run_from_start(model, layout, GridPart::whole(model.grid), stepper, head, start, result,
+                        observer, options.checkpoint ? options.checkpoint_every : 0);
 }
 
 }  // namespace aquiledger

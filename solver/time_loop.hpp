@@ -8,6 +8,8 @@
 //   void period_done(std::size_t period);
 //   void checkpoint(std::size_t period, int step_in_period, double time, const RunResult& so_far);
 //   RunResult finish(RunResult r) const;     adds the linear solver's counters
+//   void resume(const StartState& start);    continues after a checkpoint (heads already set)
+//   NewtonResult solve_initial_steady();     the initial steady state from the current heads
 #include <algorithm>
 #include <cmath>
 #include <span>
@@ -195,6 +197,41 @@ RunResult run_periods(const Model& model, Stepper& stepper, RunResult result,
     take_checkpoint(p + 1, 0, time);
   }
   return stepper.finish(result);
+}
+
+/// A run from its start to its end, the same for both engines (head is the stepper's own:
+/// the whole grid or the rows the part holds). A resumed run continues from its start state;
+/// a fresh one starts from an initial steady state, which the stepper solves from
+/// steady_guess with the first period's fixed heads, or from the given heads.
+template <class Stepper>
+RunResult run_from_start(const Model& model, const SystemLayout& layout, const GridPart& part,
+                         Stepper& stepper, std::vector<double>& head, const StartState* start,
+                         RunResult result, SimulationObserver& observer, int checkpoint_every) {
+  std::size_t first_period = 0;
+  int first_step = 0;
+  const CellWindow<double> window(head, part.first_held());
+  if (start) {
+    if (start->head.size() != head.size())
+      return stepper.finish(mark_failed(result, start->period, 0, start->time,
+                                        "start state does not fit the cells this run holds"));
+    head = start->head;
+    first_period = start->period;
+    first_step = start->step_in_period;
+    stepper.resume(*start);
+  } else if (model.initial.steady) {
+    steady_guess(model, layout, window, part);
+    apply_fixed_heads(model, 0, window, part);
+    const NewtonResult nr = stepper.solve_initial_steady();
+    result.newton_iterations += nr.iterations;
+    if (!nr.converged)
+      return stepper.finish(
+          mark_failed(result, 0, 0, 0.0,
+                      "initial steady state: " + describe_failure(model, 0, 0, 0.0, 0.0, 0, nr)));
+  } else {
+    given_initial_heads(model, part, window);
+  }
+  if (!start) observer.initial_state(head);
+  return run_periods(model, stepper, result, first_period, first_step, checkpoint_every);
 }
 
 }  // namespace aquiledger

@@ -48,7 +48,7 @@ void check_mpi(int code, const char* what) {
   if (code != MPI_SUCCESS) throw std::runtime_error(std::string("MPI failed: ") + what);
 }
 
-constexpr int max_neighbours = 4;
+constexpr int max_neighbours = max_cell_neighbours;
 
 struct Neighbour {
   CellIndex cell;
@@ -248,9 +248,11 @@ struct DistributedEngine::Impl {
                      double& sum) {
     const std::size_t n_owned = part.n_owned();
     const auto first = static_cast<std::size_t>(part.first_owned());
-    const bool transient = !steady;
-    const double inv_dt = transient ? 1.0 / dt : 0.0;
+    const RowStep step = row_step(steady, dt, model.solver.face_thickness);
     const CellValues old(head_old, part.first_held());
+    const auto first_held = static_cast<std::size_t>(part.first_held());
+    auto head_at = [&](CellIndex c) { return h[at(c)]; };
+    auto thickness_at = [&](CellIndex c) { return thickness[at(c) - first_held]; };
     PetscScalar* r;
     check(VecGetArray(residual, &r), "VecGetArray");
     bool changed = false;
@@ -267,31 +269,10 @@ struct DistributedEngine::Impl {
         vals[n++] = 1.0;
       } else {
         const Neighbour* nbs = &neighbours[k * max_neighbours];
-        CellRowInput in;
-        in.head = h[i];
-        if constexpr (!Confined) {
-          in.thickness = thickness[i - static_cast<std::size_t>(part.first_held())];
-          in.face_thickness = model.solver.face_thickness;
-        }
-        in.stress_q = stress_q[k];
-        in.stress_dq = stress_dq[k];
-        if (transient) {
-          in.storage = &storage[k];
-          in.head_old = old[i];
-          in.area = layout.area[i];
-          in.inv_dt = inv_dt;
-        }
-        auto faces = [&](auto&& visit) {
-          for (int s = 0; s < max_neighbours; ++s) {
-            const Neighbour& nb = nbs[s];
-            if (!nb.cell.valid()) break;
-            const std::size_t j = at(nb.cell);
-            if constexpr (Confined)
-              visit(s, nb.factor, h[j], ValueSlope{});
-            else
-              visit(s, nb.factor, h[j], thickness[j - static_cast<std::size_t>(part.first_held())]);
-          }
-        };
+        const CellRowInput in = row_input<Confined>(
+            step, CellIndex{static_cast<std::int32_t>(i)}, head_at, thickness_at, stress_q[k],
+            stress_dq[k], storage[k], old[i], layout.area[i]);
+        auto faces = neighbour_faces<Confined>(nbs, head_at, thickness_at);
         auto off = [&](int s, double value) {
           if (!nbs[s].unknown) return;
           cols[n] = static_cast<PetscInt>(nbs[s].cell.value);
@@ -441,12 +422,22 @@ class DistributedStepper {
         base_(base),
         trial_(head) {}
 
-  /// Continues a run whose last accepted step (of `period`) started from previous_head.
-  void resume_after(std::size_t period, const std::vector<double>& previous_head,
-                    double previous_dt) {
-    history_.resume_after(period, previous_head, previous_dt);
+  void resume(const StartState& start) {
+    if (start.step_in_period > 0)
+      history_.resume_after(start.period, start.previous_head, start.previous_dt);
   }
-
+  NewtonResult solve_initial_steady() {
+    e_.head_old = head_;
+    e_.period = 0;
+    e_.steady = true;
+    e_.dt = 1.0;
+    e_.set_iterate(head_);
+    DistributedProblem problem(e_);
+    const NewtonResult nr = newton_iterate(problem, settings_);
+    e_.update_ghosts();
+    e_.get_iterate(head_);
+    return nr;
+  }
   void apply_fixed_heads(std::size_t period) {
     aquiledger::apply_fixed_heads(e_.model, period, CellWindow<double>(head_, e_.part.first_held()),
                                   e_.part);
@@ -512,42 +503,9 @@ RunResult DistributedEngine::run(SimulationObserver& observer, const SimulationO
   const RunResult base = result;  // counters before this call
   const NewtonSettings settings = newton_settings(model);
   std::vector<double> head(e.part.n_held(), std::nan(""));
-  const CellWindow<double> window(head, e.part.first_held());
   DistributedStepper stepper(e, settings, observer, options, head, base);
-  std::size_t first_period = 0;
-  int first_step = 0;
-  if (start) {
-    if (start->head.size() != head.size())
-      return stepper.finish(mark_failed(result, start->period, 0, start->time,
-                                        "start state does not fit this rank's rows"));
-    head = start->head;
-    first_period = start->period;
-    first_step = start->step_in_period;
-    if (first_step > 0)
-      stepper.resume_after(first_period, start->previous_head, start->previous_dt);
-  } else if (model.initial.steady) {
-    steady_guess(model, e.layout, window, e.part);
-    aquiledger::apply_fixed_heads(model, 0, window, e.part);
-    e.head_old = head;
-    e.period = 0;
-    e.steady = true;
-    e.dt = 1.0;
-    e.set_iterate(head);
-    DistributedProblem problem(e);
-    const NewtonResult nr = newton_iterate(problem, settings);
-    result.newton_iterations += nr.iterations;
-    if (!nr.converged)
-      return stepper.finish(
-          mark_failed(result, 0, 0, 0.0,
-                      "initial steady state: " + describe_failure(model, 0, 0, 0.0, 0.0, 0, nr)));
-    e.update_ghosts();
-    e.get_iterate(head);
-  } else {
-    given_initial_heads(model, e.part, window);
-  }
-  if (!start) observer.initial_state(head);
-  return run_periods(model, stepper, result, first_period, first_step,
-                     options.checkpoint ? options.checkpoint_every : 0);
+  return run_from_start(model, e.layout, e.part, stepper, head, start, result, observer,
+                        options.checkpoint ? options.checkpoint_every : 0);
 }
 
 }  // namespace aquiledger
