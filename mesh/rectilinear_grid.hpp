@@ -34,7 +34,6 @@ class RectilinearGrid {
     return RowCol{c.value / n_cols(), c.value % n_cols()};
   }
   bool is_active(CellIndex c) const { return active_[static_cast<std::size_t>(c.value)] != 0; }
-  std::span<const std::uint8_t> active_mask() const { return active_; }
 
   /// Column width (L) and row height (L).
   double dx(int col) const { return dx_[static_cast<std::size_t>(col)]; }
@@ -49,10 +48,6 @@ class RectilinearGrid {
   /// Cell-centre coordinates (L).
   double x_center(int col) const { return 0.5 * (x_edges_[col] + x_edges_[col + 1]); }
   double y_center(int row) const { return 0.5 * (y_edges_[row] + y_edges_[row + 1]); }
-  /// Distance between the centres of column col and col + 1 (L).
-  double dx_between(int col) const { return 0.5 * (dx(col) + dx(col + 1)); }
-  /// Distance between the centres of row row and row + 1 (L).
-  double dy_between(int row) const { return 0.5 * (dy(row) + dy(row + 1)); }
 
   /// Cell edges: x west to east (n_cols + 1 values), y north to south (n_rows + 1 values).
   std::span<const double> x_edges() const { return x_edges_; }

@@ -124,12 +124,6 @@ const Entry benchmarks[] = {
 
 }  // namespace
 
-std::vector<std::string> verification_benchmark_names() {
-  std::vector<std::string> names;
-  for (const Entry& e : benchmarks) names.emplace_back(e.name);
-  return names;
-}
-
 std::vector<VerificationResult> run_verification_suite(
     const std::function<void(const VerificationResult&)>& on_done) {
   using Clock = std::chrono::steady_clock;

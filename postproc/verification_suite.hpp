@@ -46,9 +46,6 @@ struct WorstPoint {
   void add(double error_value, double tolerance_value);
 };
 
-/// Names of the benchmarks in the order they run.
-std::vector<std::string> verification_benchmark_names();
-
 /// Runs every benchmark (units: metres and days throughout), calling on_done after each.
 std::vector<VerificationResult> run_verification_suite(
     const std::function<void(const VerificationResult&)>& on_done = {});

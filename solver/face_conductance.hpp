@@ -13,11 +13,6 @@ inline double harmonic_face_factor(double w, double ki, double di, double kj, do
   return denom > 0.0 ? 2.0 * w * ki * kj / denom : 0.0;
 }
 
-/// Confined face conductance (L2/T): 2 w Ti Tj / (Ti dj + Tj di); ti, tj transmissivities (L2/T).
-inline double confined_face_conductance(double w, double ti, double di, double tj, double dj) {
-  return harmonic_face_factor(w, ti, di, tj, dj);
-}
-
 /// Flow into cell i across the face (L3/T) and its derivatives (L2/T) with respect to hi, hj.
 struct FaceFlow {
   double q = 0.0;

@@ -30,11 +30,6 @@ class PeriodValues {
     return tables_[table_of_period_[period]];
   }
   bool empty() const { return tables_.empty(); }
-  /// True when period and period - 1 use the same table (no change of stress).
-  bool same_as_previous(std::size_t period) const {
-    return period == 0 || table_of_period_.empty() ||
-           table_of_period_[period] == table_of_period_[period - 1];
-  }
   const std::vector<std::vector<double>>& tables() const { return tables_; }
   const std::vector<std::uint32_t>& table_of_period() const { return table_of_period_; }
 

@@ -8,12 +8,6 @@
 
 namespace aquiledger {
 
-bool is_field_node(const toml::node& node) {
-  if (number_of(node)) return true;
-  if (auto t = node.as_table()) return t->contains("file") || t->contains("zones");
-  return false;
-}
-
 const ArraySource* load_cached(ReaderContext& ctx, const std::filesystem::path& file,
                                const SourceSpot& at, const std::string& key) {
   auto it = ctx.array_cache.find(file);

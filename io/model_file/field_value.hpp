@@ -25,9 +25,6 @@ struct CellField {
   CellWindow<const double> cells() const { return {std::span<const double>(values), first}; }
 };
 
-/// True when the node looks like a field value (a number or a table with file/zones).
-bool is_field_node(const toml::node& node);
-
 /// Reads a field value; needs ctx.shape. Returns nullopt (after reporting) when invalid.
 /// With ctx.band set, keeps the values of the band's rows only (CellField::first on).
 std::optional<CellField> read_field(ReaderContext& ctx, const toml::node& node,

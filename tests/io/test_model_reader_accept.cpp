@@ -236,7 +236,6 @@ TEST_CASE("per-period values: numbers, arrays and a list of field values", "[rea
   CHECK(r.rate.at(0, 7) == 0.001);
   CHECK(r.rate.at(1, 0) == 1.0);
   CHECK(r.rate.at(1, 11) == 12.0);
-  CHECK_FALSE(r.rate.same_as_previous(1));
 }
 
 TEST_CASE("edges follow an irregular active mask", "[reader][accept]") {

@@ -14,8 +14,6 @@ TEST_CASE("variable spacing gives true edges, centres and areas", "[mesh]") {
   CHECK(g.x_center(1) == Approx(120.0));
   CHECK(g.y_center(0) == Approx(217.5));  // northern row
   CHECK(g.area(g.cell(1, 2)) == Approx(450.0));
-  CHECK(g.dx_between(0) == Approx(15.0));
-  CHECK(g.dy_between(0) == Approx(10.0));
 }
 
 TEST_CASE("locate follows the raster convention", "[mesh]") {
