@@ -107,43 +107,4 @@ std::vector<double> ObservationSampler::sample(CellValues head, const GridPart& 
   return values;
 }
 
-ResidualStatistics residual_statistics(const std::vector<MeasuredHead>& measured,
-                                       std::span<const double> times,
-                                       std::span<const double> simulated) {
-  if (times.size() != simulated.size())
-    throw std::invalid_argument("residual_statistics: times and simulated differ in length");
-  ResidualStatistics stats;
-  if (times.empty()) return stats;
-  double sum = 0.0, sum_sq = 0.0;
-  double lowest = std::numeric_limits<double>::infinity();
-  double highest = -lowest;
-  for (const MeasuredHead& m : measured) {
-    if (m.time < times.front() || m.time > times.back() || std::isnan(m.head)) continue;
-    // First output time >= the measured time; interpolate from the one before it.
-    const auto it = std::lower_bound(times.begin(), times.end(), m.time);
-    const std::size_t hi = static_cast<std::size_t>(it - times.begin());
-    double sim;
-    if (times[hi] == m.time || hi == 0) {
-      sim = simulated[hi];
-    } else {
-      const std::size_t lo = hi - 1;
-      const double f = (m.time - times[lo]) / (times[hi] - times[lo]);
-      sim = simulated[lo] + f * (simulated[hi] - simulated[lo]);
-    }
-    if (std::isnan(sim)) continue;
-    const double error = sim - m.head;
-    sum += error;
-    sum_sq += error * error;
-    lowest = std::min(lowest, m.head);
-    highest = std::max(highest, m.head);
-    ++stats.count;
-  }
-  if (stats.count == 0) return stats;
-  stats.mean_error = sum / stats.count;
-  stats.rmse = std::sqrt(sum_sq / stats.count);
-  const double range = highest - lowest;
-  stats.scaled_rmse = range > 0.0 ? stats.rmse / range : std::numeric_limits<double>::quiet_NaN();
-  return stats;
-}
-
 }  // namespace aquiledger

@@ -30,21 +30,4 @@ class ObservationSampler {
   GridPart whole_;
 };
 
-/// Residual statistics of simulated against measured heads (for reports).
-struct ResidualStatistics {
-  int count = 0;
-  double mean_error = 0.0;   ///< L, mean of (simulated - measured)
-  double rmse = 0.0;         ///< L
-  double scaled_rmse = 0.0;  ///< -, rmse over the range of measured heads
-};
-
-/// Compares measured heads with one observation's simulated series. times (T, ascending) and
-/// simulated (L) are the output times and heads of the run; simulated heads are interpolated
-/// linearly in time at each measured time. Measured times outside [times.front(),
-/// times.back()] and NaN heads are left out of the count. scaled_rmse is rmse / (max - min)
-/// of the measured heads used, NaN when they are all equal; all fields 0 when count is 0.
-ResidualStatistics residual_statistics(const std::vector<MeasuredHead>& measured,
-                                       std::span<const double> times,
-                                       std::span<const double> simulated);
-
 }  // namespace aquiledger

@@ -41,6 +41,7 @@ struct ReportOptions {
   std::optional<std::filesystem::path> output_file;  ///< default RESULTS/report.html
   std::optional<std::filesystem::path> model_file;   ///< default: summary.json's model_file
   bool without_model = false;                        ///< no measured heads
+  std::optional<std::string> maps_at;                ///< "all" or times "T1,T2" (T)
   bool quiet = false;                                ///< errors only
 };
 

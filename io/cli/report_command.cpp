@@ -16,12 +16,21 @@ int run_report_command(const ReportOptions& options) {
   o.model_file = options.model_file;
   o.without_model = options.without_model;
   try {
+    if (options.maps_at) parse_maps_at(*options.maps_at, o);
+  } catch (const ReportOptionError& e) {
+    std::fprintf(stderr, "error: %s\nNo report was written.\n", e.what());
+    return exit_usage;
+  }
+  try {
     const ResultsReportSummary s = write_results_report(o);
     if (!s.note.empty() && !options.quiet) std::fprintf(stderr, "note: %s\n", s.note.c_str());
     if (!options.quiet)
       std::fprintf(stdout,
                    "aquiledger report: %d charts (%d observations with measured heads) in %s\n",
                    s.charts, s.observations_with_measurements, o.output_file.string().c_str());
+  } catch (const ReportOptionError& e) {
+    std::fprintf(stderr, "error: %s\nNo report was written.\n", e.what());
+    return exit_usage;
   } catch (const ReportModelError& e) {
     std::fprintf(stderr, "error: %s\n", e.what());
     return exit_invalid_model;

@@ -70,6 +70,21 @@ std::vector<PlausibilityWarning> plausibility_warnings(const Model& model) {
   if (!std::isnan(kyr.first)) kr = {std::min(kr.first, kyr.first), std::max(kr.second, kyr.second)};
   check_range(out, "[aquifer].k", "hydraulic conductivity of", kr, 1.0e-4 * m_per_day_in_model,
               1.0e4 * m_per_day_in_model, unit);
+  // Measured heads the report cannot compare: every measured time of a bore outside the run.
+  double end = 0.0;
+  for (const Period& p : model.periods) end += p.length;
+  for (const Observation& o : model.observations) {
+    if (o.measured.empty()) continue;
+    bool inside = false;
+    for (const MeasuredHead& m : o.measured) inside |= m.time >= 0.0 && m.time <= end;
+    if (!inside)
+      out.push_back({"[[observation]] " + o.name,
+                     "none of the " + std::to_string(o.measured.size()) + " measured heads of " +
+                         o.name + " (" + o.measured_file.string() +
+                         ") falls inside the run (time 0 to " + format_range(end, end) + " " +
+                         model.time_unit + "), so they cannot be compared with the model; " +
+                         "check their times against the periods"});
+  }
   return out;
 }
 

@@ -42,7 +42,8 @@ table { border-collapse: collapse; font-size: .85em; }
 td, th { border: 1px solid #d8d4c8; padding: .25em .6em; text-align: left; }
 th { background: #eef3f3; }
 td.pass { color: #1c6b2b; font-weight: bold; } td.fail { color: #a4161a; font-weight: bold; }
-#render-status { font-size: .8em; color: #6b7a82; }
+#render-status { display: none; }
+#render-status.error { display: block; color: #a4161a; font-weight: bold; }
 )";
 
 }  // namespace
@@ -145,7 +146,7 @@ std::string HtmlReport::render(const std::string& vega_library) const {
       "<script>window.reportErrors=[];window.onerror=function(m){window.reportErrors.push(String(m)"
       ");"
       "var e=document.getElementById('render-status');if(e){e.textContent='error: "
-      "'+m;}};</script>\n";
+      "'+m;e.className='error';}};</script>\n";
   page += "<script>\n" + vega_library + "</script>\n</head><body>\n<h1>" + html_escape(title_) +
           "</h1>\n<p id=\"render-status\">rendering</p>\n" + body_;
   page += "<script>\n(function(){var specs=" + specs + ";\n";
@@ -154,8 +155,9 @@ std::string HtmlReport::render(const std::string& vega_library) const {
       "Promise.all(specs.map(function(s,i){return new vega.View(vega.parse(s),"
       "{renderer:'svg',container:'#chart-'+i,hover:true}).runAsync();}))"
       ".then(function(){status.textContent=window.reportErrors.length?'error: "
-      "'+window.reportErrors[0]:'ok';})"
-      ".catch(function(e){status.textContent='error: '+e;});})();\n</script>\n</body></html>\n";
+      "'+window.reportErrors[0]:'ok';if(window.reportErrors.length)status.className='error';})"
+      ".catch(function(e){status.textContent='error: "
+      "'+e;status.className='error';});})();\n</script>\n</body></html>\n";
   return page;
 }
 

@@ -6,6 +6,7 @@
 #include <optional>
 #include <stdexcept>
 #include <string>
+#include <vector>
 
 namespace aquiledger {
 
@@ -14,7 +15,19 @@ struct ResultsReportOptions {
   std::filesystem::path output_file;                ///< the HTML page
   std::optional<std::filesystem::path> model_file;  ///< for measured heads (else summary.json)
   bool without_model = false;                       ///< no measured heads: the model is not read
+  std::optional<std::vector<double>> maps_at;       ///< T, output times to map (default: last)
+  bool maps_at_all = false;                         ///< map every output time
 };
+
+/// An option names something the results do not hold (e.g. --maps-at a time without a field
+/// file): nothing was written.
+struct ReportOptionError : std::runtime_error {
+  using std::runtime_error::runtime_error;
+};
+
+/// Parses --maps-at: "all", or times separated by commas ("10,365.25"). Throws
+/// ReportOptionError naming the bad value.
+void parse_maps_at(const std::string& text, ResultsReportOptions& options);
 
 /// The model whose measured heads the report should show cannot be read (or is not known):
 /// nothing was written.

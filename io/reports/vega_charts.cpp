@@ -27,10 +27,35 @@ std::string axis_scale(const std::string& name, const std::string& data, const s
       name, log ? "log" : "linear", data, field, range);
 }
 
+/// A Vega expression naming datum.v's class: "names[datum.v]".
+std::string name_lookup(const std::vector<std::string>& names) {
+  std::string list = "[";
+  for (std::size_t k = 0; k < names.size(); ++k) {
+    if (k) list += ",";
+    list += vega_json_string(names[k]);
+  }
+  return list + "][datum.v]";
+}
+
+std::string y_scale_with_rules(bool log) {
+  return fmt::format(
+      R"J({{"name":"y","type":"{}","domain":{{"fields":[{{"data":"all","field":"y"}},{{"data":"hrules","field":"y"}}]}},"range":"height","nice":true,"zero":false}})J",
+      log ? "log" : "linear");
+}
+
 }  // namespace
 
 std::string line_chart_spec(const std::vector<ChartSeries>& series, const AxisOptions& x,
-                            const AxisOptions& y, int width, int height) {
+                            const AxisOptions& y, int width, int height,
+                            const std::vector<ChartRule>& rules) {
+  std::string vrules = "[", bands = "[", hrules = "[";
+  for (const ChartRule& r : rules) {
+    std::string& target = !r.vertical ? hrules : std::isnan(r.x1) ? vrules : bands;
+    if (target.size() > 1) target += ",";
+    target += fmt::format(R"J({{"t":{},"x0":{},"x1":{},"y":{}}})J", vega_json_string(r.label),
+                          vega_json_number(r.x0), vega_json_number(r.x1), vega_json_number(r.y));
+  }
+  vrules += "]", bands += "]", hrules += "]";
   std::string lines = "[", points = "[", all = "[", labels = "[";
   for (const ChartSeries& s : series) {
     if (labels.size() > 1) labels += ",";
@@ -52,12 +77,25 @@ std::string line_chart_spec(const std::vector<ChartSeries>& series, const AxisOp
   lines += "]", points += "]", all += "]", labels += "]";
   return fmt::format(
       R"J({{"$schema":"https://vega.github.io/schema/vega/v5.json","width":{w},"height":{h},"padding":8,)J"
-      R"J("data":[{{"name":"all","values":{all}}},{{"name":"lines","values":{lines}}},{{"name":"points","values":{points}}}],)J"
+      R"J("data":[{{"name":"all","values":{all}}},{{"name":"lines","values":{lines}}},{{"name":"points","values":{points}}},)J"
+      R"J({{"name":"vrules","values":{vrules}}},{{"name":"bands","values":{bands}}},{{"name":"hrules","values":{hrules}}}],)J"
       R"J("scales":[{xs},{ys},{{"name":"colour","type":"ordinal","domain":{labels},"range":{palette}}}],)J"
       R"J("axes":[{{"orient":"bottom","scale":"x","title":{xt},"grid":true,"gridOpacity":0.25}},)J"
       R"J({{"orient":"left","scale":"y","title":{yt},"grid":true,"gridOpacity":0.25}}],)J"
       R"J("legends":[{{"stroke":"colour","fill":"colour","orient":"top-right","title":null}}],)J"
-      R"J("marks":[{{"type":"group","from":{{"facet":{{"name":"one","data":"lines","groupby":"s"}}}},)J"
+      R"J("marks":[{{"type":"rect","from":{{"data":"bands"}},"encode":{{"enter":{{"x":{{"scale":"x","field":"x0"}},"x2":{{"scale":"x","field":"x1"}},)J"
+      R"J("y":{{"value":0}},"y2":{{"signal":"height"}},"fill":{{"value":"#c9a227"}},"fillOpacity":{{"value":0.15}}}}}}}},)J"
+      R"J({{"type":"text","from":{{"data":"bands"}},"encode":{{"enter":{{"x":{{"scale":"x","field":"x0","offset":3}},"y":{{"value":11}},)J"
+      R"J("text":{{"field":"t"}},"fontSize":{{"value":10}},"fill":{{"value":"#7a5d00"}}}}}}}},)J"
+      R"J({{"type":"rule","from":{{"data":"vrules"}},"encode":{{"enter":{{"x":{{"scale":"x","field":"x0"}},"y":{{"value":0}},"y2":{{"signal":"height"}},)J"
+      R"J("stroke":{{"value":"#888"}},"strokeDash":{{"value":[4,3]}}}}}}}},)J"
+      R"J({{"type":"text","from":{{"data":"vrules"}},"encode":{{"enter":{{"x":{{"scale":"x","field":"x0","offset":3}},"y":{{"signal":"height","offset":-4}},)J"
+      R"J("text":{{"field":"t"}},"fontSize":{{"value":9}},"fill":{{"value":"#555"}}}}}}}},)J"
+      R"J({{"type":"rule","from":{{"data":"hrules"}},"encode":{{"enter":{{"y":{{"scale":"y","field":"y"}},"x":{{"value":0}},"x2":{{"signal":"width"}},)J"
+      R"J("stroke":{{"value":"#8e4585"}},"strokeWidth":{{"value":1.5}}}}}}}},)J"
+      R"J({{"type":"text","from":{{"data":"hrules"}},"encode":{{"enter":{{"y":{{"scale":"y","field":"y","offset":-4}},"x":{{"value":4}},)J"
+      R"J("text":{{"field":"t"}},"fontSize":{{"value":10}},"fill":{{"value":"#8e4585"}}}}}}}},)J"
+      R"J({{"type":"group","from":{{"facet":{{"name":"one","data":"lines","groupby":"s"}}}},)J"
       R"J("marks":[{{"type":"line","from":{{"data":"one"}},"sort":{{"field":"datum.i"}},"encode":{{"enter":{{)J"
       R"J("x":{{"scale":"x","field":"x"}},"y":{{"scale":"y","field":"y"}},"stroke":{{"scale":"colour","field":"s"}},"strokeWidth":{{"value":2}}}}}}}}]}},)J"
       R"J({{"type":"symbol","from":{{"data":"points"}},"encode":{{"enter":{{"x":{{"scale":"x","field":"x"}},)J"
@@ -65,9 +103,11 @@ std::string line_chart_spec(const std::vector<ChartSeries>& series, const AxisOp
       R"J("size":{{"value":30}},"strokeWidth":{{"value":1.5}}}}}}}}]}})J",
       fmt::arg("w", width), fmt::arg("h", height), fmt::arg("all", all), fmt::arg("lines", lines),
       fmt::arg("points", points), fmt::arg("xs", axis_scale("x", "all", "x", "width", x.log)),
-      fmt::arg("ys", axis_scale("y", "all", "y", "height", y.log)), fmt::arg("labels", labels),
-      fmt::arg("palette", palette), fmt::arg("xt", vega_json_string(x.title)),
-      fmt::arg("yt", vega_json_string(y.title)));
+      fmt::arg("ys", hrules.size() > 2 ? y_scale_with_rules(y.log)
+                                       : axis_scale("y", "all", "y", "height", y.log)),
+      fmt::arg("vrules", vrules), fmt::arg("bands", bands), fmt::arg("hrules", hrules),
+      fmt::arg("labels", labels), fmt::arg("palette", palette),
+      fmt::arg("xt", vega_json_string(x.title)), fmt::arg("yt", vega_json_string(y.title)));
 }
 
 std::string stacked_bar_spec(const std::vector<BarValue>& values, const std::string& x_title,
@@ -94,7 +134,7 @@ std::string stacked_bar_spec(const std::vector<BarValue>& values, const std::str
       R"J({{"name":"colour","type":"ordinal","domain":{{"data":"bars","field":"g","sort":true}},"range":{palette}}}],)J"
       R"J("axes":[{{"orient":"bottom","scale":"x","title":{xt},"labelAngle":-30,"labelAlign":"right"}},)J"
       R"J({{"orient":"left","scale":"y","title":{yt},"grid":true,"gridOpacity":0.25}}],)J"
-      R"J("legends":[{{"fill":"colour","orient":"right","title":"component"}}],)J"
+      R"J("legends":[{{"fill":"colour","orient":"right","title":"water"}}],)J"
       R"J("marks":[{{"type":"rect","from":{{"data":"bars"}},"encode":{{"enter":{{"x":{{"scale":"x","field":"c"}},)J"
       R"J("width":{{"scale":"x","band":1}},"y":{{"scale":"y","field":"y0"}},"y2":{{"scale":"y","field":"y1"}},)J"
       R"J("fill":{{"scale":"colour","field":"g"}},"tooltip":{{"signal":"datum.g + ': ' + format(datum.v, '.4~s')"}}}}}}}},)J"
@@ -104,9 +144,24 @@ std::string stacked_bar_spec(const std::vector<BarValue>& values, const std::str
       fmt::arg("xt", vega_json_string(x_title)), fmt::arg("yt", vega_json_string(y_title)));
 }
 
-std::string heatmap_spec(const std::vector<double>& x_edges, const std::vector<double>& y_edges,
-                         const std::vector<double>& values, const std::string& value_title,
-                         const std::string& length_unit, const std::string& scheme, int width) {
+namespace {
+
+std::string feature_rows(const std::vector<MapFeature>& features) {
+  std::string rows = "[";
+  for (const MapFeature& f : features) {
+    if (rows.size() > 1) rows += ",";
+    rows += fmt::format(R"J({{"k":{},"t":{},"x":{},"y":{}}})J", vega_json_string(f.kind),
+                        vega_json_string(f.label), vega_json_number(f.x), vega_json_number(f.y));
+  }
+  return rows + "]";
+}
+
+/// Cells as rectangles with a colour scale (given as JSON), features on top with their own
+/// legend (shape and colour by kind).
+std::string cell_map_spec(const std::vector<double>& x_edges, const std::vector<double>& y_edges,
+                          const std::vector<double>& values, const std::string& colour_scale,
+                          const std::string& colour_legend, const std::string& length_unit,
+                          int width, const std::vector<MapFeature>& features) {
   const std::size_t n_cols = x_edges.size() - 1, n_rows = y_edges.size() - 1;
   std::string rows = "[";
   for (std::size_t r = 0; r < n_rows; ++r)
@@ -125,20 +180,107 @@ std::string heatmap_spec(const std::vector<double>& x_edges, const std::vector<d
   const int height = std::max(80, static_cast<int>(std::lround(width * span_y / span_x)));
   return fmt::format(
       R"J({{"$schema":"https://vega.github.io/schema/vega/v5.json","width":{w},"height":{h},"padding":8,)J"
-      R"J("data":[{{"name":"cells","values":{rows}}}],)J"
+      R"J("data":[{{"name":"cells","values":{rows}}},{{"name":"features","values":{features}}}],)J"
       R"J("scales":[{{"name":"x","type":"linear","domain":[{x0},{x1}],"range":"width","zero":false}},)J"
       R"J({{"name":"y","type":"linear","domain":[{y0},{y1}],"range":"height","zero":false}},)J"
-      R"J({{"name":"colour","type":"linear","domain":{{"data":"cells","field":"v"}},"range":{{"scheme":"{scheme}"}},"zero":false}}],)J"
+      R"J({colour},)J"
+      R"J({{"name":"kind","type":"ordinal","domain":["well","river cell","drain cell","bore"],"range":["circle","square","diamond","triangle-up"]}},)J"
+      R"J({{"name":"kindcolour","type":"ordinal","domain":["well","river cell","drain cell","bore"],"range":["#d00000","#1f5fd6","#2e8b57","#ffffff"]}}],)J"
       R"J("axes":[{{"orient":"bottom","scale":"x","title":"x ({lu})"}},{{"orient":"left","scale":"y","title":"y ({lu})"}}],)J"
-      R"J("legends":[{{"fill":"colour","type":"gradient","title":{vt},"gradientLength":{{"signal":"height * 0.8"}}}}],)J"
+      R"J("legends":[{legend},{{"shape":"kind","fill":"kindcolour","title":"drawn on the map","orient":"right","symbolStrokeColor":"#222"}}],)J"
       R"J("marks":[{{"type":"rect","from":{{"data":"cells"}},"encode":{{"enter":{{"x":{{"scale":"x","field":"a"}},)J"
       R"J("x2":{{"scale":"x","field":"b"}},"y":{{"scale":"y","field":"n"}},"y2":{{"scale":"y","field":"s"}},)J"
-      R"J("fill":{{"scale":"colour","field":"v"}},"tooltip":{{"signal":"format(datum.v, '.4~g')"}}}}}}}}]}})J",
+      R"J("fill":{{"scale":"colour","field":"v"}},"tooltip":{{"signal":"format(datum.v, '.4~g')"}}}}}}}},)J"
+      R"J({{"type":"symbol","from":{{"data":"features"}},"encode":{{"enter":{{"x":{{"scale":"x","field":"x"}},"y":{{"scale":"y","field":"y"}},)J"
+      R"J("shape":{{"scale":"kind","field":"k"}},"fill":{{"scale":"kindcolour","field":"k"}},"stroke":{{"value":"#222"}},"size":{{"value":60}},)J"
+      R"J("tooltip":{{"signal":"datum.k + ': ' + datum.t"}}}}}}}}]}})J",
       fmt::arg("w", width), fmt::arg("h", height), fmt::arg("rows", rows),
+      fmt::arg("features", feature_rows(features)),
       fmt::arg("x0", vega_json_number(x_edges.front())),
       fmt::arg("x1", vega_json_number(x_edges.back())),
       fmt::arg("y0", vega_json_number(y_edges.back())),
-      fmt::arg("y1", vega_json_number(y_edges.front())), fmt::arg("scheme", scheme),
+      fmt::arg("y1", vega_json_number(y_edges.front())), fmt::arg("colour", colour_scale),
+      fmt::arg("legend", colour_legend), fmt::arg("lu", length_unit));
+}
+
+}  // namespace
+
+std::string heatmap_spec(const std::vector<double>& x_edges, const std::vector<double>& y_edges,
+                         const std::vector<double>& values, const std::string& value_title,
+                         const std::string& length_unit, const std::string& scheme, int width,
+                         const std::vector<MapFeature>& features) {
+  return cell_map_spec(
+      x_edges, y_edges, values,
+      fmt::format(
+          R"J({{"name":"colour","type":"linear","domain":{{"data":"cells","field":"v"}},"range":{{"scheme":"{}"}},"zero":false,"nice":true}})J",
+          scheme),
+      fmt::format(
+          R"J({{"fill":"colour","type":"gradient","title":{},"format":".4~g","gradientLength":{{"signal":"height * 0.6"}}}})J",
+          vega_json_string(value_title)),
+      length_unit, width, features);
+}
+
+std::string class_map_spec(const std::vector<double>& x_edges, const std::vector<double>& y_edges,
+                           const std::vector<double>& values,
+                           const std::vector<std::string>& class_names,
+                           const std::vector<std::string>& class_colours,
+                           const std::string& length_unit, int width,
+                           const std::vector<MapFeature>& features) {
+  // Class numbers become their names, so the legend reads in plain words.
+  std::vector<double> codes(values.size(), std::nan(""));
+  for (std::size_t i = 0; i < values.size(); ++i)
+    if (std::isfinite(values[i]) && values[i] >= 0.0 && values[i] < double(class_names.size()))
+      codes[i] = values[i];
+  std::string names = "[", colours = "[";
+  for (std::size_t k = 0; k < class_names.size(); ++k) {
+    if (k) names += ",", colours += ",";
+    names += vega_json_string(class_names[k]);
+    colours += vega_json_string(k < class_colours.size() ? class_colours[k] : "#999");
+  }
+  names += "]", colours += "]";
+  std::string spec = cell_map_spec(
+      x_edges, y_edges, codes,
+      fmt::format(R"J({{"name":"colour","type":"ordinal","domain":{},"range":{}}})J", names,
+                  colours),
+      R"J({"fill":"colour","title":"cell state","orient":"right"})J", length_unit, width, features);
+  // Colour by the class name: each cell's value v is the class number.
+  const std::string by_value = R"J("fill":{"scale":"colour","field":"v"})J";
+  const std::size_t at = spec.find(by_value);
+  if (at != std::string::npos)
+    spec.replace(at, by_value.size(),
+                 R"J("fill":{"scale":"colour","signal":)J" +
+                     vega_json_string(name_lookup(class_names)) + "}");
+  return spec;
+}
+
+std::string residual_map_spec(const std::vector<MapPoint>& points, const std::string& value_title,
+                              const std::string& length_unit, int width, int height) {
+  std::string rows = "[";
+  double largest = 0.0;
+  for (const MapPoint& p : points) {
+    if (!std::isfinite(p.value)) continue;
+    if (rows.size() > 1) rows += ",";
+    rows += fmt::format(R"J({{"b":{},"x":{},"y":{},"v":{}}})J", vega_json_string(p.label),
+                        vega_json_number(p.x), vega_json_number(p.y), vega_json_number(p.value));
+    largest = std::max(largest, std::abs(p.value));
+  }
+  rows += "]";
+  if (largest == 0.0) largest = 1.0;
+  return fmt::format(
+      R"J({{"$schema":"https://vega.github.io/schema/vega/v5.json","width":{w},"height":{h},"padding":8,)J"
+      R"J("data":[{{"name":"bores","values":{rows}}}],)J"
+      R"J("scales":[{{"name":"x","type":"linear","domain":{{"data":"bores","field":"x"}},"range":"width","zero":false,"nice":true,"padding":30}},)J"
+      R"J({{"name":"y","type":"linear","domain":{{"data":"bores","field":"y"}},"range":"height","zero":false,"nice":true,"padding":30}},)J"
+      R"J({{"name":"colour","type":"linear","domain":[{lo},{hi}],"range":{{"scheme":"redblue"}},"reverse":true}}],)J"
+      R"J("axes":[{{"orient":"bottom","scale":"x","title":"x ({lu})","format":"~s"}},{{"orient":"left","scale":"y","title":"y ({lu})","format":"~s"}}],)J"
+      R"J("legends":[{{"fill":"colour","type":"gradient","title":{vt},"format":".2~f"}}],)J"
+      R"J("marks":[{{"type":"symbol","from":{{"data":"bores"}},"encode":{{"enter":{{"x":{{"scale":"x","field":"x"}},)J"
+      R"J("y":{{"scale":"y","field":"y"}},"size":{{"value":220}},"fill":{{"scale":"colour","field":"v"}},"stroke":{{"value":"#333"}},)J"
+      R"J("tooltip":{{"signal":"datum.b + ': ' + format(datum.v, '.3~f')"}}}}}}}},)J"
+      R"J({{"type":"text","from":{{"data":"bores"}},"encode":{{"enter":{{"x":{{"scale":"x","field":"x","offset":10}},)J"
+      R"J("y":{{"scale":"y","field":"y","offset":-8}},"text":{{"signal":"datum.b + ' (' + format(datum.v, '+.2~f') + ')'"}},"fontSize":{{"value":11}},"fill":{{"value":"#1d2b33"}}}}}}}}]}})J",
+      fmt::arg("w", width), fmt::arg("h", height), fmt::arg("rows", rows),
+      fmt::arg("lo", vega_json_number(-largest)), fmt::arg("hi", vega_json_number(largest)),
       fmt::arg("lu", length_unit), fmt::arg("vt", vega_json_string(value_title)));
 }
 

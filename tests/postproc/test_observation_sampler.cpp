@@ -94,28 +94,3 @@ TEST_CASE("corner quarter-cells and inactive neighbours take the containing cell
   CHECK(std::isnan(s[4]));
   CHECK(std::isnan(s[5]));
 }
-
-// Hand computation (simulated times 0, 10, 20 with heads 50, 48, 47):
-//   measured (5, 48.5): simulated 50 + 0.5 (48 - 50) = 49.0, error +0.5
-//   measured (10, 48.2): simulated 48.0, error -0.2
-//   measured (15, 47.0): simulated 48 + 0.5 (47 - 48) = 47.5, error +0.5
-//   measured (25, 46.0): after the last output time, left out
-//   mean error = (0.5 - 0.2 + 0.5) / 3 = 0.8 / 3 = 0.26667
-//   RMSE = sqrt((0.25 + 0.04 + 0.25) / 3) = sqrt(0.18) = 0.42426
-//   scaled RMSE = 0.42426 / (48.5 - 47.0) = 0.28284
-// Tolerance: the inputs carry about 1e-16 relative rounding; 1e-12 leaves ample room.
-TEST_CASE("residual statistics match a hand computation", "[postproc][observation]") {
-  const std::vector<MeasuredHead> measured = {
-      {5.0, 48.5}, {10.0, 48.2}, {15.0, 47.0}, {25.0, 46.0}};
-  const std::vector<double> times = {0.0, 10.0, 20.0};
-  const std::vector<double> simulated = {50.0, 48.0, 47.0};
-  const ResidualStatistics r = residual_statistics(measured, times, simulated);
-  CHECK(r.count == 3);
-  CHECK(r.mean_error == Approx(0.8 / 3.0).epsilon(1e-12));
-  CHECK(r.rmse == Approx(std::sqrt(0.18)).epsilon(1e-12));
-  CHECK(r.scaled_rmse == Approx(std::sqrt(0.18) / 1.5).epsilon(1e-12));
-
-  const ResidualStatistics none = residual_statistics({{30.0, 1.0}}, times, simulated);
-  CHECK(none.count == 0);
-  CHECK(none.rmse == 0.0);
-}
