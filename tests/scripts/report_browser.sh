@@ -51,9 +51,38 @@ check_page() {  # check_page <page> <minimum charts>
   fi
 }
 
-# Demo report: 5 periods' budget, storage, imbalance, 3 hydrographs, 2 x 2 maps.
-check_page "$tmp/report.html" 10
-browse "$tmp/report.html" --window-size=1100,3000 --screenshot="$tmp/report.png" >/dev/null
+# Demo report: volumes and mean rates, storage, imbalance, converted cells, 3 hydrographs,
+# calibration scatter and residual map, and the 4 maps at the last output time.
+check_page "$tmp/report.html" 14
+dom=$(browse "$tmp/report.html" --dump-dom)
+for heading in "About this run" "Stress periods" "Water budget by stress period" "Mass balance" \
+  "Cells converted between confined, water table and dry" "Well shortfall" \
+  "Hydrographs at the bores" "Calibration: simulated against measured heads" "Maps at time"; do
+  if ! grep -q "<h2>$heading" <<<"$dom"; then
+    echo "FAILED: no section heading '$heading'" >&2
+    exit 1
+  fi
+done
+# No NaN and no error text in what a reader sees (scripts, the Vega library among them, and
+# the hidden status marker left out).
+visible=$(perl -0pe 's/<script.*?<\/script>//gs; s/<p id="render-status"[^>]*>[^<]*//; s/<[^>]*>/ /g' <<<"$dom")
+if grep -qiw -e 'nan' -e 'error:' -e 'undefined' <<<"$visible"; then
+  echo "FAILED: the rendered page shows 'nan', 'undefined' or an error" >&2
+  exit 1
+fi
+# --maps-at: every output time maps; a bad value writes nothing and exits 64.
+"$exe" report "$tmp" --maps-at all --out "$tmp/all.html" --quiet
+check_page "$tmp/all.html" 20
+set +e
+"$exe" report "$tmp" --maps-at 12x --out "$tmp/bad.html" --quiet 2>/dev/null
+status=$?
+set -e
+if ((status != 64)) || [[ -e "$tmp/bad.html" ]]; then
+  echo "FAILED: --maps-at 12x gave status $status (expected 64, no page)" >&2
+  exit 1
+fi
+browse "$tmp/report.html" --window-size=1100,9000 --screenshot="$tmp/report.png" >/dev/null
+if [[ -n "${REPORT_SCREENSHOT:-}" ]]; then cp "$tmp/report.png" "$REPORT_SCREENSHOT"; fi
 if [[ ! -s "$tmp/report.png" ]]; then
   echo "FAILED: no screenshot" >&2
   exit 1
