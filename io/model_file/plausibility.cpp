@@ -73,6 +73,8 @@ std::vector<PlausibilityWarning> plausibility_warnings(const Model& model) {
   // Measured heads the report cannot compare: every measured time of a bore outside the run.
   double end = 0.0;
   for (const Period& p : model.periods) end += p.length;
+  char end_text[32];  // the run's end as the periods give it (1275, not 1.28e+03)
+  std::snprintf(end_text, sizeof end_text, "%.10g", end);
   for (const Observation& o : model.observations) {
     if (o.measured.empty()) continue;
     bool inside = false;
@@ -81,7 +83,7 @@ std::vector<PlausibilityWarning> plausibility_warnings(const Model& model) {
       out.push_back({"[[observation]] " + o.name,
                      "none of the " + std::to_string(o.measured.size()) + " measured heads of " +
                          o.name + " (" + o.measured_file.string() +
-                         ") falls inside the run (time 0 to " + format_range(end, end) + " " +
+                         ") falls inside the run (time 0 to " + std::string(end_text) + " " +
                          model.time_unit + "), so they cannot be compared with the model; " +
                          "check their times against the periods"});
   }

@@ -117,10 +117,18 @@ std::string plain_component(const std::string& c) {
   return found == words.end() ? c : found->second;
 }
 
-/// A number for a table: 4 significant digits, no long zero-padded decimals.
+/// A number for a table, read by people: from 1000 up a whole number with thousands
+/// separators (14,261,234), below that 4 significant digits; never an exponent above 1000.
 std::string table_number(double v) {
   if (!std::isfinite(v)) return "not defined";
-  return fmt::format("{:.4g}", v);
+  if (std::abs(v) < 1000.0) return fmt::format("{:.4g}", v);
+  const std::string digits = fmt::format("{:.0f}", std::abs(v));
+  std::string grouped;
+  for (std::size_t i = 0; i < digits.size(); ++i) {
+    if (i > 0 && (digits.size() - i) % 3 == 0) grouped += ',';
+    grouped += digits[i];
+  }
+  return (v < 0.0 ? "-" : "") + grouped;
 }
 
 /// The periods in order: name, start, end, length, steady or transient.
@@ -270,7 +278,8 @@ struct BorePairs {
 /// Statistics over all bores and per bore, simulated against measured, and residuals at the
 /// bores; an honest message when no measured head falls inside the run.
 void add_calibration(HtmlReport& page, const std::vector<BorePairs>& bores, int measured_given,
-                     const std::vector<double>& times, const Units& u) {
+                     const std::vector<double>& times, const Units& u,
+                     const std::optional<MapExtent>& extent) {
   page.add_heading("Calibration: simulated against measured heads");
   if (bores.empty()) {
     page.add_paragraph(
@@ -333,7 +342,8 @@ void add_calibration(HtmlReport& page, const std::vector<BorePairs>& bores, int 
   page.add_chart(
       "Mean residual at each bore (simulated - measured): red where the model is too high, "
       "blue where it is too low",
-      residual_map_spec(residuals, fmt::format("mean residual ({})", u.length), u.length));
+      residual_map_spec(residuals, fmt::format("mean residual ({})", u.length), u.length, 560, 360,
+                        extent));
 }
 
 /// Counts of confined, water-table and dry cells after each step (balance_steps.csv).
@@ -472,7 +482,11 @@ int add_hydrographs(HtmlReport& page, const CsvTable& obs, const Model* model, c
     page.add_chart(caption, line_chart_spec(s, {fmt::format("time ({})", u.time)},
                                             {fmt::format("head ({})", u.length)}, 620, 240, r));
   }
-  add_calibration(page, bores, measured_given, time, u);
+  std::optional<MapExtent> extent;
+  if (model)
+    extent = MapExtent{model->grid.x_min(), model->grid.x_max(), model->grid.y_min(),
+                       model->grid.y_max()};
+  add_calibration(page, bores, measured_given, time, u, extent);
   int with_measurements = 0;
   for (const BorePairs& b : bores) with_measurements += b.pairs.empty() ? 0 : 1;
   return with_measurements;

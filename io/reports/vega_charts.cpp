@@ -4,6 +4,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 
 #include "io/files/text_encoding.hpp"
 
@@ -37,6 +38,16 @@ std::string name_lookup(const std::vector<std::string>& names) {
   return list + "][datum.v]";
 }
 
+/// An axis "format" entry: exponent form when every value is below 1e-3 in size (e.g. an
+/// imbalance of 1e-10 %), so the labels are not long zero-padded decimals; empty otherwise.
+std::string small_values_format(const std::vector<ChartSeries>& series, bool x_axis) {
+  double largest = 0.0;
+  for (const ChartSeries& s : series)
+    for (double v : x_axis ? s.x : s.y)
+      if (std::isfinite(v)) largest = std::max(largest, std::abs(v));
+  return largest > 0.0 && largest < 1e-3 ? R"J(,"format":"~e")J" : "";
+}
+
 std::string y_scale_with_rules(bool log) {
   return fmt::format(
       R"J({{"name":"y","type":"{}","domain":{{"fields":[{{"data":"all","field":"y"}},{{"data":"hrules","field":"y"}}]}},"range":"height","nice":true,"zero":false}})J",
@@ -52,8 +63,14 @@ std::string line_chart_spec(const std::vector<ChartSeries>& series, const AxisOp
   for (const ChartRule& r : rules) {
     std::string& target = !r.vertical ? hrules : std::isnan(r.x1) ? vrules : bands;
     if (target.size() > 1) target += ",";
-    target += fmt::format(R"J({{"t":{},"x0":{},"x1":{},"y":{}}})J", vega_json_string(r.label),
-                          vega_json_number(r.x0), vega_json_number(r.x1), vega_json_number(r.y));
+    // n: the next vertical rule to the right, so a rule's label is cut short before it.
+    double next = std::numeric_limits<double>::quiet_NaN();
+    for (const ChartRule& other : rules)
+      if (other.vertical && std::isnan(other.x1) && other.x0 > r.x0 && !(other.x0 >= next))
+        next = other.x0;
+    target += fmt::format(R"J({{"t":{},"x0":{},"x1":{},"y":{},"n":{}}})J",
+                          vega_json_string(r.label), vega_json_number(r.x0), vega_json_number(r.x1),
+                          vega_json_number(r.y), vega_json_number(next));
   }
   vrules += "]", bands += "]", hrules += "]";
   std::string lines = "[", points = "[", all = "[", labels = "[";
@@ -80,9 +97,9 @@ std::string line_chart_spec(const std::vector<ChartSeries>& series, const AxisOp
       R"J("data":[{{"name":"all","values":{all}}},{{"name":"lines","values":{lines}}},{{"name":"points","values":{points}}},)J"
       R"J({{"name":"vrules","values":{vrules}}},{{"name":"bands","values":{bands}}},{{"name":"hrules","values":{hrules}}}],)J"
       R"J("scales":[{xs},{ys},{{"name":"colour","type":"ordinal","domain":{labels},"range":{palette}}}],)J"
-      R"J("axes":[{{"orient":"bottom","scale":"x","title":{xt},"grid":true,"gridOpacity":0.25}},)J"
-      R"J({{"orient":"left","scale":"y","title":{yt},"grid":true,"gridOpacity":0.25}}],)J"
-      R"J("legends":[{{"stroke":"colour","fill":"colour","orient":"top-right","title":null}}],)J"
+      R"J("axes":[{{"orient":"bottom","scale":"x","title":{xt},"grid":true,"gridOpacity":0.25{xf}}},)J"
+      R"J({{"orient":"left","scale":"y","title":{yt},"grid":true,"gridOpacity":0.25{yf}}}],)J"
+      R"J("legends":[{{"stroke":"colour","fill":"colour","orient":"right","title":null}}],)J"
       R"J("marks":[{{"type":"rect","from":{{"data":"bands"}},"encode":{{"enter":{{"x":{{"scale":"x","field":"x0"}},"x2":{{"scale":"x","field":"x1"}},)J"
       R"J("y":{{"value":0}},"y2":{{"signal":"height"}},"fill":{{"value":"#c9a227"}},"fillOpacity":{{"value":0.15}}}}}}}},)J"
       R"J({{"type":"text","from":{{"data":"bands"}},"encode":{{"enter":{{"x":{{"scale":"x","field":"x0","offset":3}},"y":{{"value":11}},)J"
@@ -90,7 +107,8 @@ std::string line_chart_spec(const std::vector<ChartSeries>& series, const AxisOp
       R"J({{"type":"rule","from":{{"data":"vrules"}},"encode":{{"enter":{{"x":{{"scale":"x","field":"x0"}},"y":{{"value":0}},"y2":{{"signal":"height"}},)J"
       R"J("stroke":{{"value":"#888"}},"strokeDash":{{"value":[4,3]}}}}}}}},)J"
       R"J({{"type":"text","from":{{"data":"vrules"}},"encode":{{"enter":{{"x":{{"scale":"x","field":"x0","offset":3}},"y":{{"signal":"height","offset":-4}},)J"
-      R"J("text":{{"field":"t"}},"fontSize":{{"value":9}},"fill":{{"value":"#555"}}}}}}}},)J"
+      R"J("text":{{"field":"t"}},"fontSize":{{"value":9}},"fill":{{"value":"#555"}},)J"
+      R"J("limit":{{"signal":"(datum.n == null ? width : scale('x', datum.n)) - scale('x', datum.x0) - 6"}}}}}}}},)J"
       R"J({{"type":"rule","from":{{"data":"hrules"}},"encode":{{"enter":{{"y":{{"scale":"y","field":"y"}},"x":{{"value":0}},"x2":{{"signal":"width"}},)J"
       R"J("stroke":{{"value":"#8e4585"}},"strokeWidth":{{"value":1.5}}}}}}}},)J"
       R"J({{"type":"text","from":{{"data":"hrules"}},"encode":{{"enter":{{"y":{{"scale":"y","field":"y","offset":-4}},"x":{{"value":4}},)J"
@@ -107,7 +125,9 @@ std::string line_chart_spec(const std::vector<ChartSeries>& series, const AxisOp
                                        : axis_scale("y", "all", "y", "height", y.log)),
       fmt::arg("vrules", vrules), fmt::arg("bands", bands), fmt::arg("hrules", hrules),
       fmt::arg("labels", labels), fmt::arg("palette", palette),
-      fmt::arg("xt", vega_json_string(x.title)), fmt::arg("yt", vega_json_string(y.title)));
+      fmt::arg("xt", vega_json_string(x.title)), fmt::arg("yt", vega_json_string(y.title)),
+      fmt::arg("xf", small_values_format(series, true)),
+      fmt::arg("yf", small_values_format(series, false)));
 }
 
 std::string stacked_bar_spec(const std::vector<BarValue>& values, const std::string& x_title,
@@ -254,7 +274,8 @@ std::string class_map_spec(const std::vector<double>& x_edges, const std::vector
 }
 
 std::string residual_map_spec(const std::vector<MapPoint>& points, const std::string& value_title,
-                              const std::string& length_unit, int width, int height) {
+                              const std::string& length_unit, int width, int height,
+                              const std::optional<MapExtent>& extent) {
   std::string rows = "[";
   double largest = 0.0;
   for (const MapPoint& p : points) {
@@ -266,13 +287,23 @@ std::string residual_map_spec(const std::vector<MapPoint>& points, const std::st
   }
   rows += "]";
   if (largest == 0.0) largest = 1.0;
+  std::string x_domain = R"J({"data":"bores","field":"x"},"nice":true,"padding":30)J";
+  std::string y_domain = R"J({"data":"bores","field":"y"},"nice":true,"padding":30)J";
+  if (extent && extent->x_max > extent->x_min && extent->y_max > extent->y_min) {
+    x_domain =
+        fmt::format("[{},{}]", vega_json_number(extent->x_min), vega_json_number(extent->x_max));
+    y_domain =
+        fmt::format("[{},{}]", vega_json_number(extent->y_min), vega_json_number(extent->y_max));
+    height = static_cast<int>(
+        std::lround(width * (extent->y_max - extent->y_min) / (extent->x_max - extent->x_min)));
+  }
   return fmt::format(
       R"J({{"$schema":"https://vega.github.io/schema/vega/v5.json","width":{w},"height":{h},"padding":8,)J"
       R"J("data":[{{"name":"bores","values":{rows}}}],)J"
-      R"J("scales":[{{"name":"x","type":"linear","domain":{{"data":"bores","field":"x"}},"range":"width","zero":false,"nice":true,"padding":30}},)J"
-      R"J({{"name":"y","type":"linear","domain":{{"data":"bores","field":"y"}},"range":"height","zero":false,"nice":true,"padding":30}},)J"
+      R"J("scales":[{{"name":"x","type":"linear","domain":{xd},"range":"width","zero":false}},)J"
+      R"J({{"name":"y","type":"linear","domain":{yd},"range":"height","zero":false}},)J"
       R"J({{"name":"colour","type":"linear","domain":[{lo},{hi}],"range":{{"scheme":"redblue"}},"reverse":true}}],)J"
-      R"J("axes":[{{"orient":"bottom","scale":"x","title":"x ({lu})","format":"~s"}},{{"orient":"left","scale":"y","title":"y ({lu})","format":"~s"}}],)J"
+      R"J("axes":[{{"orient":"bottom","scale":"x","title":"x ({lu})"}},{{"orient":"left","scale":"y","title":"y ({lu})"}}],)J"
       R"J("legends":[{{"fill":"colour","type":"gradient","title":{vt},"format":".2~f"}}],)J"
       R"J("marks":[{{"type":"symbol","from":{{"data":"bores"}},"encode":{{"enter":{{"x":{{"scale":"x","field":"x"}},)J"
       R"J("y":{{"scale":"y","field":"y"}},"size":{{"value":220}},"fill":{{"scale":"colour","field":"v"}},"stroke":{{"value":"#333"}},)J"
@@ -281,7 +312,8 @@ std::string residual_map_spec(const std::vector<MapPoint>& points, const std::st
       R"J("y":{{"scale":"y","field":"y","offset":-8}},"text":{{"signal":"datum.b + ' (' + format(datum.v, '+.2~f') + ')'"}},"fontSize":{{"value":11}},"fill":{{"value":"#1d2b33"}}}}}}}}]}})J",
       fmt::arg("w", width), fmt::arg("h", height), fmt::arg("rows", rows),
       fmt::arg("lo", vega_json_number(-largest)), fmt::arg("hi", vega_json_number(largest)),
-      fmt::arg("lu", length_unit), fmt::arg("vt", vega_json_string(value_title)));
+      fmt::arg("lu", length_unit), fmt::arg("vt", vega_json_string(value_title)),
+      fmt::arg("xd", x_domain), fmt::arg("yd", y_domain));
 }
 
 }  // namespace aquiledger

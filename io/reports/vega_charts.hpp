@@ -1,6 +1,7 @@
 #pragma once
 // Vega (v5) chart specifications as JSON text, for the HTML reports. Labels, colours and
 // layout are our own; every axis title carries its unit.
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -79,10 +80,17 @@ struct MapPoint {
   double value = 0.0;       ///< in the unit of the value title
 };
 
+/// The area a map covers (L), e.g. the model grid.
+struct MapExtent {
+  double x_min = 0.0, x_max = 0.0, y_min = 0.0, y_max = 0.0;
+};
+
 /// Labelled points on map axes coloured on a diverging scale centred on zero (red above
-/// zero, blue below), e.g. the mean residual at each bore.
+/// zero, blue below), e.g. the mean residual at each bore. With an extent the axes span it
+/// (same shape as the other maps), so a single bore is placed in the model area.
 std::string residual_map_spec(const std::vector<MapPoint>& points, const std::string& value_title,
-                              const std::string& length_unit, int width = 560, int height = 360);
+                              const std::string& length_unit, int width = 560, int height = 360,
+                              const std::optional<MapExtent>& extent = std::nullopt);
 
 /// A JSON number: shortest round-trip form, "null" when not finite.
 std::string vega_json_number(double v);
