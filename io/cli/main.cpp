@@ -108,14 +108,17 @@ int main(int argc, char** argv) {
       ->add_flag("--without-model", report_options.without_model,
                  "Do not read the model: a report without measured heads")
       ->excludes("--model");
-  report->add_option("--maps-at", report_options.maps_at,
-                     "Output times to map, T1,T2 (model time units), or all (default: the last)");
+  report->add_option(
+      "--maps-at", report_options.maps_at,
+      "Output times at which to map head, drawdown, cell state and compaction: T1,T2 "
+      "(model time units, each an output time) or all (default: the last)");
   report->add_flag("-q,--quiet", report_options.quiet, "Print only errors");
   report->footer(
       "Exit status: 0 the report was written; 1 the model for the measured heads could not be "
       "read, or is not known (nothing was written, an earlier report is kept); 3 the results "
       "folder could not be read or the report not written; 64 the command line was wrong (a "
-      "bad --maps-at value, or a time no field file holds; nothing was written).");
+      "bad --maps-at value, or a time no field file holds; nothing was written). The page's "
+      "sections and the calibration statistics: docs/report.md.");
 
   SourcesOptions sources_options;
   auto* sources = add_sources_subcommand(app, sources_options);
