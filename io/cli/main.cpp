@@ -8,6 +8,7 @@
 
 #include "aquiledger_version.hpp"
 #include "io/cli/commands.hpp"
+#include "io/cli/drawdown_fit_command.hpp"
 #include "io/cli/sources_command.hpp"
 
 namespace {
@@ -123,6 +124,9 @@ int main(int argc, char** argv) {
   SourcesOptions sources_options;
   auto* sources = add_sources_subcommand(app, sources_options);
 
+  DrawdownFitOptions drawdown_fit_options;
+  auto* drawdown_fit = add_drawdown_fit_subcommand(app, drawdown_fit_options);
+
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
@@ -132,5 +136,6 @@ int main(int argc, char** argv) {
   if (*verify) return run_verify_command(verify_options);
   if (*report) return run_report_command(report_options);
   if (*sources) return run_sources_command(sources_options);
+  if (*drawdown_fit) return run_drawdown_fit_command(drawdown_fit_options);
   return run_run_command(run_options);
 }

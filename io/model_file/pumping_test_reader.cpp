@@ -1,0 +1,303 @@
+// The pumping-test file: [test], [[pumping]] rate rows, [[well]] observation wells.
+#include "io/model_file/pumping_test_reader.hpp"
+
+#include <cmath>
+#include <fstream>
+#include <sstream>
+
+#include "io/files/csv_table.hpp"
+#include "io/files/input_file_guard.hpp"
+#include "io/files/read_error.hpp"
+#include "io/model_file/reader_context.hpp"
+#include "io/model_file/section_readers.hpp"
+#include "io/model_file/toml_access.hpp"
+
+namespace aquiledger {
+namespace {
+
+constexpr std::uintmax_t max_test_file_bytes = 64u << 20;
+
+/// A numeric array at key (every entry a finite number), or nullopt with an error.
+std::optional<std::vector<double>> read_numbers(ReaderContext& ctx, const toml::node& node,
+                                                const std::string& key) {
+  const toml::array* arr = node.as_array();
+  if (!arr) {
+    ctx.error(node, key, "expected an array of numbers, found " + type_name(node));
+    return std::nullopt;
+  }
+  std::vector<double> out;
+  for (std::size_t i = 0; i < arr->size(); ++i) {
+    auto v = number_of((*arr)[i]);
+    if (!v) {
+      ctx.error((*arr)[i], key + "[" + std::to_string(i) + "]",
+                "expected a finite number, found " + show((*arr)[i]));
+      return std::nullopt;
+    }
+    out.push_back(*v);
+  }
+  return out;
+}
+
+void read_test_section(ReaderContext& ctx, const toml::table& root, PumpingTest& test,
+                       PumpingTestReadResult& result) {
+  const toml::table* t = optional_table(ctx, root, "test");
+  if (!t) {
+    if (!root.get("test")) ctx.error(ctx.file_spot(), "[test]", "missing the [test] section");
+    return;
+  }
+  check_keys(ctx, *t, "[test]", {"title", "length_unit", "time_unit", "model"});
+  test.title = read_string(ctx, *t, "title", "[test]", false).value_or("");
+  test.length_unit = read_string(ctx, *t, "length_unit", "[test]", false).value_or("m");
+  test.time_unit = read_string(ctx, *t, "time_unit", "[test]", false).value_or("d");
+  ctx.length_unit = test.length_unit;
+  ctx.time_unit = test.time_unit;
+  if (const toml::node* m = t->get("model")) {
+    auto name = m->value<std::string>();
+    if (!name || (*name != "auto" && !well_test_model_from_name(*name))) {
+      std::string list;
+      for (const std::string& n : pumping_test_model_names())
+        list += (list.empty() ? "" : ", ") + n;
+      ctx.error(*m, "[test].model", "expected one of " + list + ", found " + show(*m));
+    } else {
+      result.model = *name;
+    }
+  }
+}
+
+void read_schedule(ReaderContext& ctx, const toml::table& root, PumpingTest& test) {
+  const toml::array* arr = section_tables(ctx, root, "pumping");
+  if (!arr || arr->empty()) {
+    if (!root.get("pumping"))
+      ctx.error(ctx.file_spot(), "[[pumping]]",
+                "missing the rate schedule: give [[pumping]] rows with time and rate");
+    return;
+  }
+  for (std::size_t i = 0; i < arr->size(); ++i) {
+    const toml::table& row = *(*arr)[i].as_table();
+    const std::string path = "[[pumping]] #" + std::to_string(i + 1);
+    check_keys(ctx, row, path, {"time", "rate"});
+    auto time = read_number(ctx, row, "time", path, true);
+    auto rate = read_number(ctx, row, "rate", path, true);
+    if (!time || !rate) continue;
+    if (*rate < 0.0) {
+      ctx.error(*row.get("rate"), path + ".rate",
+                "expected a rate >= 0 " + ctx.flow_unit() +
+                    " (positive = withdrawal, 0 = recovery), found " + show_number(*rate));
+      continue;
+    }
+    if (!test.schedule.empty() && *time <= test.schedule.back().start) {
+      ctx.error(*row.get("time"), path + ".time",
+                "expected a time after the previous row's " +
+                    show_number(test.schedule.back().start) + " " + ctx.time_unit + ", found " +
+                    show_number(*time));
+      continue;
+    }
+    test.schedule.push_back({*time, *rate});
+  }
+  if (!test.schedule.empty() && test.schedule.front().rate <= 0.0)
+    ctx.error(*(*arr)[0].as_table()->get("rate"), "[[pumping]] #1.rate",
+              "the first row must pump (rate > 0)");
+}
+
+/// The series of one well from `series = { file = "x.csv" }`: columns time and drawdown, or
+/// time and water_level.
+bool read_series_file(ReaderContext& ctx, const toml::node& node, const std::string& path,
+                      std::vector<double>& times, std::vector<double>& values, bool& levels) {
+  const toml::table* t = node.as_table();
+  const std::string key = path + ".series";
+  if (!t) {
+    ctx.error(node, key, "expected { file = \"series.csv\" }, found " + type_name(node));
+    return false;
+  }
+  check_keys(ctx, *t, key, {"file"});
+  auto file = read_string(ctx, *t, "file", key, true);
+  if (!file) return false;
+  const std::filesystem::path where = ctx.resolve(*file);
+  CsvTable table;
+  try {
+    if (auto refusal = input_file_refusal(where, max_test_file_bytes))
+      throw ReadError(where.string() + ": " + *refusal);
+    table = read_csv_file(where);
+  } catch (const ReadError& e) {
+    ctx.error(*t->get("file"), key + ".file", e.what());
+    return false;
+  }
+  if (!table.column("time") || !(table.column("drawdown") || table.column("water_level"))) {
+    ctx.error(*t->get("file"), key + ".file",
+              where.string() + ": expected the columns time and drawdown (or water_level)");
+    return false;
+  }
+  levels = !table.column("drawdown");
+  times = table.numbers("time");
+  values = table.numbers(levels ? "water_level" : "drawdown");
+  for (std::size_t i = 0; i < times.size(); ++i)
+    if (!std::isfinite(times[i]) || !std::isfinite(values[i])) {
+      ctx.error(*t->get("file"), key + ".file",
+                where.string() + ":" + std::to_string(i + 2) + ": expected two numbers");
+      return false;
+    }
+  return true;
+}
+
+void read_wells(ReaderContext& ctx, const toml::table& root, PumpingTest& test) {
+  const toml::array* arr = section_tables(ctx, root, "well");
+  if (!arr || arr->empty()) {
+    if (!root.get("well"))
+      ctx.error(ctx.file_spot(), "[[well]]", "missing the observation wells ([[well]])");
+    return;
+  }
+  std::vector<std::string> names;
+  for (std::size_t i = 0; i < arr->size(); ++i) {
+    const toml::table& t = *(*arr)[i].as_table();
+    const std::string path = feature_path("well", t, i);
+    check_keys(ctx, t, path,
+               {"name", "distance", "radius", "times", "drawdowns", "water_levels", "static_level",
+                "series", "boundary", "image_distance"});
+    ObservationSeries w;
+    w.name = read_string(ctx, t, "name", path, false).value_or("well " + std::to_string(i + 1));
+    check_unique_name(ctx, t, path, w.name, names);
+    auto distance = read_number(ctx, t, "distance", path, true);
+    if (distance && !(*distance > 0.0))
+      ctx.error(*t.get("distance"), path + ".distance",
+                "expected a distance > 0 " + ctx.length_unit +
+                    " from the pumped well (for the "
+                    "pumped well itself, its radius), found " +
+                    show_number(*distance));
+    w.distance = distance.value_or(0.0);
+    if (auto radius = read_number(ctx, t, "radius", path, false)) {
+      if (!(*radius > 0.0))
+        ctx.error(*t.get("radius"), path + ".radius",
+                  "expected a radius > 0 " + ctx.length_unit + ", found " + show_number(*radius));
+      w.radius = *radius;
+    }
+    if (auto kind = read_choice(ctx, t, "boundary", path, {"barrier", "recharge"})) {
+      auto image = read_number(ctx, t, "image_distance", path, true);
+      if (image && !(*image > w.distance))
+        ctx.error(*t.get("image_distance"), path + ".image_distance",
+                  "expected the distance to the image well, > the well's distance, found " +
+                      show_number(*image));
+      else if (image)
+        w.images.push_back({*image, *kind == "recharge"});
+    } else if (t.get("image_distance") && !t.get("boundary")) {
+      ctx.error(*t.get("image_distance"), path + ".image_distance",
+                "give boundary = \"barrier\" or \"recharge\" with image_distance");
+    }
+    // The series: inline arrays or a file, as drawdowns or as water levels.
+    std::vector<double> values;
+    bool levels = false, ok = false;
+    const toml::node* series = t.get("series");
+    const bool inline_form = t.get("times") || t.get("drawdowns") || t.get("water_levels");
+    if (series && inline_form) {
+      ctx.error(*series, path + ".series",
+                "give either series = { file } or the arrays times and drawdowns, not both");
+      continue;
+    }
+    if (series) {
+      ok = read_series_file(ctx, *series, path, w.times, values, levels);
+    } else {
+      if (!t.get("times") || !(t.get("drawdowns") || t.get("water_levels"))) {
+        ctx.error(t, path,
+                  "missing the series: give times and drawdowns (or water_levels), or "
+                  "series = { file = \"x.csv\" }");
+        continue;
+      }
+      if (t.get("drawdowns") && t.get("water_levels")) {
+        ctx.error(*t.get("water_levels"), path + ".water_levels",
+                  "give drawdowns or water_levels, not both");
+        continue;
+      }
+      levels = !t.get("drawdowns");
+      auto times = read_numbers(ctx, *t.get("times"), path + ".times");
+      const std::string vkey = levels ? "water_levels" : "drawdowns";
+      auto vals = read_numbers(ctx, *t.get(vkey), path + "." + vkey);
+      if (times && vals) {
+        if (times->size() != vals->size())
+          ctx.error(*t.get(vkey), path + "." + vkey,
+                    "expected as many values as times (" + std::to_string(times->size()) +
+                        "), found " + std::to_string(vals->size()));
+        else {
+          w.times = std::move(*times);
+          values = std::move(*vals);
+          ok = true;
+        }
+      }
+    }
+    if (!ok) continue;
+    const toml::node* at = series ? series : t.get("times");
+    const std::string times_key = path + (series ? ".series" : ".times");
+    for (std::size_t k = 1; k < w.times.size(); ++k)
+      if (!(w.times[k] > w.times[k - 1])) {
+        ctx.error(*at, times_key,
+                  "times must increase; entry " + std::to_string(k) + " (" +
+                      show_number(w.times[k]) + ") is not after the one before");
+        ok = false;
+        break;
+      }
+    if (w.times.size() < 4) {
+      ctx.error(*at, times_key, "expected at least 4 measurements");
+      ok = false;
+    }
+    auto static_level = read_number(ctx, t, "static_level", path, levels);
+    if (static_level && !levels)
+      ctx.warning(ctx.spot(*t.get("static_level")), path + ".static_level",
+                  "ignored: the series are drawdowns");
+    if (!ok || (levels && !static_level)) continue;
+    w.drawdowns = levels ? values : std::move(values);
+    if (levels)
+      for (double& v : w.drawdowns) v = *static_level - v;
+    test.wells.push_back(std::move(w));
+  }
+}
+
+}  // namespace
+
+std::vector<std::string> pumping_test_model_names() {
+  return {"auto", "theis", "cooper-jacob", "hantush-jacob"};
+}
+
+std::optional<WellTestModel> well_test_model_from_name(std::string_view name) {
+  for (WellTestModel m :
+       {WellTestModel::theis, WellTestModel::cooper_jacob, WellTestModel::hantush_jacob})
+    if (model_name(m) == name) return m;
+  return std::nullopt;
+}
+
+PumpingTestReadResult read_pumping_test_text(std::string_view toml_text,
+                                             const std::filesystem::path& as_if_path) {
+  ReaderContext ctx;
+  ctx.model_file = as_if_path;
+  ctx.base_dir = as_if_path.parent_path();
+  if (ctx.base_dir.empty()) ctx.base_dir = ".";
+  PumpingTestReadResult result;
+  try {
+    const toml::table root = toml::parse(toml_text, as_if_path.string());
+    check_keys(ctx, root, "(top level)", {"test", "pumping", "well"});
+    PumpingTest test;
+    read_test_section(ctx, root, test, result);
+    read_schedule(ctx, root, test);
+    read_wells(ctx, root, test);
+    if (!ctx.diagnostics.has_errors()) result.test = std::move(test);
+  } catch (const toml::parse_error& e) {
+    ctx.error(ctx.spot(e.source()), "", "TOML syntax: " + std::string(e.description()));
+  }
+  result.diagnostics = ctx.diagnostics.take();
+  return result;
+}
+
+PumpingTestReadResult read_pumping_test_file(const std::filesystem::path& path) {
+  PumpingTestReadResult result;
+  if (auto refusal = input_file_refusal(path, max_test_file_bytes)) {
+    result.diagnostics.push_back({Severity::error, path, 0, 0, "", "test file " + *refusal});
+    return result;
+  }
+  std::ifstream in(path, std::ios::binary);
+  if (!in) {
+    result.diagnostics.push_back({Severity::error, path, 0, 0, "", "cannot open the test file"});
+    return result;
+  }
+  std::ostringstream text;
+  text << in.rdbuf();
+  return read_pumping_test_text(text.str(), std::filesystem::absolute(path).lexically_normal());
+}
+
+}  // namespace aquiledger

@@ -1,0 +1,240 @@
+#include "postproc/pumping_test_fit.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <numbers>
+#include <stdexcept>
+
+namespace aquiledger {
+namespace {
+
+double median(std::vector<double> v) {
+  if (v.empty()) return std::nan("");
+  std::sort(v.begin(), v.end());
+  const std::size_t m = v.size() / 2;
+  return v.size() % 2 ? v[m] : 0.5 * (v[m - 1] + v[m]);
+}
+
+/// End (T) of the first pumping step: the start of the next step, or +inf.
+double first_step_end(const PumpingTest& test) {
+  return test.schedule.size() > 1 ? test.schedule[1].start
+                                  : std::numeric_limits<double>::infinity();
+}
+
+}  // namespace
+
+int PumpingTest::n_observations() const {
+  int n = 0;
+  for (const ObservationSeries& w : wells) n += static_cast<int>(w.times.size());
+  return n;
+}
+
+ParameterGuess guess_parameters(const PumpingTest& test, WellTestModel model) {
+  // Cooper and Jacob (1946): over the late part of the first step the drawdown rises by
+  // Q / (4 pi T) per unit of ln t, and crosses zero at t0 = r^2 S / (2.25 T).
+  double t_guess = 1.0, s_guess = 1e-3;
+  const double q = test.schedule.empty() ? 0.0 : test.schedule.front().rate;
+  if (!test.wells.empty() && q > 0.0) {
+    const ObservationSeries& w = test.wells.front();
+    const double end = first_step_end(test);
+    std::vector<double> t, s;
+    for (std::size_t i = 0; i < w.times.size(); ++i)
+      if (w.times[i] > test.schedule.front().start && w.times[i] <= end && w.drawdowns[i] > 0.0) {
+        t.push_back(w.times[i] - test.schedule.front().start);
+        s.push_back(w.drawdowns[i]);
+      }
+    if (t.size() >= 3) {
+      const std::vector<double> d = logarithmic_derivative(t, s);
+      const std::vector<double> late(d.begin() + static_cast<long>(d.size() / 2), d.end());
+      const double slope = median(late);
+      if (slope > 0.0 && std::isfinite(slope)) {
+        t_guess = q / (4.0 * std::numbers::pi * slope);
+        const double r = std::max(w.distance, 1e-6);
+        s_guess = 2.25 * t_guess * t.back() / (r * r) * std::exp(-s.back() / slope);
+        s_guess = std::clamp(s_guess, 1e-6, 0.3);
+      }
+    }
+  }
+  ParameterGuess g;
+  g.start = {t_guess, s_guess};
+  g.lower = {t_guess * 1e-3, 1e-8};
+  g.upper = {t_guess * 1e3, 0.5};
+  if (model == WellTestModel::hantush_jacob) {
+    double r_max = 0.0;
+    for (const ObservationSeries& w : test.wells) r_max = std::max(r_max, w.distance);
+    g.start.push_back(std::max(30.0 * r_max, 1e-3));
+    g.lower.push_back(std::max(0.1 * r_max, 1e-6));
+    g.upper.push_back(std::max(1e5 * r_max, 1e3));
+  }
+  return g;
+}
+
+std::vector<WellTestModel> automatic_candidates() {
+  return {WellTestModel::theis, WellTestModel::hantush_jacob};
+}
+
+ModelFit fit_pumping_test(const PumpingTest& test, WellTestModel model) {
+  const ParameterGuess guess = guess_parameters(test, model);
+  ModelFit result;
+  result.model = model;
+  result.used.resize(test.wells.size());
+  std::vector<std::pair<std::size_t, std::size_t>> points;  // (well, time index)
+  for (std::size_t w = 0; w < test.wells.size(); ++w) {
+    const ObservationSeries& well = test.wells[w];
+    result.used[w].assign(well.times.size(), false);
+    for (std::size_t i = 0; i < well.times.size(); ++i) {
+      bool use = std::isfinite(well.drawdowns[i]) && well.times[i] > test.schedule.front().start;
+      if (use && model == WellTestModel::cooper_jacob) {
+        // u below 0.01 for every step that has begun (Cooper and Jacob, 1946).
+        for (const RateStep& step : test.schedule)
+          if (step.start < well.times[i] &&
+              well.distance * well.distance * guess.start[1] /
+                      (4.0 * guess.start[0] * (well.times[i] - step.start)) >=
+                  0.01)
+            use = false;
+      }
+      result.used[w][i] = use;
+      if (use) points.emplace_back(w, i);
+    }
+  }
+  const int k = n_model_parameters(model);
+  if (static_cast<int>(points.size()) <= k + 1)
+    throw std::invalid_argument(model_name(model) + ": only " + std::to_string(points.size()) +
+                                " usable drawdowns, more than " + std::to_string(k + 1) +
+                                " are needed");
+  auto model_at = [&](const std::vector<double>& p, std::size_t w, std::size_t i) {
+    const ObservationSeries& well = test.wells[w];
+    return schedule_drawdown(model, p, test.schedule, well.distance, well.times[i], well.images);
+  };
+  BoundedFitProblem problem;
+  problem.model = [&](const Eigen::VectorXd& p) {
+    const std::vector<double> pv(p.data(), p.data() + p.size());
+    Eigen::VectorXd s(static_cast<Eigen::Index>(points.size()));
+    for (std::size_t j = 0; j < points.size(); ++j)
+      s[static_cast<Eigen::Index>(j)] = model_at(pv, points[j].first, points[j].second);
+    return s;
+  };
+  problem.observed.resize(static_cast<Eigen::Index>(points.size()));
+  for (std::size_t j = 0; j < points.size(); ++j)
+    problem.observed[static_cast<Eigen::Index>(j)] =
+        test.wells[points[j].first].drawdowns[points[j].second];
+  problem.weights = Eigen::VectorXd::Ones(problem.observed.size());
+  problem.start = Eigen::Map<const Eigen::VectorXd>(guess.start.data(), k);
+  problem.lower = Eigen::Map<const Eigen::VectorXd>(guess.lower.data(), k);
+  problem.upper = Eigen::Map<const Eigen::VectorXd>(guess.upper.data(), k);
+  result.fit = fit_bounded_least_squares(problem);
+  result.n_used = static_cast<int>(points.size());
+  result.aicc = corrected_akaike_criterion(result.fit.weighted_sum_of_squares, result.n_used, k);
+  result.rms_residual = std::sqrt(result.fit.weighted_sum_of_squares / result.n_used);
+  const std::vector<double> p(result.fit.parameters.data(),
+                              result.fit.parameters.data() + result.fit.parameters.size());
+  result.fitted.resize(test.wells.size());
+  for (std::size_t w = 0; w < test.wells.size(); ++w)
+    for (std::size_t i = 0; i < test.wells[w].times.size(); ++i)
+      result.fitted[w].push_back(model_at(p, w, i));
+  return result;
+}
+
+PumpingTestInterpretation interpret_pumping_test(const PumpingTest& test,
+                                                 std::optional<WellTestModel> model) {
+  PumpingTestInterpretation out;
+  for (const ObservationSeries& w : test.wells) {
+    // The derivative of the drawdown since the start of pumping, points with t > start only.
+    const double t0 = test.schedule.empty() ? 0.0 : test.schedule.front().start;
+    std::vector<double> t, s;
+    for (std::size_t i = 0; i < w.times.size(); ++i)
+      if (w.times[i] > t0) {
+        t.push_back(w.times[i] - t0);
+        s.push_back(w.drawdowns[i]);
+      }
+    std::vector<double> d = logarithmic_derivative(t, s);
+    d.insert(d.begin(), w.times.size() - t.size(), std::nan(""));
+    out.derivatives.push_back(std::move(d));
+  }
+  if (model) {
+    out.candidates.push_back(fit_pumping_test(test, *model));
+    out.choice_reason = "model chosen by the user";
+  } else {
+    out.automatic = true;
+    for (WellTestModel m : automatic_candidates())
+      out.candidates.push_back(fit_pumping_test(test, m));
+    // Lowest AICc, but a simpler model (earlier in the list) within 2 of it is kept.
+    std::size_t best = 0;
+    for (std::size_t c = 1; c < out.candidates.size(); ++c)
+      if (out.candidates[c].aicc < out.candidates[best].aicc - 2.0) best = c;
+    out.chosen = best;
+    out.choice_reason =
+        "lowest AICc (Hurvich and Tsai, 1989); a simpler model within 2 of the lowest is kept "
+        "(Burnham and Anderson, 2002; common practice)";
+  }
+  out.classification = classify_aquifer(test, out.chosen_fit(), out.derivatives);
+  return out;
+}
+
+std::vector<std::string> classify_aquifer(const PumpingTest& test, const ModelFit& fit,
+                                          const std::vector<std::vector<double>>& derivatives) {
+  std::vector<std::string> text;
+  const double s = fit.fit.parameters[1];
+  // Ranges: common practice (about 1e-5..1e-3 confined, 0.01..0.3 specific yield).
+  if (s < 1e-5)
+    text.push_back(
+        "The fitted storativity is below the range usual for confined aquifers (about 1e-5 to "
+        "1e-3); this may point to a thin or stiff aquifer, or to a distance or rate worth "
+        "checking.");
+  else if (s <= 1e-3)
+    text.push_back(
+        "The fitted storativity lies in the range usual for confined aquifers (about 1e-5 to "
+        "1e-3): the test may reflect confined conditions.");
+  else if (s < 0.01)
+    text.push_back(
+        "The fitted storativity lies between the usual confined (about 1e-5 to 1e-3) and "
+        "water-table (about 0.01 to 0.3) ranges: semi-confined conditions, or a water-table "
+        "aquifer still in its early, elastic response, may be worth considering.");
+  else
+    text.push_back(
+        "The fitted storativity lies in the range of specific yields (about 0.01 to 0.3): the "
+        "test may reflect water-table (unconfined) conditions.");
+  // The derivative's shape over the first pumping step, in thirds of ln t.
+  const double end = first_step_end(test);
+  for (std::size_t w = 0; w < test.wells.size() && w < derivatives.size(); ++w) {
+    const ObservationSeries& well = test.wells[w];
+    std::vector<double> lt, d;
+    for (std::size_t i = 0; i < well.times.size(); ++i)
+      if (well.times[i] > test.schedule.front().start && well.times[i] <= end &&
+          std::isfinite(derivatives[w][i])) {
+        lt.push_back(std::log(well.times[i] - test.schedule.front().start));
+        d.push_back(derivatives[w][i]);
+      }
+    if (d.size() < 9) continue;
+    const double a = lt.front(), b = lt.back();
+    std::vector<double> thirds[3];
+    for (std::size_t i = 0; i < d.size(); ++i)
+      thirds[std::min(2, static_cast<int>(3.0 * (lt[i] - a) / (b - a)))].push_back(d[i]);
+    const double early = median(thirds[0]), mid = median(thirds[1]), late = median(thirds[2]);
+    const std::string who = "At " + well.name + " the logarithmic derivative ";
+    if (mid < 0.6 * early && late > 1.4 * mid)
+      text.push_back(who +
+                     "dips and rises again, the trough typical of delayed yield from a "
+                     "water-table aquifer (Neuman, 1974); a delayed-yield model may be worth "
+                     "fitting.");
+    else if (late < 0.5 * std::max(early, mid))
+      text.push_back(who +
+                     "falls off at late time, as leakage through an aquitard or a recharge "
+                     "boundary would cause; a leaky model or a recharge image may be worth "
+                     "trying.");
+    else if (late > 1.6 * mid && mid > 0.0)
+      text.push_back(who +
+                     "rises at late time, as a barrier boundary would cause (about doubling for "
+                     "one straight barrier); a barrier image may be worth trying.");
+    else
+      text.push_back(who +
+                     "levels off, as radial flow in an extensive aquifer would (Theis, 1935).");
+  }
+  text.push_back(
+      "These are suggestions from the curve shapes and ranges of common practice, to be weighed "
+      "by a professional with the geology, well construction and test records.");
+  return text;
+}
+
+}  // namespace aquiledger

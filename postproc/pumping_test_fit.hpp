@@ -1,0 +1,85 @@
+#pragma once
+// Interpreting a pumping test: one model fitted to the drawdowns of every observation well at
+// once, the choice between models by AICc, and a suggested classification of the aquifer.
+// Pure numerics, no I/O (the test file is read by io/model_file/pumping_test_reader.hpp).
+
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "postproc/bounded_least_squares.hpp"
+#include "postproc/well_test_models.hpp"
+
+namespace aquiledger {
+
+/// The drawdown series measured in one observation (or the pumped) well.
+struct ObservationSeries {
+  std::string name;
+  double distance = 0.0;          ///< L, radial distance from the pumped well
+  double radius = 0.0;            ///< L, well radius (0 when not given)
+  std::vector<ImageWell> images;  ///< straight boundaries seen from this well
+  std::vector<double> times;      ///< T since the start of the test, increasing
+  std::vector<double> drawdowns;  ///< L, positive downwards
+};
+
+/// A pumping test as read from its file.
+struct PumpingTest {
+  std::string title;
+  std::string length_unit = "m";
+  std::string time_unit = "d";
+  std::vector<RateStep> schedule;  ///< sorted by start; rate 0 = recovery
+  std::vector<ObservationSeries> wells;
+  int n_observations() const;
+};
+
+/// One model fitted to all wells.
+struct ModelFit {
+  WellTestModel model = WellTestModel::theis;
+  BoundedFitResult fit;
+  std::vector<std::vector<double>> fitted;  ///< L, per well and time (every time, also unused)
+  std::vector<std::vector<bool>> used;      ///< per well and time: part of the fit
+  int n_used = 0;                           ///< observations in the fit
+  double aicc = 0.0;                        ///< Hurvich and Tsai (1989), over n_used
+  double rms_residual = 0.0;                ///< L
+};
+
+/// The interpretation: every candidate fitted, the chosen one, the derivative per well and
+/// the wording of the classification (a suggestion, never a verdict).
+struct PumpingTestInterpretation {
+  std::vector<ModelFit> candidates;
+  std::size_t chosen = 0;  ///< index into candidates
+  bool automatic = false;  ///< chosen by AICc among the candidates
+  std::string choice_reason;
+  std::vector<std::vector<double>> derivatives;  ///< L, ds/d ln t of the measured drawdowns
+  std::vector<std::string> classification;       ///< sentences for a professional to weigh
+  const ModelFit& chosen_fit() const { return candidates[chosen]; }
+};
+
+/// Start values (Cooper-Jacob from the late slope of the first well) and bounds of a model.
+struct ParameterGuess {
+  std::vector<double> start, lower, upper;
+};
+ParameterGuess guess_parameters(const PumpingTest& test, WellTestModel model);
+
+/// Fits one model to every well at once (unit weights). The Cooper-Jacob line is fitted only
+/// to the points whose u = r^2 S / (4 T t) is below 0.01 (Cooper and Jacob, 1946) with the
+/// Theis start values. Throws std::invalid_argument when too few points remain.
+ModelFit fit_pumping_test(const PumpingTest& test, WellTestModel model);
+
+/// The models `auto` compares: each fitted to the same points, so AICc is comparable
+/// (Cooper-Jacob is an approximation of Theis, not a competing model, and is left out).
+std::vector<WellTestModel> automatic_candidates();
+
+/// With a model: that model alone. Without (`auto`): every candidate, keeping the one with
+/// the lowest AICc unless a simpler model is within 2 of it (Burnham and Anderson, 2002;
+/// common practice).
+PumpingTestInterpretation interpret_pumping_test(const PumpingTest& test,
+                                                 std::optional<WellTestModel> model);
+
+/// Sentences suggesting what the fitted storativity and the derivative's shape may mean.
+/// Ranges of storativity are common practice: about 1e-5..1e-3 confined, 0.01..0.3 water
+/// table (specific yield).
+std::vector<std::string> classify_aquifer(const PumpingTest& test, const ModelFit& fit,
+                                          const std::vector<std::vector<double>>& derivatives);
+
+}  // namespace aquiledger

@@ -1,0 +1,135 @@
+// The pumping-test file reader: a good file is read whole (inline series, water levels, a CSV
+// series); each bad input is refused with the file, the line and the key path.
+#include <catch2/catch.hpp>
+#include <filesystem>
+#include <fstream>
+#include <string>
+
+#include "io/model_file/pumping_test_reader.hpp"
+
+using namespace aquiledger;
+
+namespace {
+
+const std::string good = R"([test]
+title = "invented test"
+length_unit = "m"
+time_unit = "min"
+
+[[pumping]]
+time = 0.0
+rate = 2.5
+
+[[pumping]]
+time = 100.0
+rate = 0.0
+
+[[well]]
+name = "east piezometer"
+distance = 12.0
+times = [1.0, 2.0, 5.0, 10.0, 120.0]
+drawdowns = [0.1, 0.2, 0.3, 0.4, 0.1]
+
+[[well]]
+name = "west piezometer"
+distance = 30.0
+radius = 0.05
+static_level = 10.0
+times = [1.0, 2.0, 5.0, 10.0]
+water_levels = [9.95, 9.9, 9.8, 9.7]
+)";
+
+std::string replace(std::string text, const std::string& from, const std::string& to) {
+  const auto at = text.find(from);
+  REQUIRE(at != std::string::npos);
+  return text.replace(at, from.size(), to);
+}
+
+int line_of(const std::string& text, const std::string& fragment) {
+  const auto at = text.find(fragment);
+  return 1 + static_cast<int>(std::count(text.begin(), text.begin() + static_cast<long>(at), '\n'));
+}
+
+/// The read refuses the text with an error at `line` whose key is `key`, naming the file.
+void expect_error(const std::string& text, const std::string& key, int line,
+                  const std::string& fragment) {
+  const PumpingTestReadResult r = read_pumping_test_text(text, "/invented/test.toml");
+  CHECK_FALSE(r.test.has_value());
+  bool found = false;
+  std::string all;
+  for (const Diagnostic& d : r.diagnostics) {
+    all += d.to_string() + "\n";
+    if (d.severity == Severity::error && d.key == key && d.line == line &&
+        d.message.find(fragment) != std::string::npos &&
+        d.to_string().find("/invented/test.toml:" + std::to_string(line)) == 0)
+      found = true;
+  }
+  INFO(all);
+  CHECK(found);
+}
+
+}  // namespace
+
+TEST_CASE("a good test file is read whole", "[pumping_test_reader]") {
+  const PumpingTestReadResult r = read_pumping_test_text(good, "/invented/test.toml");
+  REQUIRE(r.test.has_value());
+  const PumpingTest& t = *r.test;
+  CHECK(t.title == "invented test");
+  CHECK(t.time_unit == "min");
+  REQUIRE(t.schedule.size() == 2);
+  CHECK(t.schedule[1].start == 100.0);
+  CHECK(t.schedule[1].rate == 0.0);
+  REQUIRE(t.wells.size() == 2);
+  CHECK(t.wells[0].drawdowns[3] == 0.4);
+  CHECK(t.wells[1].radius == 0.05);
+  // Water levels become drawdowns below the static level.
+  CHECK(t.wells[1].drawdowns[3] == Approx(0.3));
+}
+
+TEST_CASE("a series read from a CSV file", "[pumping_test_reader]") {
+  const auto folder = std::filesystem::temp_directory_path() / "aquiledger-pumping-reader";
+  std::filesystem::create_directories(folder);
+  std::ofstream(folder / "ow.csv") << "time,water_level\n1,4.9\n2,4.8\n4,4.7\n8,4.6\n";
+  std::string text = good.substr(0, good.find("[[well]]"));
+  text +=
+      "[[well]]\nname = \"ow\"\ndistance = 5.0\nstatic_level = 5.0\n"
+      "series = { file = \"ow.csv\" }\n";
+  const PumpingTestReadResult r = read_pumping_test_text(text, folder / "test.toml");
+  REQUIRE(r.test.has_value());
+  REQUIRE(r.test->wells[0].drawdowns.size() == 4);
+  CHECK(r.test->wells[0].drawdowns[3] == Approx(0.4));
+  std::filesystem::remove_all(folder);
+}
+
+TEST_CASE("bad test files give file, line and key", "[pumping_test_reader]") {
+  {
+    const std::string t = replace(good, "distance = 12.0", "distance = -12.0");
+    expect_error(t, "[[well]] \"east piezometer\".distance", line_of(t, "distance = -12.0"),
+                 "distance > 0");
+  }
+  {
+    const std::string t = replace(good, "time = 100.0", "time = -1.0");
+    expect_error(t, "[[pumping]] #2.time", line_of(t, "time = -1.0"), "after the previous");
+  }
+  {
+    const std::string t =
+        replace(good, "drawdowns = [0.1, 0.2, 0.3, 0.4, 0.1]", "drawdowns = [0.1, 0.2, 0.3, 0.4]");
+    expect_error(t, "[[well]] \"east piezometer\".drawdowns", line_of(t, "drawdowns = [0.1"),
+                 "as many values as times");
+  }
+  {
+    const std::string t = replace(good, "radius = 0.05", "radios = 0.05");
+    expect_error(t, "[[well]] \"west piezometer\".radios", line_of(t, "radios"),
+                 "did you mean 'radius'");
+  }
+  {
+    const std::string t =
+        replace(good, "time_unit = \"min\"", "time_unit = \"min\"\nmodel = \"thies\"");
+    expect_error(t, "[test].model", line_of(t, "model ="), "expected one of");
+  }
+  {
+    const std::string t = replace(good, "static_level = 10.0\n", "");
+    expect_error(t, "[[well]] \"west piezometer\".static_level",
+                 line_of(t, "[[well]]\nname = \"west"), "missing");
+  }
+}
