@@ -17,6 +17,8 @@ std::string model_name(WellTestModel model) {
       return "cooper-jacob";
     case WellTestModel::hantush_jacob:
       return "hantush-jacob";
+    case WellTestModel::neuman:
+      return "neuman";
   }
   return "";
 }
@@ -24,6 +26,8 @@ std::string model_name(WellTestModel model) {
 std::vector<std::string> model_parameter_names(WellTestModel model) {
   if (model == WellTestModel::hantush_jacob)
     return {"transmissivity", "storativity", "leakage_factor"};
+  if (model == WellTestModel::neuman)
+    return {"transmissivity", "storativity", "specific_yield", "drainage_length"};
   return {"transmissivity", "storativity"};
 }
 
@@ -45,6 +49,8 @@ double unit_rate_drawdown(WellTestModel model, const std::vector<double>& parame
              (4.0 * std::numbers::pi * transmissivity);
     case WellTestModel::hantush_jacob:
       return hantush_jacob_drawdown(1.0, transmissivity, storativity, parameters[2], r, t);
+    case WellTestModel::neuman:
+      return neuman_drawdown(1.0, transmissivity, storativity, parameters[2], parameters[3], r, t);
   }
   return 0.0;
 }
@@ -82,6 +88,60 @@ double papadopulos_cooper_drawdown(double q, double transmissivity, double stora
            (p * (root * std::cyl_bessel_k(1.0, root) + c_d * p * std::cyl_bessel_k(0.0, root)));
   };
   return q / (2.0 * std::numbers::pi * transmissivity) * stehfest_inverse(transform, t_d);
+}
+
+namespace {
+
+/// The root of e tan e = alpha (alpha >= 0) in [n pi, n pi + pi/2]: Newton on
+/// h(e) = e sin e - alpha cos e, kept inside a bracket that bisection narrows.
+double neuman_eigenvalue(int n, double alpha) {
+  double lo = n * std::numbers::pi, hi = lo + 0.5 * std::numbers::pi;
+  auto h = [&](double e) { return e * std::sin(e) - alpha * std::cos(e); };
+  const double h_lo = h(lo);
+  double e = n == 0 ? std::min(std::sqrt(alpha), 0.5 * (lo + hi)) : 0.5 * (lo + hi);
+  for (int k = 0; k < 100; ++k) {
+    const double he = h(e);
+    if ((he < 0.0) == (h_lo < 0.0))
+      lo = e;
+    else
+      hi = e;
+    const double dh = (1.0 + alpha) * std::sin(e) + e * std::cos(e);
+    double next = e - he / dh;
+    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+    if (std::abs(next - e) <= 1e-15 * std::max(1.0, e)) return next;
+    e = next;
+  }
+  return e;
+}
+
+}  // namespace
+
+double neuman_laplace_drawdown(double transmissivity, double storativity, double specific_yield,
+                               double drainage_length, double r, double p) {
+  const double alpha = specific_yield * p * drainage_length * drainage_length / transmissivity;
+  const double elastic = storativity * p / transmissivity;
+  double sum = 0.0;
+  for (int n = 0; n < 400; ++n) {
+    const double e = neuman_eigenvalue(n, alpha);
+    const double weight =
+        e > 0.0 ? 2.0 * std::sin(e) * std::sin(e) / (e * (e + std::sin(e) * std::cos(e))) : 1.0;
+    const double term =
+        weight * std::cyl_bessel_k(
+                     0.0, r * std::sqrt(e * e / (drainage_length * drainage_length) + elastic));
+    sum += term;
+    if (n > 2 && term < 1e-13 * sum) break;
+  }
+  return sum / (2.0 * std::numbers::pi * transmissivity * p);
+}
+
+double neuman_drawdown(double q, double transmissivity, double storativity, double specific_yield,
+                       double drainage_length, double r, double t, int stehfest_terms) {
+  if (t <= 0.0) return 0.0;
+  auto transform = [&](double p) {
+    return neuman_laplace_drawdown(transmissivity, storativity, specific_yield, drainage_length, r,
+                                   p);
+  };
+  return q * stehfest_inverse(transform, t, stehfest_terms);
 }
 
 std::vector<double> logarithmic_derivative(const std::vector<double>& times,

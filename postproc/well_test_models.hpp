@@ -13,6 +13,7 @@ enum class WellTestModel {
   theis,          ///< Theis (1935): parameters T, S
   cooper_jacob,   ///< Cooper and Jacob (1946) straight line: parameters T, S
   hantush_jacob,  ///< Hantush and Jacob (1955) leaky: parameters T, S, B
+  neuman,         ///< Neuman (1974) delayed yield: parameters T, S, Sy, L_v
 };
 
 /// Plain name used in files and messages ("theis", "cooper-jacob", "hantush-jacob").
@@ -58,6 +59,21 @@ double schedule_drawdown(WellTestModel model, const std::vector<double>& paramet
 /// inverted by Stehfest (1970). With C_D -> 0 and r_well -> 0 it is Theis.
 double papadopulos_cooper_drawdown(double q, double transmissivity, double storativity,
                                    double r_well, double r_casing, double r, double t);
+
+/// Neuman (1974): drawdown (L) averaged over a fully penetrating observation well at radius r
+/// (L), time t (T), for a fully penetrating pumped well at rate q (L3/T) in a water-table
+/// aquifer with delayed (instantaneous-drainage) yield. Parameters: transmissivity T (L2/T),
+/// elastic storativity S, specific yield Sy and the vertical drainage length
+/// L_v = b sqrt(K_r / K_z) (L; Neuman's beta = r^2 / L_v^2). Laplace form, derived from his
+/// boundary-value problem by separation in z:
+///   s(p) = q / (2 pi T p) sum_n 2 sin^2 e_n / (e_n (e_n + sin e_n cos e_n)) K0(r q_n),
+///   e_n tan e_n = Sy p L_v^2 / T (e_n in (n pi, n pi + pi/2)), q_n^2 = e_n^2 / L_v^2 + S p / T,
+/// inverted by Stehfest (1970). Sy -> 0 gives Theis with S; late time Theis with S + Sy.
+double neuman_drawdown(double q, double transmissivity, double storativity, double specific_yield,
+                       double drainage_length, double r, double t, int stehfest_terms = 12);
+/// The Laplace transform of neuman_drawdown for q = 1 at a real p > 0 (1/T), for checks.
+double neuman_laplace_drawdown(double transmissivity, double storativity, double specific_yield,
+                               double drainage_length, double r, double p);
 
 /// Logarithmic derivative ds/d ln t of a series (Bourdet et al., 1989): for each point the
 /// slopes to the first neighbours at least `smoothing` (in ln t) away on each side, weighted

@@ -252,12 +252,12 @@ void read_wells(ReaderContext& ctx, const toml::table& root, PumpingTest& test) 
 }  // namespace
 
 std::vector<std::string> pumping_test_model_names() {
-  return {"auto", "theis", "cooper-jacob", "hantush-jacob"};
+  return {"auto", "theis", "cooper-jacob", "hantush-jacob", "neuman"};
 }
 
 std::optional<WellTestModel> well_test_model_from_name(std::string_view name) {
-  for (WellTestModel m :
-       {WellTestModel::theis, WellTestModel::cooper_jacob, WellTestModel::hantush_jacob})
+  for (WellTestModel m : {WellTestModel::theis, WellTestModel::cooper_jacob,
+                          WellTestModel::hantush_jacob, WellTestModel::neuman})
     if (model_name(m) == name) return m;
   return std::nullopt;
 }
