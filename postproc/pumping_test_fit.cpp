@@ -186,7 +186,9 @@ PumpingTestInterpretation interpret_pumping_test(const PumpingTest& test,
 std::vector<std::string> classify_aquifer(const PumpingTest& test, const ModelFit& fit,
                                           const std::vector<std::vector<double>>& derivatives) {
   std::vector<std::string> text;
-  const double s = fit.fit.parameters[1];
+  // Neuman's model carries the water-table storage in Sy (its third parameter).
+  const double s =
+      fit.model == WellTestModel::neuman ? fit.fit.parameters[2] : fit.fit.parameters[1];
   // Ranges: common practice (about 1e-5..1e-3 confined, 0.01..0.3 specific yield).
   if (s < 1e-5)
     text.push_back(

@@ -1,0 +1,25 @@
+#!/usr/bin/env bash
+# The two invented pumping-test cases (cases/02-*, cases/03-*) interpreted by one command each:
+# the generating values (make_test.py, scipy) lie within the fitted 95 % intervals, and the
+# chosen models are Theis (auto) and Neuman.
+#   bash pumping_test_cases.sh <aquiledger> <source-dir>
+set -euo pipefail
+exe=${1:?usage: pumping_test_cases.sh <aquiledger> <source-dir>}
+src=${2:?usage: pumping_test_cases.sh <aquiledger> <source-dir>}
+out=$(mktemp -d)
+trap 'rm -rf "$out"' EXIT
+"$exe" drawdown-fit "$src/cases/02-hollin-ford-confined-test/test.toml" -o "$out/a" -q --no-report
+"$exe" drawdown-fit "$src/cases/03-brackwater-water-table-test/test.toml" -o "$out/b" -q --no-report
+python3 - "$out" <<'PY'
+import json, sys
+# Generating values of the invented cases (their make_test.py).
+for folder, model, truth in (("a", "theis", {"transmissivity": 480.0, "storativity": 1.5e-4}),
+                             ("b", "neuman", {"transmissivity": 150.0, "storativity": 5e-4,
+                                              "specific_yield": 0.12, "drainage_length": 200.0})):
+    fit = json.load(open(f"{sys.argv[1]}/{folder}/fit.json"))
+    assert fit["chosen_model"] == model, (folder, fit["chosen_model"])
+    chosen = [c for c in fit["candidates"] if c["model"] == model][0]
+    for p in chosen["parameters"]:
+        assert p["low_95"] <= truth[p["name"]] <= p["high_95"], (folder, p)
+PY
+echo "pumping test cases: all checks passed"
