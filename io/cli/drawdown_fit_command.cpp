@@ -1,6 +1,6 @@
 // `drawdown-fit`: interprets a pumping test (docs/pumping-tests.md): reads the test file,
 // fits the chosen model (or compares them, `auto`), writes fit.json, parameters.csv,
-// fit_series.csv and the HTML page.
+// fit_series.csv (an HTML page is not written yet: docs/pumping-tests.md).
 #include "io/cli/drawdown_fit_command.hpp"
 
 #include <fmt/format.h>
@@ -24,13 +24,12 @@ CLI::App* add_drawdown_fit_subcommand(CLI::App& app, DrawdownFitOptions& o) {
   auto* cmd = app.add_subcommand(
       "drawdown-fit",
       "Interpret a pumping test: fit drawdown models to the observation wells and write the "
-      "fitted values (fit.json, parameters.csv, fit_series.csv) and an HTML page.");
+      "fitted values (fit.json, parameters.csv, fit_series.csv).");
   cmd->add_option("TEST", o.test_file, "Pumping-test file (TOML)")->required();
   cmd->add_option("-m,--model", o.model,
                   "Model to fit: " + models + " (default: [test].model, else auto)");
   cmd->add_option("-o,--output", o.output_folder,
                   "Folder for the results (default: drawdown-fit beside the test file)");
-  cmd->add_flag("--no-report", o.no_report, "Do not write the HTML page");
   cmd->add_flag("-q,--quiet", o.quiet, "Print only errors");
   cmd->footer(
       "Exit status: 0 the interpretation was written; 1 invalid test file, or no model could be "

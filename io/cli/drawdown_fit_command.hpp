@@ -14,7 +14,6 @@ struct DrawdownFitOptions {
   std::filesystem::path test_file;
   std::optional<std::string> model;                    ///< a model name or "auto"
   std::optional<std::filesystem::path> output_folder;  ///< default: beside the test file
-  bool no_report = false;
   bool quiet = false;
 };
 

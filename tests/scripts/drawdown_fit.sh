@@ -11,8 +11,7 @@ out=$(mktemp -d)
 trap 'rm -rf "$out"' EXIT
 fail() { echo "FAIL: $*"; exit 1; }
 
-"$exe" drawdown-fit "$src/tests/data/pumping/theis_recovery.toml" -m auto -o "$out/fit" -q \
-  --no-report
+"$exe" drawdown-fit "$src/tests/data/pumping/theis_recovery.toml" -m auto -o "$out/fit" -q
 python3 - "$out/fit" <<'PY'
 import csv, json, os, sys
 d = sys.argv[1]

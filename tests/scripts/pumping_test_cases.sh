@@ -8,8 +8,8 @@ exe=${1:?usage: pumping_test_cases.sh <aquiledger> <source-dir>}
 src=${2:?usage: pumping_test_cases.sh <aquiledger> <source-dir>}
 out=$(mktemp -d)
 trap 'rm -rf "$out"' EXIT
-"$exe" drawdown-fit "$src/cases/02-hollin-ford-confined-test/test.toml" -o "$out/a" -q --no-report
-"$exe" drawdown-fit "$src/cases/03-brackwater-water-table-test/test.toml" -o "$out/b" -q --no-report
+"$exe" drawdown-fit "$src/cases/02-hollin-ford-confined-test/test.toml" -o "$out/a" -q
+"$exe" drawdown-fit "$src/cases/03-brackwater-water-table-test/test.toml" -o "$out/b" -q
 python3 - "$out" <<'PY'
 import json, sys
 # Generating values of the invented cases (their make_test.py).
