@@ -426,35 +426,15 @@ class DistributedStepper {
     if (start.step_in_period > 0)
       history_.resume_after(start.period, start.previous_head, start.previous_dt);
   }
-  NewtonResult solve_initial_steady() {
-    e_.head_old = head_;
-    e_.period = 0;
-    e_.steady = true;
-    e_.dt = 1.0;
-    e_.set_iterate(head_);
-    DistributedProblem problem(e_);
-    const NewtonResult nr = newton_iterate(problem, settings_);
-    e_.update_ghosts();
-    e_.get_iterate(head_);
-    return nr;
-  }
+  NewtonResult solve_initial_steady() { return newton_from(0, true, 1.0, head_); }
   void apply_fixed_heads(std::size_t period) {
     aquiledger::apply_fixed_heads(e_.model, period, CellWindow<double>(head_, e_.part.first_held()),
                                   e_.part);
   }
   NewtonResult try_step(std::size_t period, bool steady, double dt) {
-    e_.head_old = head_;
-    e_.period = period;
-    e_.steady = steady;
-    e_.dt = dt;
     // The same extrapolated start as the serial engine (StepHistory), cell by cell.
     history_.start(period, steady, dt, head_, trial_);
-    e_.set_iterate(trial_);
-    DistributedProblem problem(e_);
-    const NewtonResult nr = newton_iterate(problem, settings_);
-    e_.update_ghosts();
-    e_.get_iterate(trial_);
-    return nr;
+    return newton_from(period, steady, dt, trial_);
   }
   void accept(const StepInfo& info) {
     std::swap(head_, trial_);
@@ -475,6 +455,20 @@ class DistributedStepper {
   }
 
  private:
+  /// Newton for a step of `period` of length dt from head_, started at x; the result in x.
+  NewtonResult newton_from(std::size_t period, bool steady, double dt, std::vector<double>& x) {
+    e_.head_old = head_;
+    e_.period = period;
+    e_.steady = steady;
+    e_.dt = dt;
+    e_.set_iterate(x);
+    DistributedProblem problem(e_);
+    const NewtonResult nr = newton_iterate(problem, settings_);
+    e_.update_ghosts();
+    e_.get_iterate(x);
+    return nr;
+  }
+
   DistributedEngine::Impl& e_;
   const NewtonSettings& settings_;
   SimulationObserver& observer_;
