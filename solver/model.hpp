@@ -176,6 +176,9 @@ struct Model {
   std::string title;
   std::string length_unit = "m";
   std::string time_unit = "d";
+  /// Calendar time of model time 0, seconds since 1970-01-01T00:00:00 (proleptic Gregorian,
+  /// no time zone), when [model] gives start_date; outputs then carry dates beside times.
+  std::optional<double> start_date;
   RectilinearGrid grid;
   Aquifer aquifer;
   Initial initial;

@@ -16,6 +16,7 @@
 #include "io/cli/distributed_run.hpp"
 #include "io/cli/model_diagnostics.hpp"
 #include "io/files/atomic_file.hpp"
+#include "io/files/calendar.hpp"
 #include "io/files/output_lock.hpp"
 #include "io/model_file/memory_guard.hpp"
 #include "io/model_file/model_reader.hpp"
@@ -191,6 +192,7 @@ RunSummary make_run_summary(const RunOptions& options, const Model& model,
       path_error ? std::filesystem::absolute(options.model_file).string() : model_path.string();
   summary.length_unit = model.length_unit;
   summary.time_unit = model.time_unit;
+  if (auto clock = model_clock(model)) summary.start_date = clock->date_of(0.0);
   summary.unknowns = recorder.layout().n_unknowns();
   summary.linear_iterations = run.linear_iterations;
   summary.cutbacks = run.cutbacks;

@@ -44,11 +44,14 @@ std::vector<std::string> CsvTable::texts(const std::string& name) const {
 
 CsvTable parse_csv(const std::string& text) {
   std::vector<std::vector<std::string>> records;
+  std::vector<int> lines;  // file line where each record starts
   std::vector<std::string> record;
   std::string field;
   bool quoted = false, any = false;
+  int line = 1, record_line = 1;
   for (std::size_t i = 0; i < text.size(); ++i) {
     const char c = text[i];
+    if (c == '\n' || (c == '\r' && !(i + 1 < text.size() && text[i + 1] == '\n'))) ++line;
     if (quoted) {
       if (c == '"' && i + 1 < text.size() && text[i + 1] == '"') {
         field += '"';
@@ -65,11 +68,13 @@ CsvTable parse_csv(const std::string& text) {
       field.clear();
       any = true;
     } else if (c == '\n' || c == '\r') {
-      if (c == '\r' && i + 1 < text.size() && text[i + 1] == '\n') ++i;
+      if (c == '\r' && i + 1 < text.size() && text[i + 1] == '\n') ++i, ++line;
       if (any || !field.empty()) {
         record.push_back(field);
         records.push_back(record);
+        lines.push_back(record_line);
       }
+      record_line = line;
       record.clear();
       field.clear();
       any = false;
@@ -81,11 +86,14 @@ CsvTable parse_csv(const std::string& text) {
   if (any || !field.empty()) {
     record.push_back(field);
     records.push_back(record);
+    lines.push_back(record_line);
   }
   CsvTable table;
   if (records.empty()) return table;
   table.header = records.front();
+  table.header_line = lines.front();
   table.rows.assign(records.begin() + 1, records.end());
+  table.row_lines.assign(lines.begin() + 1, lines.end());
   return table;
 }
 

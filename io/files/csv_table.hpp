@@ -1,5 +1,6 @@
 #pragma once
-// A small reader for the result tables (RFC 4180 quoting), for the HTML report.
+// A small CSV reader (RFC 4180 quoting): the result tables for the HTML report, and the
+// time-series and feature tables a model reads.
 #include <filesystem>
 #include <optional>
 #include <string>
@@ -10,6 +11,8 @@ namespace aquiledger {
 struct CsvTable {
   std::vector<std::string> header;
   std::vector<std::vector<std::string>> rows;
+  int header_line = 1;         ///< file line (1-based) of the header
+  std::vector<int> row_lines;  ///< file line where each row starts (blank lines are skipped)
   /// Index of a column, if present.
   std::optional<std::size_t> column(const std::string& name) const;
   /// The column as numbers ("nan" and unparsable cells read NaN); empty when absent.

@@ -18,13 +18,17 @@ void read_model_section(ReaderContext& ctx, const toml::table& root, Model& mode
     ctx.error(*node, "[model]", "expected a table, found " + type_name(*node));
     return;
   }
-  check_keys(ctx, *t, "[model]", {"title", "length_unit", "time_unit"});
+  check_keys(ctx, *t, "[model]", {"title", "length_unit", "time_unit", "start_date"});
   if (auto title = read_string(ctx, *t, "title", "[model]", false)) model.title = *title;
   if (auto u = read_choice(ctx, *t, "length_unit", "[model]", {"m", "ft"})) model.length_unit = *u;
   if (auto u = read_choice(ctx, *t, "time_unit", "[model]", {"s", "min", "h", "d", "yr"}))
     model.time_unit = *u;
   ctx.length_unit = model.length_unit;
   ctx.time_unit = model.time_unit;
+  if (auto start = read_calendar_time(ctx, *t, "start_date", "[model]", false)) {
+    model.start_date = *start;
+    ctx.clock = CalendarClock{*start, *seconds_per_time_unit(model.time_unit)};
+  }
 }
 
 bool read_grid_shape(ReaderContext& ctx, const toml::table& root) {

@@ -3,6 +3,7 @@
 #include <cmath>
 #include <fstream>
 
+#include "io/files/calendar.hpp"
 #include "io/files/input_file_guard.hpp"
 #include "io/model_file/array_source.hpp"
 #include "io/model_file/field_value.hpp"
@@ -48,11 +49,19 @@ std::vector<MeasuredHead> read_measured(ReaderContext& ctx, const std::filesyste
     }
     std::optional<double> time = cells.size() >= 2 ? parse_value(cells[0]) : std::nullopt;
     std::optional<double> head = cells.size() >= 2 ? parse_value(cells[1]) : std::nullopt;
+    const bool dated = cells.size() == 2 && !time && looks_like_date(cells[0]);
+    if (dated && ctx.clock)
+      if (auto seconds = parse_calendar_time(cells[0])) time = ctx.clock->model_time(*seconds);
     if (!time || !head || cells.size() != 2) {
-      if (rows.empty() && line_no == 1 && cells.size() == 2) continue;  // header line
+      if (rows.empty() && line_no == 1 && cells.size() == 2 && !dated) continue;  // header line
       ctx.error(SourceSpot{file, line_no, 0}, key,
-                "expected two numbers time,head (" + ctx.time_unit + ", " + ctx.length_unit +
-                    "), found '" + line + "'");
+                dated && !ctx.clock
+                    ? "'" + cells[0] +
+                          "' is a date: give [model].start_date (the date of model time 0) to "
+                          "measure times by dates"
+                    : "expected time,head (time in " + ctx.time_unit + " or a date YYYY-MM-DD" +
+                          (ctx.clock ? "" : " with [model].start_date") + ", head in " +
+                          ctx.length_unit + "), found '" + line + "'");
       continue;
     }
     rows.push_back({*time, *head});

@@ -4,6 +4,7 @@
 #include <limits>
 
 #include "io/model_file/field_value.hpp"
+#include "io/model_file/time_series.hpp"
 #include "io/model_file/toml_access.hpp"
 
 namespace aquiledger {
@@ -46,6 +47,38 @@ std::uint32_t table_slot(std::vector<std::vector<double>>& tables, std::vector<d
   return static_cast<std::uint32_t>(tables.size() - 1);
 }
 
+/// `{ series = "file.csv", column = "name", rule = "mean" | "start" }`: one value per period
+/// from a time series (io/model_file/time_series.hpp).
+std::optional<PeriodValues> series_values(ReaderContext& ctx, const toml::table& t,
+                                          const std::string& key, const ValueRule& rule) {
+  check_keys(ctx, t, key, {"series", "column", "rule"});
+  auto file = read_string(ctx, t, "series", key, true);
+  auto column = read_string(ctx, t, "column", key, true);
+  auto how = read_choice(ctx, t, "rule", key, {"mean", "start"});
+  if (!file || !column || (t.contains("rule") && !how)) return std::nullopt;
+  if (ctx.n_periods == 0) return std::nullopt;  // periods invalid: already reported
+  const SourceSpot at = ctx.spot(*t.get("series"));
+  const SeriesFile* series = series_file(ctx, ctx.resolve(*file), at, key + ".series");
+  if (!series) return std::nullopt;
+  const SeriesRule r = how.value_or("mean") == "start" ? SeriesRule::start : SeriesRule::mean;
+  auto values =
+      values_per_period(ctx, *series, *column, r, ctx.spot(*t.get("column")), key + ".column");
+  if (!values) return std::nullopt;
+  std::vector<std::vector<double>> tables;
+  std::vector<std::uint32_t> map;
+  for (std::size_t p = 0; p < values->size(); ++p) {
+    const double v = (*values)[p];
+    if (!rule.ok(v)) {
+      ctx.error(ctx.spot(*t.get("column")), key + ".column",
+                "period " + std::to_string(p + 1) + " takes " + show_number(v) + " from column '" +
+                    *column + "' of '" + series->file.string() + "'; expected " + rule.expected);
+      return std::nullopt;
+    }
+    map.push_back(table_slot(tables, {v}));
+  }
+  return PeriodValues(std::move(tables), std::move(map));
+}
+
 }  // namespace
 
 std::optional<PeriodValues> read_period_values(ReaderContext& ctx, const toml::table& table,
@@ -62,6 +95,8 @@ std::optional<PeriodValues> read_period_values(ReaderContext& ctx, const toml::t
                   rule.expected + ")");
     return std::nullopt;
   }
+  if (const toml::table* t = node->as_table(); t && t->contains("series"))
+    return series_values(ctx, *t, name, rule);
   const toml::array* arr = node->as_array();
   if (!arr) {
     auto t = entry_table(ctx, *node, name, cells, rule);

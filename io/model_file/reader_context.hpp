@@ -4,10 +4,12 @@
 
 #include <filesystem>
 #include <map>
+#include <memory>
 #include <optional>
 #include <string>
 #include <vector>
 
+#include "io/files/calendar.hpp"
 #include "io/model_file/array_source.hpp"
 #include "io/model_file/diagnostics.hpp"
 #include "mesh/grid_part.hpp"
@@ -35,7 +37,13 @@ struct ReaderContext {
   std::optional<GridShape> shape;       ///< set when [grid] read without errors
   std::optional<RectilinearGrid> grid;  ///< set once the active mask is known too
   int n_periods = 0;                    ///< 0 while [[period]] is unknown or invalid
-  std::vector<std::uint8_t> fixed;      ///< per cell: 1 when a fixed_head holds it
+  /// Model times of the period boundaries (n_periods + 1, from 0) once [[period]] is valid.
+  std::vector<double> period_bounds;
+  /// Set when [model] gives a start date: dates in the model and its files map to times.
+  std::optional<CalendarClock> clock;
+  /// Time-series files read so far (a file serves many features; read and checked once).
+  std::map<std::filesystem::path, std::shared_ptr<const struct SeriesFile>> series_cache;
+  std::vector<std::uint8_t> fixed;  ///< per cell: 1 when a fixed_head holds it
   std::map<std::filesystem::path, ArraySource> array_cache;
   /// Rows whose per-cell field values are kept (read_field); every row when unset. Array
   /// files are still read and checked to the end, so every band finds the same errors.

@@ -6,6 +6,8 @@
 #include <sstream>
 #include <vector>
 
+#include "io/files/calendar.hpp"
+
 namespace aquiledger {
 
 SourceSpot ReaderContext::spot(const toml::source_region& region) const {
@@ -220,6 +222,46 @@ std::optional<bool> read_bool(ReaderContext& ctx, const toml::table& table, std:
   if (!node) return std::nullopt;
   if (auto b = node->as_boolean()) return b->get();
   wrong_type(ctx, *node, key, path, "true or false");
+  return std::nullopt;
+}
+
+std::optional<double> read_calendar_time(ReaderContext& ctx, const toml::table& table,
+                                         std::string_view key, const std::string& path,
+                                         bool required) {
+  const toml::node* node = table.get(key);
+  if (!node) {
+    if (required) missing(ctx, table, key, path, "a date such as 2021-03-01");
+    return std::nullopt;
+  }
+  std::string text;
+  if (auto s = node->as_string()) {
+    text = s->get();
+  } else if (auto d = node->as_date()) {
+    std::ostringstream out;
+    out << d->get();
+    text = out.str();
+  } else if (auto dt = node->as_date_time()) {
+    if (dt->get().offset) {
+      ctx.error(*node, key_path(path, key),
+                "value " + show(*node) +
+                    " has a time-zone offset; give a local date-time "
+                    "without one (model times carry no time zone)");
+      return std::nullopt;
+    }
+    std::ostringstream out;
+    out << dt->get().date << 'T' << dt->get().time;
+    text = out.str();
+  } else {
+    wrong_type(ctx, *node, key, path, "a date such as 2021-03-01");
+    return std::nullopt;
+  }
+  // TOML times may carry fractions of a second; whole seconds are kept.
+  if (text.size() > 19 && text[19] == '.') text.resize(19);
+  if (auto seconds = parse_calendar_time(text)) return seconds;
+  ctx.error(*node, key_path(path, key),
+            "value " + show(*node) +
+                " is not a calendar date (expected YYYY-MM-DD, optionally with Thh:mm or "
+                "Thh:mm:ss, a day that exists)");
   return std::nullopt;
 }
 

@@ -43,6 +43,12 @@ std::optional<std::string> read_string(ReaderContext& ctx, const toml::table& ta
 std::optional<std::string> read_choice(ReaderContext& ctx, const toml::table& table,
                                        std::string_view key, const std::string& path,
                                        std::initializer_list<std::string_view> allowed);
+/// A calendar time at key (seconds since 1970-01-01, io/files/calendar.hpp): a TOML date or
+/// local date-time (2021-03-01, 2021-03-01T06:00:00) or a string in ISO 8601 form; a date-time
+/// with a time-zone offset is refused (model times carry no zone).
+std::optional<double> read_calendar_time(ReaderContext& ctx, const toml::table& table,
+                                         std::string_view key, const std::string& path,
+                                         bool required);
 /// Number of a node (integer or finite float; inf and nan are not numbers), no message.
 std::optional<double> number_of(const toml::node& node);
 

@@ -238,13 +238,14 @@ void ResultRecorder::flush() {
     if (model_.output.budget) {
       write_budget_steps_csv(folder_ / "budget_steps.csv", table_layout_, step_rows_);
       write_budget_periods_csv(folder_ / "budget_periods.csv", table_layout_, period_rows_);
-      write_balance_steps_csv(folder_ / "balance_steps.csv", step_rows_);
-      write_balance_periods_csv(folder_ / "balance_periods.csv", period_rows_);
+      write_balance_steps_csv(folder_ / "balance_steps.csv", step_rows_, table_layout_.clock);
+      write_balance_periods_csv(folder_ / "balance_periods.csv", period_rows_, table_layout_.clock);
       write_budget_features_csv(folder_ / "budget_features.csv", features_, period_rows_,
-                                table_layout_.volume_unit);
+                                table_layout_.volume_unit, table_layout_.clock);
     }
     if (!model_.observations.empty())
-      write_observations_csv(folder_ / "observations.csv", model_.observations, observation_rows_);
+      write_observations_csv(folder_ / "observations.csv", model_.observations, observation_rows_,
+                             table_layout_.clock);
   });
 }
 

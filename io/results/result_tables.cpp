@@ -24,17 +24,29 @@ void append_in_out(std::string& out, const InOut& value) {
 }
 
 /// The component rows of one budget, then `total` (the sum of every component), each after
-/// the row's leading text `lead` and followed by the unit.
+/// the row's leading text `lead` and followed by
+/// the unit and `tail` (the dates, or nothing).
 void append_components(std::string& out, const std::string& lead, const BudgetTableLayout& layout,
-                       const WaterBudget& budget, const std::string& unit) {
+                       const WaterBudget& budget, const std::string& unit,
+                       const std::string& tail) {
   for (BudgetComponent c : layout.components) {
     fmt::format_to(std::back_inserter(out), "{},{}", lead, component_label(c));
     append_in_out(out, budget[c]);
-    out += ',' + csv_text(unit) + '\n';
+    out += ',' + csv_text(unit) + tail + '\n';
   }
   out += lead + ",total";
   append_in_out(out, {budget.total_in(), budget.total_out()});
-  out += ',' + csv_text(unit) + '\n';
+  out += ',' + csv_text(unit) + tail + '\n';
+}
+
+/// ",YYYY-MM-DD" of a model time with a clock, else nothing.
+std::string date_cell(const std::optional<CalendarClock>& clock, double time) {
+  return clock ? ',' + clock->date_of(time) : std::string();
+}
+
+/// The header's date columns with a clock, else nothing.
+std::string date_header(const std::optional<CalendarClock>& clock, const char* columns) {
+  return clock ? std::string(",") + columns : std::string();
 }
 
 std::string step_lead(const BudgetStepRow& row) {
@@ -72,55 +84,68 @@ BudgetTableLayout budget_table_layout(const Model& model) {
     if (present[static_cast<std::size_t>(c)]) layout.components.push_back(c);
   layout.volume_unit = model.length_unit + "3";
   layout.rate_unit = layout.volume_unit + "/" + model.time_unit;
+  layout.clock = model_clock(model);
   return layout;
 }
 
 std::string budget_steps_csv(const BudgetTableLayout& layout,
                              const std::vector<BudgetStepRow>& rows) {
-  std::string out = "period,step,time,dt,component,into_aquifer,out_of_aquifer,unit\n";
+  std::string out = "period,step,time,dt,component,into_aquifer,out_of_aquifer,unit" +
+                    date_header(layout.clock, "date") + "\n";
   for (const BudgetStepRow& row : rows)
-    if (is_step(row)) append_components(out, step_lead(row), layout, row.rates, layout.rate_unit);
+    if (is_step(row))
+      append_components(out, step_lead(row), layout, row.rates, layout.rate_unit,
+                        date_cell(layout.clock, row.time));
   return out;
 }
 
 std::string budget_periods_csv(const BudgetTableLayout& layout,
                                const std::vector<BudgetPeriodRow>& rows) {
-  std::string out = "period,period_name,start,end,component,into_aquifer,out_of_aquifer,unit\n";
+  std::string out = "period,period_name,start,end,component,into_aquifer,out_of_aquifer,unit" +
+                    date_header(layout.clock, "start_date,end_date") + "\n";
   for (const BudgetPeriodRow& row : rows)
-    append_components(out, period_lead(row), layout, row.volumes, layout.volume_unit);
+    append_components(out, period_lead(row), layout, row.volumes, layout.volume_unit,
+                      date_cell(layout.clock, row.start) + date_cell(layout.clock, row.end));
   return out;
 }
 
-std::string balance_steps_csv(const std::vector<BudgetStepRow>& rows) {
+std::string balance_steps_csv(const std::vector<BudgetStepRow>& rows,
+                              const std::optional<CalendarClock>& clock) {
   std::string out =
       "period,step,time,dt,into_aquifer,out_of_aquifer,imbalance_percent,newton_iterations,"
-      "cutbacks,confined_cells,water_table_cells,dry_cells\n";
+      "cutbacks,confined_cells,water_table_cells,dry_cells" +
+      date_header(clock, "date") + "\n";
   for (const BudgetStepRow& row : rows) {
     if (!is_step(row)) continue;
     out += step_lead(row);
     append_in_out(out, {row.rates.total_in(), row.rates.total_out()});
     append_number(out, row.rates.imbalance_percent());
-    fmt::format_to(std::back_inserter(out), ",{},{},{},{},{}\n", row.newton_iterations,
-                   row.cutbacks, row.cells.confined, row.cells.water_table, row.cells.dry);
+    fmt::format_to(std::back_inserter(out), ",{},{},{},{},{}{}\n", row.newton_iterations,
+                   row.cutbacks, row.cells.confined, row.cells.water_table, row.cells.dry,
+                   date_cell(clock, row.time));
   }
   return out;
 }
 
-std::string balance_periods_csv(const std::vector<BudgetPeriodRow>& rows) {
-  std::string out = "period,period_name,start,end,into_aquifer,out_of_aquifer,imbalance_percent\n";
+std::string balance_periods_csv(const std::vector<BudgetPeriodRow>& rows,
+                                const std::optional<CalendarClock>& clock) {
+  std::string out = "period,period_name,start,end,into_aquifer,out_of_aquifer,imbalance_percent" +
+                    date_header(clock, "start_date,end_date") + "\n";
   for (const BudgetPeriodRow& row : rows) {
     out += period_lead(row);
     append_in_out(out, {row.volumes.total_in(), row.volumes.total_out()});
     append_number(out, row.volumes.imbalance_percent());
-    out += '\n';
+    out += date_cell(clock, row.start) + date_cell(clock, row.end) + '\n';
   }
   return out;
 }
 
 std::string budget_features_csv(const std::vector<FeatureRef>& features,
                                 const std::vector<BudgetPeriodRow>& rows,
-                                const std::string& volume_unit) {
-  std::string out = "period,period_name,feature,kind,into_aquifer,out_of_aquifer,unit\n";
+                                const std::string& volume_unit,
+                                const std::optional<CalendarClock>& clock) {
+  std::string out = "period,period_name,feature,kind,into_aquifer,out_of_aquifer,unit" +
+                    date_header(clock, "start_date,end_date") + "\n";
   for (const BudgetPeriodRow& row : rows) {
     if (row.volumes.features.size() != features.size()) {
       throw std::invalid_argument(
@@ -131,15 +156,18 @@ std::string budget_features_csv(const std::vector<FeatureRef>& features,
       fmt::format_to(std::back_inserter(out), "{},{},{},{}", row.period, csv_text(row.name),
                      csv_text(features[k].name), feature_kind_label(features[k].kind));
       append_in_out(out, row.volumes.features[k]);
-      out += ',' + csv_text(volume_unit) + '\n';
+      out += ',' + csv_text(volume_unit) + date_cell(clock, row.start) + date_cell(clock, row.end) +
+             '\n';
     }
   }
   return out;
 }
 
 std::string observations_csv(const std::vector<Observation>& observations,
-                             const std::vector<ObservationRow>& rows) {
-  std::string out = "observation,period,step,time,head,drawdown\n";
+                             const std::vector<ObservationRow>& rows,
+                             const std::optional<CalendarClock>& clock) {
+  std::string out =
+      "observation,period,step,time,head,drawdown" + date_header(clock, "date") + "\n";
   for (const ObservationRow& row : rows) {
     if (row.observation >= observations.size()) {
       throw std::invalid_argument(fmt::format("observation row refers to observation {} of {}",
@@ -150,7 +178,7 @@ std::string observations_csv(const std::vector<Observation>& observations,
     append_number(out, row.time);
     append_number(out, row.head);
     append_number(out, row.drawdown);
-    out += '\n';
+    out += date_cell(clock, row.time) + '\n';
   }
   return out;
 }
@@ -166,26 +194,30 @@ void write_budget_periods_csv(const std::filesystem::path& path, const BudgetTab
 }
 
 void write_balance_steps_csv(const std::filesystem::path& path,
-                             const std::vector<BudgetStepRow>& rows) {
-  write_file_atomically(path, balance_steps_csv(rows));
+                             const std::vector<BudgetStepRow>& rows,
+                             const std::optional<CalendarClock>& clock) {
+  write_file_atomically(path, balance_steps_csv(rows, clock));
 }
 
 void write_balance_periods_csv(const std::filesystem::path& path,
-                               const std::vector<BudgetPeriodRow>& rows) {
-  write_file_atomically(path, balance_periods_csv(rows));
+                               const std::vector<BudgetPeriodRow>& rows,
+                               const std::optional<CalendarClock>& clock) {
+  write_file_atomically(path, balance_periods_csv(rows, clock));
 }
 
 void write_budget_features_csv(const std::filesystem::path& path,
                                const std::vector<FeatureRef>& features,
                                const std::vector<BudgetPeriodRow>& rows,
-                               const std::string& volume_unit) {
-  write_file_atomically(path, budget_features_csv(features, rows, volume_unit));
+                               const std::string& volume_unit,
+                               const std::optional<CalendarClock>& clock) {
+  write_file_atomically(path, budget_features_csv(features, rows, volume_unit, clock));
 }
 
 void write_observations_csv(const std::filesystem::path& path,
                             const std::vector<Observation>& observations,
-                            const std::vector<ObservationRow>& rows) {
-  write_file_atomically(path, observations_csv(observations, rows));
+                            const std::vector<ObservationRow>& rows,
+                            const std::optional<CalendarClock>& clock) {
+  write_file_atomically(path, observations_csv(observations, rows, clock));
 }
 
 }  // namespace aquiledger

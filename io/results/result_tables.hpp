@@ -6,9 +6,11 @@
 // rewritten whole and atomically, so a crash leaves the last complete version.
 #include <cstddef>
 #include <filesystem>
+#include <optional>
 #include <string>
 #include <vector>
 
+#include "io/files/calendar.hpp"
 #include "io/files/output_error.hpp"
 #include "postproc/cell_fields.hpp"
 #include "postproc/water_budget.hpp"
@@ -54,6 +56,9 @@ struct BudgetTableLayout {
   std::vector<BudgetComponent> components;
   std::string rate_unit;    ///< e.g. "m3/d"
   std::string volume_unit;  ///< e.g. "m3"
+  /// With a start date every table also gives dates: `date` (steps, observations) or
+  /// `start_date,end_date` (periods) after its contract columns.
+  std::optional<CalendarClock> clock;
 };
 
 /// Storage always (storage_skeleton and storage_water with the compressibility route,
@@ -70,17 +75,21 @@ std::string budget_periods_csv(const BudgetTableLayout& layout,
                                const std::vector<BudgetPeriodRow>& rows);
 /// period,step,time,dt,into_aquifer,out_of_aquifer,imbalance_percent,newton_iterations,
 /// cutbacks,confined_cells,water_table_cells,dry_cells (rates of the step, L3/T)
-std::string balance_steps_csv(const std::vector<BudgetStepRow>& rows);
+std::string balance_steps_csv(const std::vector<BudgetStepRow>& rows,
+                              const std::optional<CalendarClock>& clock = std::nullopt);
 /// period,period_name,start,end,into_aquifer,out_of_aquifer,imbalance_percent (volumes, L3)
-std::string balance_periods_csv(const std::vector<BudgetPeriodRow>& rows);
+std::string balance_periods_csv(const std::vector<BudgetPeriodRow>& rows,
+                                const std::optional<CalendarClock>& clock = std::nullopt);
 /// period,period_name,feature,kind,into_aquifer,out_of_aquifer,unit: one row per feature
 /// per period, volumes (into_aquifer: well injection, a losing river reach, ...).
 std::string budget_features_csv(const std::vector<FeatureRef>& features,
                                 const std::vector<BudgetPeriodRow>& rows,
-                                const std::string& volume_unit);
+                                const std::string& volume_unit,
+                                const std::optional<CalendarClock>& clock = std::nullopt);
 /// observation,period,step,time,head,drawdown; the observation column holds its name.
 std::string observations_csv(const std::vector<Observation>& observations,
-                             const std::vector<ObservationRow>& rows);
+                             const std::vector<ObservationRow>& rows,
+                             const std::optional<CalendarClock>& clock = std::nullopt);
 
 /// The same, written atomically to path; throw OutputError naming the path on failure.
 void write_budget_steps_csv(const std::filesystem::path& path, const BudgetTableLayout& layout,
@@ -88,15 +97,19 @@ void write_budget_steps_csv(const std::filesystem::path& path, const BudgetTable
 void write_budget_periods_csv(const std::filesystem::path& path, const BudgetTableLayout& layout,
                               const std::vector<BudgetPeriodRow>& rows);
 void write_balance_steps_csv(const std::filesystem::path& path,
-                             const std::vector<BudgetStepRow>& rows);
+                             const std::vector<BudgetStepRow>& rows,
+                             const std::optional<CalendarClock>& clock = std::nullopt);
 void write_balance_periods_csv(const std::filesystem::path& path,
-                               const std::vector<BudgetPeriodRow>& rows);
+                               const std::vector<BudgetPeriodRow>& rows,
+                               const std::optional<CalendarClock>& clock = std::nullopt);
 void write_budget_features_csv(const std::filesystem::path& path,
                                const std::vector<FeatureRef>& features,
                                const std::vector<BudgetPeriodRow>& rows,
-                               const std::string& volume_unit);
+                               const std::string& volume_unit,
+                               const std::optional<CalendarClock>& clock = std::nullopt);
 void write_observations_csv(const std::filesystem::path& path,
                             const std::vector<Observation>& observations,
-                            const std::vector<ObservationRow>& rows);
+                            const std::vector<ObservationRow>& rows,
+                            const std::optional<CalendarClock>& clock = std::nullopt);
 
 }  // namespace aquiledger

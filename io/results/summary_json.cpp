@@ -53,6 +53,7 @@ std::string summary_json(const RunSummary& s) {
   o.text("model_file", s.model_file);
   o.text("length_unit", s.length_unit);
   o.text("time_unit", s.time_unit);
+  if (!s.start_date.empty()) o.text("start_date", s.start_date);
   o.text("volume_unit", s.length_unit + "3");
   o.text("rate_unit", s.length_unit + "3/" + s.time_unit);
   o.integer("cells", s.cells);

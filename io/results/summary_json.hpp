@@ -17,6 +17,7 @@ struct RunSummary {
   std::string model_file;  ///< absolute path of the model file
   std::string length_unit;
   std::string time_unit;
+  std::string start_date;  ///< ISO date of model time 0; empty when the model gives none
   int cells = 0;
   int active_cells = 0;
   int unknowns = 0;  ///< equations per Newton iteration (active, not fixed-head)
