@@ -2,6 +2,7 @@
 
 #include <cmath>
 
+#include "postproc/land_surface.hpp"
 #include "solver/face_table.hpp"
 #include "solver/storage_function.hpp"
 
@@ -117,6 +118,7 @@ CellFields initial_cell_fields(const Model& model, const SystemLayout& layout, c
                       &f.storage_elastic_rate, &f.storage_drainage_rate, &f.compaction})
         (*v)[k] = std::nan("");
   fill_face_flows(model, layout, part, initial_head, f);
+  f.depth_to_water = depth_to_water(model, part, initial_head);
   return f;
 }
 
@@ -149,6 +151,7 @@ void update_cell_fields(const Model& model, const SystemLayout& layout, const Gr
     if (!steady) f.compaction[k] += share * elastic * dt / layout.area[i];
   }
   fill_face_flows(model, layout, part, head_new, f);
+  f.depth_to_water = depth_to_water(model, part, head_new);
 }
 
 }  // namespace aquiledger

@@ -22,6 +22,7 @@ struct CellFields {
   std::vector<double> compaction;             ///< L, cumulative since the start
   std::vector<double> flow_east;              ///< L3/T across the east face, positive east
   std::vector<double> flow_north;             ///< L3/T across the north face, positive north
+  std::vector<double> depth_to_water;         ///< L, land surface minus head; empty without one
 };
 
 /// How many active cells are in each state (the `state` field's classes) at one time.

@@ -52,6 +52,9 @@ struct Aquifer {
   /// Share of the elastic storage from skeleton compression, alpha / (alpha + n beta);
   /// filled only on the compressibility route (then the budget splits skeleton and water).
   std::vector<double> skeleton_share;
+  /// L; ground elevation, empty when the model gives none (reports and warnings only:
+  /// heads above it mean flooding or flowing artesian conditions).
+  std::vector<double> land_surface;
   std::optional<Compressibility> compressibility;  ///< set on the compressibility route
   bool elastic_split() const { return !skeleton_share.empty(); }
 };

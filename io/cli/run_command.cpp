@@ -20,6 +20,7 @@
 #include "io/files/output_lock.hpp"
 #include "io/model_file/memory_guard.hpp"
 #include "io/model_file/model_reader.hpp"
+#include "io/model_file/plausibility.hpp"
 #include "io/reports/run_report.hpp"
 #include "io/restart/checkpoint.hpp"
 #include "io/results/result_recorder.hpp"
@@ -235,6 +236,8 @@ void print_run_summary(const Model& model, const ResultRecorder& recorder, const
   std::fputs(
       fmt::format("  largest step imbalance {:.3g} %\n", stats.max_abs_imbalance_percent).c_str(),
       stdout);
+  for (std::size_t k = model.warnings.size(); k < summary.warnings.size(); ++k)
+    std::fprintf(stdout, "  warning: %s\n", summary.warnings[k].c_str());
   if (summary.well_shortfall_volume > 0.0)
     std::fputs(fmt::format("  well shortfall {:.4g} {}3 not delivered where cells ran dry\n",
                            summary.well_shortfall_volume, model.length_unit)
@@ -345,7 +348,14 @@ int run_run_command(const RunOptions& options) {
     return engine->fail_everywhere(exit_not_converged);
   }
   const double wall = std::chrono::duration<double>(Clock::now() - start).count();
-  const RunSummary summary = make_run_summary(options, model, *recorder, run, wall);
+  RunSummary summary = make_run_summary(options, model, *recorder, run, wall);
+  const HeadsAboveSurface above = recorder->heads_above_land_surface_at_end();
+  if (above.cells > 0)
+    summary.warnings.push_back(
+        "at the end of the run heads stand above the land surface " +
+        describe_heads_above(above, model.grid, model.length_unit) +
+        ": flooded ground or flowing artesian conditions the model does not represent; check "
+        "the stresses, the boundaries and the land surface (fields: depth_to_water < 0)");
   std::string summary_error;
   try {
     if (root) write_summary_json(folder / "summary.json", summary);

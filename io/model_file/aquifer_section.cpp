@@ -215,7 +215,7 @@ void read_aquifer(ReaderContext& ctx, const toml::table& root, Model& model) {
   const toml::table& t = *node->as_table();
   check_keys(ctx, t, path,
              {"top", "bottom", "k", "k_ratio", "condition", "specific_yield", "specific_storage",
-              "storativity", "compressibility"});
+              "storativity", "compressibility", "land_surface"});
   Aquifer& a = model.aquifer;
   const std::optional<Condition> condition = read_condition(ctx, t, path);
   if (condition) a.condition = *condition;
@@ -224,6 +224,11 @@ void read_aquifer(ReaderContext& ctx, const toml::table& root, Model& model) {
   const bool needs_sy = known && a.condition != Condition::confined;
   std::optional<CellField> sy = read_specific_yield(ctx, t, path, known, needs_sy);
   std::optional<CellField> ss = read_elastic_storage(ctx, t, path, condition, g, model);
+  std::optional<CellField> land = read_field_key(ctx, t, "land_surface", path, false);
+  if (land)
+    check_field(
+        ctx, *land, path + ".land_surface", [](double v) { return std::isfinite(v); },
+        "a ground elevation in " + ctx.length_unit);
   if (ctx.diagnostics.has_errors() || !ctx.grid || !g.k || !g.bottom) return;
 
   // Everything checked: the per-cell arrays of the model.
@@ -243,6 +248,7 @@ void read_aquifer(ReaderContext& ctx, const toml::table& root, Model& model) {
   if (sy && needs_sy) a.specific_yield = std::move(sy->values);
   if (ss) a.specific_storage = std::move(ss->values);
   if (a.specific_storage.empty()) a.specific_storage.assign(n, 0.0);
+  if (land) a.land_surface = std::move(land->values);
 }
 
 }  // namespace aquiledger

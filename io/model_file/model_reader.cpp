@@ -55,6 +55,15 @@ ReadResult read_parsed(ReaderContext& ctx, const toml::table& root) {
   Model model;
   model.source_file = ctx.model_file;
   read_sections(ctx, root, model);
+  for (const auto& [file, source] : ctx.array_cache) model.input_files.push_back(file);
+  for (const auto& [file, series] : ctx.series_cache) model.input_files.push_back(file);
+  for (const Observation& o : model.observations)
+    if (!o.measured_file.empty()) model.input_files.push_back(o.measured_file);
+  model.input_files.insert(model.input_files.end(), ctx.other_inputs.begin(),
+                           ctx.other_inputs.end());
+  std::sort(model.input_files.begin(), model.input_files.end());
+  model.input_files.erase(std::unique(model.input_files.begin(), model.input_files.end()),
+                          model.input_files.end());
   ReadResult result;
   if (!ctx.diagnostics.has_errors()) {
     for (auto& w : plausibility_warnings(model)) ctx.warning(ctx.file_spot(), w.key, w.message);

@@ -6,9 +6,11 @@
 #include "io/files/calendar.hpp"
 #include "io/files/input_file_guard.hpp"
 #include "io/model_file/array_source.hpp"
+#include "io/model_file/feature_table.hpp"
 #include "io/model_file/field_value.hpp"
 #include "io/model_file/memory_guard.hpp"
 #include "io/model_file/section_readers.hpp"
+#include "io/model_file/time_series.hpp"
 #include "io/model_file/toml_access.hpp"
 
 namespace aquiledger {
@@ -59,15 +61,74 @@ std::vector<MeasuredHead> read_measured(ReaderContext& ctx, const std::filesyste
                     ? "'" + cells[0] +
                           "' is a date: give [model].start_date (the date of model time 0) to "
                           "measure times by dates"
-                    : "expected time,head (time in " + ctx.time_unit + " or a date YYYY-MM-DD" +
-                          (ctx.clock ? "" : " with [model].start_date") + ", head in " +
-                          ctx.length_unit + "), found '" + line + "'");
+                    : "expected two numbers time,head (" + ctx.time_unit + ", " + ctx.length_unit +
+                          "; the time may be a date YYYY-MM-DD" +
+                          (ctx.clock ? "" : " with [model].start_date") + "), found '" + line +
+                          "'");
       continue;
     }
     rows.push_back({*time, *head});
   }
   if (rows.empty()) ctx.error(SourceSpot{file, 0, 0}, key, "no time,head rows found");
   return rows;
+}
+
+}  // namespace
+
+namespace {
+
+/// The bores of a `table` entry (name, x, y and an optional measured column naming each
+/// bore's time,head file), with measured heads also from `measured_series`: a time series
+/// with one column per bore (io/model_file/time_series.hpp; an empty cell: no reading).
+void read_observation_table(ReaderContext& ctx, const toml::table& t, const std::string& path,
+                            std::vector<std::string>& names, Model& model) {
+  for (std::string_view key : {"name", "x", "y", "measured"})
+    if (const toml::node* n = t.get(key))
+      ctx.error(*n, key_path(path, key),
+                std::string("an observation table takes names and points from its file") +
+                    (key == "measured" ? " (measured files in its measured column, or "
+                                         "measured_series = a file with a column per bore)"
+                                       : "") +
+                    "; remove this key or the table");
+  auto rows = read_feature_table(ctx, t, path, {"measured"}, names);
+  if (!rows) return;
+  const SeriesFile* series = nullptr;
+  if (auto file = read_string(ctx, t, "measured_series", path, false)) {
+    series = series_file(ctx, ctx.resolve(*file), ctx.spot(*t.get("measured_series")),
+                         path + ".measured_series");
+    if (!series) return;
+    for (const std::string& column : series->columns)
+      if (std::none_of(rows->begin(), rows->end(),
+                       [&](const FeatureTableRow& r) { return r.name == column; }))
+        ctx.warning(ctx.spot(*t.get("measured_series")), path + ".measured_series",
+                    "column '" + column + "' of '" + series->file.string() +
+                        "' names no bore of the table; its readings are not used");
+  }
+  for (const FeatureTableRow& row : *rows) {
+    Observation o;
+    o.name = row.name;
+    o.x = row.x;
+    o.y = row.y;
+    o.cell = row.cell;
+    if (!row.extra[0].empty()) {
+      o.measured_file = ctx.resolve(row.extra[0]);
+      o.measured = read_measured(ctx, o.measured_file, row.at,
+                                 path + ".table (bore '" + row.name + "').measured");
+    }
+    if (series)
+      if (auto c = series->column(row.name)) {
+        if (!o.measured.empty()) {
+          ctx.error(row.at, path + ".table",
+                    "bore '" + row.name + "' has measured heads in its own file and in column '" +
+                        row.name + "' of '" + series->file.string() + "'; give one");
+          continue;
+        }
+        for (std::size_t r = 0; r < series->time.size(); ++r)
+          if (!std::isnan(series->values[*c][r]))
+            o.measured.push_back({series->time[r], series->values[*c][r]});
+      }
+    model.observations.push_back(std::move(o));
+  }
 }
 
 }  // namespace
@@ -79,7 +140,15 @@ void read_observations(ReaderContext& ctx, const toml::table& root, Model& model
   for (std::size_t i = 0; i < obs->size(); ++i) {
     const toml::table& t = *(*obs)[i].as_table();
     const std::string path = feature_path("observation", t, i);
-    check_keys(ctx, t, path, {"name", "x", "y", "measured"});
+    check_keys(ctx, t, path, {"name", "x", "y", "measured", "table", "measured_series"});
+    if (t.contains("table")) {
+      read_observation_table(ctx, t, path, names, model);
+      continue;
+    }
+    if (const toml::node* n = t.get("measured_series"))
+      ctx.error(*n, path + ".measured_series",
+                "measured_series goes with a table of bores; a single bore takes measured = "
+                "\"file.csv\" (time,head)");
     Observation o;
     o.name =
         read_string(ctx, t, "name", path, false).value_or("observation " + std::to_string(i + 1));

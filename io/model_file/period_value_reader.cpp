@@ -50,10 +50,12 @@ std::uint32_t table_slot(std::vector<std::vector<double>>& tables, std::vector<d
 /// `{ series = "file.csv", column = "name", rule = "mean" | "start" }`: one value per period
 /// from a time series (io/model_file/time_series.hpp).
 std::optional<PeriodValues> series_values(ReaderContext& ctx, const toml::table& t,
-                                          const std::string& key, const ValueRule& rule) {
+                                          const std::string& key, const ValueRule& rule,
+                                          const std::string& default_column) {
   check_keys(ctx, t, key, {"series", "column", "rule"});
   auto file = read_string(ctx, t, "series", key, true);
-  auto column = read_string(ctx, t, "column", key, true);
+  auto column = read_string(ctx, t, "column", key, default_column.empty());
+  if (!column && !default_column.empty() && !t.contains("column")) column = default_column;
   auto how = read_choice(ctx, t, "rule", key, {"mean", "start"});
   if (!file || !column || (t.contains("rule") && !how)) return std::nullopt;
   if (ctx.n_periods == 0) return std::nullopt;  // periods invalid: already reported
@@ -61,15 +63,16 @@ std::optional<PeriodValues> series_values(ReaderContext& ctx, const toml::table&
   const SeriesFile* series = series_file(ctx, ctx.resolve(*file), at, key + ".series");
   if (!series) return std::nullopt;
   const SeriesRule r = how.value_or("mean") == "start" ? SeriesRule::start : SeriesRule::mean;
-  auto values =
-      values_per_period(ctx, *series, *column, r, ctx.spot(*t.get("column")), key + ".column");
+  const toml::node& column_node = t.contains("column") ? *t.get("column") : *t.get("series");
+  auto values = values_per_period(ctx, *series, *column, r, ctx.spot(column_node),
+                                  key + (t.contains("column") ? ".column" : ".series"));
   if (!values) return std::nullopt;
   std::vector<std::vector<double>> tables;
   std::vector<std::uint32_t> map;
   for (std::size_t p = 0; p < values->size(); ++p) {
     const double v = (*values)[p];
     if (!rule.ok(v)) {
-      ctx.error(ctx.spot(*t.get("column")), key + ".column",
+      ctx.error(ctx.spot(column_node), key,
                 "period " + std::to_string(p + 1) + " takes " + show_number(v) + " from column '" +
                     *column + "' of '" + series->file.string() + "'; expected " + rule.expected);
       return std::nullopt;
@@ -85,7 +88,8 @@ std::optional<PeriodValues> read_period_values(ReaderContext& ctx, const toml::t
                                                std::string_view key, const std::string& path,
                                                const std::vector<CellIndex>& cells,
                                                std::optional<double> fallback,
-                                               const ValueRule& rule) {
+                                               const ValueRule& rule,
+                                               const std::string& series_column) {
   const std::string name = key_path(path, key);
   const toml::node* node = table.get(key);
   if (!node) {
@@ -96,7 +100,7 @@ std::optional<PeriodValues> read_period_values(ReaderContext& ctx, const toml::t
     return std::nullopt;
   }
   if (const toml::table* t = node->as_table(); t && t->contains("series"))
-    return series_values(ctx, *t, name, rule);
+    return series_values(ctx, *t, name, rule, series_column);
   const toml::array* arr = node->as_array();
   if (!arr) {
     auto t = entry_table(ctx, *node, name, cells, rule);

@@ -4,6 +4,7 @@
 #include <cstdio>
 #include <limits>
 
+#include "io/model_file/reader_context.hpp"
 #include "io/model_file/unit_system.hpp"
 
 namespace aquiledger {
@@ -44,6 +45,19 @@ void check_range(std::vector<PlausibilityWarning>& out, const std::string& key,
 
 }  // namespace
 
+std::string describe_heads_above(const HeadsAboveSurface& above, const RectilinearGrid& grid,
+                                 const std::string& length_unit) {
+  std::string text = "in " + std::to_string(above.cells) + " active cell" +
+                     (above.cells == 1 ? "" : "s") + " (largest ";
+  for (std::size_t k = 0; k < above.worst.size(); ++k) {
+    char excess[32];
+    std::snprintf(excess, sizeof excess, "%.3g", above.worst[k].excess);
+    text += (k == 0 ? "" : "; ") + std::string(excess) + " " + length_unit + " at " +
+            describe_cell(grid.n_cols(), above.worst[k].cell.value);
+  }
+  return text + ")";
+}
+
 std::vector<PlausibilityWarning> plausibility_warnings(const Model& model) {
   std::vector<PlausibilityWarning> out;
   const RectilinearGrid& g = model.grid;
@@ -70,6 +84,28 @@ std::vector<PlausibilityWarning> plausibility_warnings(const Model& model) {
   if (!std::isnan(kyr.first)) kr = {std::min(kr.first, kyr.first), std::max(kr.second, kyr.second)};
   check_range(out, "[aquifer].k", "hydraulic conductivity of", kr, 1.0e-4 * m_per_day_in_model,
               1.0e4 * m_per_day_in_model, unit);
+  // Heads above the ground: flooded land or, under a confining bed, flowing artesian wells
+  // (a fact of the trade); a model without surface-water features there is likely wrong.
+  if (!a.land_surface.empty()) {
+    if (!model.initial.head.empty()) {
+      const HeadsAboveSurface above =
+          heads_above_land_surface(model, GridPart::whole(g), model.initial.head);
+      if (above.cells > 0)
+        out.push_back({"[initial].head",
+                       "initial heads stand above the land surface " +
+                           describe_heads_above(above, g, model.length_unit) +
+                           ": flooded ground or flowing artesian conditions; check the heads "
+                           "and the land surface"});
+    }
+    if (!a.top.empty()) {
+      HeadsAboveSurface high = heads_above_land_surface(model, GridPart::whole(g), a.top);
+      if (high.cells > 0)
+        out.push_back(
+            {"[aquifer].land_surface", "the aquifer top stands above the land surface " +
+                                           describe_heads_above(high, g, model.length_unit) +
+                                           "; check both elevations and their datum"});
+    }
+  }
   // Measured heads the report cannot compare: every measured time of a bore outside the run.
   double end = 0.0;
   for (const Period& p : model.periods) end += p.length;

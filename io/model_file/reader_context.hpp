@@ -43,6 +43,9 @@ struct ReaderContext {
   std::optional<CalendarClock> clock;
   /// Time-series files read so far (a file serves many features; read and checked once).
   std::map<std::filesystem::path, std::shared_ptr<const struct SeriesFile>> series_cache;
+  /// Other files read (feature tables); with the caches and the measured-head files they
+  /// make Model::input_files.
+  std::vector<std::filesystem::path> other_inputs;
   std::vector<std::uint8_t> fixed;  ///< per cell: 1 when a fixed_head holds it
   std::map<std::filesystem::path, ArraySource> array_cache;
   /// Rows whose per-cell field values are kept (read_field); every row when unset. Array

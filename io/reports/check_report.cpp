@@ -6,6 +6,7 @@
 #include <map>
 #include <string>
 
+#include "io/files/calendar.hpp"
 #include "io/model_file/period_value_reader.hpp"
 #include "io/model_file/plausibility.hpp"
 #include "solver/time_steps.hpp"
@@ -97,6 +98,8 @@ void aquifer_part(Report& r, const Model& m) {
     }
   }
   if (!a.specific_yield.empty()) r.item("Sy", range_text(active_range(g, a.specific_yield), ""));
+  if (!a.land_surface.empty())
+    r.item("land surface", range_text(active_range(g, a.land_surface), L));
   if (a.compressibility) {
     const Compressibility& c = *a.compressibility;
     r.item("storage route", "compressibility, Ss = rho g (alpha + n beta) (Jacob, 1940)");
@@ -274,6 +277,11 @@ std::string format_check_report(const Model& m) {
   Report r;
   r.heading("Model \"" + m.title + "\" (" + m.source_file.string() + ")");
   r.item("units", "length " + m.length_unit + ", time " + m.time_unit);
+  if (auto clock = model_clock(m)) {
+    double end = 0.0;
+    for (const Period& p : m.periods) end += p.length;
+    r.item("calendar", "time 0 = " + clock->date_of(0.0) + ", the run ends " + clock->date_of(end));
+  }
   grid_part(r, m);
   aquifer_part(r, m);
   zone_part(r, m);

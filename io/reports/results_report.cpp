@@ -576,6 +576,23 @@ void add_maps(HtmlReport& page, const std::filesystem::path& folder, const Units
                    class_map_spec(state.x_edges, state.y_edges, state.values,
                                   {"dry", "water table", "confined"},
                                   {"#c9a227", "#5fb3c9", "#1b6f7a"}, u.length, 560, features));
+    // Depth to water: written only for models with a land surface.
+    FieldMap depth;
+    bool has_depth = model != nullptr && !model->aquifer.land_surface.empty();
+    try {
+      if (has_depth) depth = read_field_vtr(f, "depth_to_water");
+    } catch (const OutputError&) {
+      has_depth = false;  // results written before the model had a land surface
+    }
+    if (has_depth) {
+      page.add_chart(
+          fmt::format("Depth to water below the land surface at time {:g} {} (negative: head "
+                      "above the ground)",
+                      time, u.time),
+          heatmap_spec(depth.x_edges, depth.y_edges, depth.values,
+                       fmt::format("depth to water ({})", u.length), u.length, "blues", 560,
+                       features));
+    }
     FieldMap compaction;
     try {
       compaction = read_field_vtr(f, "compaction");

@@ -2,6 +2,7 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <cmath>
 
 #include "io/results/head_arrays.hpp"
@@ -142,6 +143,7 @@ void ResultRecorder::step_done(const StepInfo& info, std::span<const double> hea
       ++head_arrays_done_;
   }
   if (model_.output.head_arrays_at_period_ends) last_head_.assign(head_new.begin(), head_new.end());
+  above_ = heads_above_land_surface(model_, part_, window(head_new));
   stats_.output_seconds += seconds_since(start);
   if (progress_) progress_(info);
 }
@@ -230,6 +232,29 @@ void ResultRecorder::restore(RecorderState s) {
   time_ = s.time;
   stats_ = std::move(s.stats);
   head_arrays_done_ = s.head_arrays_done;
+}
+
+HeadsAboveSurface ResultRecorder::heads_above_land_surface_at_end() {
+  if (reduction_ == nullptr) return above_;
+  // Every process's count and its largest excesses, each in its own slots of a sum.
+  constexpr std::size_t slots = 3;
+  const auto rank = static_cast<std::size_t>(reduction_->rank());
+  std::vector<double> packed(1 + 2 * slots * static_cast<std::size_t>(reduction_->n_ranks()), 0.0);
+  packed[0] = static_cast<double>(above_.cells);
+  for (std::size_t k = 0; k < above_.worst.size() && k < slots; ++k) {
+    packed[1 + 2 * (rank * slots + k)] = above_.worst[k].cell.value + 1.0;  // 0: empty slot
+    packed[2 + 2 * (rank * slots + k)] = above_.worst[k].excess;
+  }
+  reduce(packed);
+  HeadsAboveSurface all;
+  all.cells = std::lround(packed[0]);
+  for (std::size_t j = 1; j + 1 < packed.size(); j += 2)
+    if (packed[j] > 0.0)
+      all.worst.push_back({CellIndex{static_cast<std::int32_t>(packed[j]) - 1}, packed[j + 1]});
+  std::sort(all.worst.begin(), all.worst.end(),
+            [](const auto& a, const auto& b) { return a.excess > b.excess; });
+  if (all.worst.size() > slots) all.worst.resize(slots);
+  return all;
 }
 
 void ResultRecorder::flush() {

@@ -12,6 +12,7 @@
 #include "io/results/result_tables.hpp"
 #include "io/results/vtk_fields.hpp"
 #include "postproc/cell_fields.hpp"
+#include "postproc/land_surface.hpp"
 #include "postproc/observation_sampler.hpp"
 #include "postproc/water_budget.hpp"
 #include "solver/result_reduction.hpp"
@@ -78,6 +79,9 @@ class ResultRecorder final : public SimulationObserver {
   /// Continues from a saved state instead of initial_state (nothing is written).
   void restore(RecorderState state);
   const SystemLayout& layout() const { return layout_; }
+  /// Active cells whose head stood above the land surface at the end of the last step, with
+  /// the largest excesses (none without a land surface). Collective in a distributed run.
+  HeadsAboveSurface heads_above_land_surface_at_end();
 
  private:
   void write_fields(double time);
@@ -113,6 +117,7 @@ class ResultRecorder final : public SimulationObserver {
   std::size_t head_arrays_done_ = 0;
   std::vector<double> last_head_;  ///< L, of the last step (kept for head arrays at period ends)
   std::function<void(const StepInfo&)> progress_;
+  HeadsAboveSurface above_;  ///< this process's cells, at the end of the last step
   GridPart part_;
   ResultReduction* reduction_ = nullptr;
 };

@@ -205,6 +205,8 @@ void write_fields_vtr(const std::filesystem::path& path, const Model& model,
   add_cell_array(vtk_grid, grid, band, "compaction", fields.compaction);
   add_cell_array(vtk_grid, grid, band, "flow_east", fields.flow_east);
   add_cell_array(vtk_grid, grid, band, "flow_north", fields.flow_north);
+  if (!fields.depth_to_water.empty())
+    add_cell_array(vtk_grid, grid, band, "depth_to_water", fields.depth_to_water);
   vtk_grid->GetCellData()->SetActiveScalars("head");
 
   vtkNew<vtkDoubleArray> time_array;
@@ -227,6 +229,8 @@ void write_static_vtr(const std::filesystem::path& path, const Model& model) {
   add_cell_array(vtk_grid, grid, band, "specific_storage", aquifer.specific_storage);
   if (!aquifer.specific_yield.empty())
     add_cell_array(vtk_grid, grid, band, "specific_yield", aquifer.specific_yield);
+  if (!aquifer.land_surface.empty())
+    add_cell_array(vtk_grid, grid, band, "land_surface", aquifer.land_surface);
 
   vtkNew<vtkUnsignedCharArray> active;
   active->SetName("active");
@@ -271,6 +275,8 @@ void write_pvtr(const std::filesystem::path& path, const Model& model,
                            "storage_drainage_rate", "compaction", "flow_east", "flow_north"})
     fmt::format_to(std::back_inserter(text), "      <PDataArray type=\"{}\" Name=\"{}\"/>\n",
                    std::string_view(name) == "state" ? "Int32" : "Float64", name);
+  if (!model.aquifer.land_surface.empty())
+    text += "      <PDataArray type=\"Float64\" Name=\"depth_to_water\"/>\n";
   fmt::format_to(std::back_inserter(text), "      <PDataArray type=\"UInt8\" Name=\"{}\"/>\n",
                  vtkDataSetAttributes::GhostArrayName());
   text +=

@@ -23,7 +23,8 @@ mkdir -p "$build/obj"
 # fitting numerics of postproc/ and is left out.)
 mapfile -t reader_sources < <(cd "$source_dir" && ls io/model_file/*.cpp | grep -v pumping_test_reader)
 sources=(
-  "${reader_sources[@]}" io/files/input_file_guard.cpp mesh/rectilinear_grid.cpp
+  "${reader_sources[@]}" io/files/input_file_guard.cpp io/files/calendar.cpp
+  io/files/csv_table.cpp postproc/land_surface.cpp mesh/rectilinear_grid.cpp
   mesh/polyline_crossing.cpp tests/fuzz/fuzz_model_reader.cpp
 )
 # Two checks are off because they fire inside TOML++ 3.3 (Debian's), not in our code, on
