@@ -16,6 +16,16 @@ void add_crossings(double a, double b, std::span<const double> edges, std::vecto
     if (e > lo && e < hi) t.push_back((e - a) / (b - a));
 }
 
+void add_weight(std::vector<std::pair<std::size_t, double>>& weights, std::size_t vertex,
+                double w) {
+  for (auto& [v, sum] : weights)
+    if (v == vertex) {
+      sum += w;
+      return;
+    }
+  weights.emplace_back(vertex, w);
+}
+
 }  // namespace
 
 PolylineCrossing cross_polyline(const RectilinearGrid& grid,
@@ -44,8 +54,11 @@ PolylineCrossing cross_polyline(const RectilinearGrid& grid,
         out.inactive_length += piece;
       } else {
         auto [it, fresh] = slot.try_emplace(cell->value, out.active.size());
-        if (fresh) out.active.push_back({*cell, 0.0});
-        out.active[it->second].length += piece;
+        if (fresh) out.active.push_back({*cell, 0.0, {}});
+        CellLength& cl = out.active[it->second];
+        cl.length += piece;
+        add_weight(cl.vertex_weights, s, piece * (1.0 - tm));
+        add_weight(cl.vertex_weights, s + 1, piece * tm);
       }
     }
   }

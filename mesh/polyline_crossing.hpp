@@ -4,6 +4,7 @@
 // midpoint. Pure geometry, no files.
 #include <array>
 #include <span>
+#include <utility>
 #include <vector>
 
 #include "mesh/rectilinear_grid.hpp"
@@ -13,6 +14,11 @@ namespace aquiledger {
 struct CellLength {
   CellIndex cell;
   double length = 0.0;  ///< L of the polyline inside the cell
+  /// (vertex, weight in L) pairs, weights summing to `length`: a quantity given at the
+  /// vertices and linear along each segment has the mean sum(weight v_vertex) / length over
+  /// the cell's pieces (each piece is linear, so its integral is its length times the value
+  /// at its midpoint).
+  std::vector<std::pair<std::size_t, double>> vertex_weights;
 };
 
 struct PolylineCrossing {

@@ -172,9 +172,11 @@ std::optional<Placement> polyline_cells(ReaderContext& ctx, const toml::node& no
   const PolylineCrossing crossing = cross_polyline(*ctx.grid, points);
   Placement p;
   p.polyline = true;
+  p.n_vertices = points.size();
   for (const CellLength& cl : crossing.active) {
     p.cells.push_back(cl.cell);
     p.length.push_back(cl.length);
+    p.vertex_weights.push_back(cl.vertex_weights);
   }
   const double off = crossing.inactive_length + crossing.outside_length;
   if (p.cells.empty()) {

@@ -15,6 +15,10 @@ enum class PlacementDefault { required, every_active_cell };
 struct Placement {
   std::vector<CellIndex> cells;  ///< active cells, no repeats
   std::vector<double> length;    ///< L of channel per cell (polyline placement only)
+  /// Polyline placement: per cell, the (vertex, weight) pairs of CellLength::vertex_weights,
+  /// and the number of vertices (values given at the vertices, `{ vertices = [...] }`).
+  std::vector<std::vector<std::pair<std::size_t, double>>> vertex_weights;
+  std::size_t n_vertices = 0;
   bool polyline = false;
   bool defaulted = false;  ///< no placement key: every active cell
   SourceSpot at;           ///< the placement key's value

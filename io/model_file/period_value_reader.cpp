@@ -11,11 +11,49 @@ namespace aquiledger {
 
 namespace {
 
-/// The table of one period's entry: one number, or the field sampled at the cells.
+/// `{ vertices = [v1, v2, ...] }` along a polyline: each cell's mean of the values,
+/// linear between vertices, over the channel inside it.
+std::optional<std::vector<double>> vertex_table(ReaderContext& ctx, const toml::table& t,
+                                                const std::string& key, const Placement* polyline,
+                                                const ValueRule& rule) {
+  check_keys(ctx, t, key, {"vertices"});
+  if (!polyline) {
+    ctx.error(t, key + ".vertices",
+              "values at vertices need a feature placed by polyline (one value per vertex)");
+    return std::nullopt;
+  }
+  const toml::array* arr = t.get("vertices")->as_array();
+  if (!arr || arr->size() != polyline->n_vertices) {
+    ctx.error(*t.get("vertices"), key + ".vertices",
+              "expected an array of " + std::to_string(polyline->n_vertices) +
+                  " numbers, one per vertex of the polyline, found " + show(*t.get("vertices")));
+    return std::nullopt;
+  }
+  std::vector<double> at_vertex;
+  for (std::size_t v = 0; v < arr->size(); ++v) {
+    auto x = number_of((*arr)[v]);
+    if (!x || !rule.ok(*x)) {
+      ctx.error((*arr)[v], key + ".vertices[" + std::to_string(v + 1) + "]",
+                "value " + show((*arr)[v]) + "; expected " + rule.expected);
+      return std::nullopt;
+    }
+    at_vertex.push_back(*x);
+  }
+  std::vector<double> table;
+  for (std::size_t c = 0; c < polyline->cells.size(); ++c) {
+    double sum = 0.0;
+    for (const auto& [v, w] : polyline->vertex_weights[c]) sum += w * at_vertex[v];
+    table.push_back(sum / polyline->length[c]);
+  }
+  return table;
+}
+
+/// The table of one period's entry: one number, the field sampled at the cells, or values at
+/// a polyline's vertices.
 std::optional<std::vector<double>> entry_table(ReaderContext& ctx, const toml::node& node,
                                                const std::string& key,
                                                const std::vector<CellIndex>& cells,
-                                               const ValueRule& rule) {
+                                               const ValueRule& rule, const ValueForms& forms) {
   if (auto v = number_of(node)) {
     if (!rule.ok(*v)) {
       ctx.error(node, key, "value " + show_number(*v) + "; expected " + rule.expected);
@@ -23,6 +61,8 @@ std::optional<std::vector<double>> entry_table(ReaderContext& ctx, const toml::n
     }
     return std::vector<double>{*v};
   }
+  if (const toml::table* t = node.as_table(); t && t->contains("vertices"))
+    return vertex_table(ctx, *t, key, forms.polyline, rule);
   auto field = read_field(ctx, node, key);
   if (!field) return std::nullopt;
   std::vector<double> table;
@@ -88,8 +128,7 @@ std::optional<PeriodValues> read_period_values(ReaderContext& ctx, const toml::t
                                                std::string_view key, const std::string& path,
                                                const std::vector<CellIndex>& cells,
                                                std::optional<double> fallback,
-                                               const ValueRule& rule,
-                                               const std::string& series_column) {
+                                               const ValueRule& rule, const ValueForms& forms) {
   const std::string name = key_path(path, key);
   const toml::node* node = table.get(key);
   if (!node) {
@@ -100,10 +139,10 @@ std::optional<PeriodValues> read_period_values(ReaderContext& ctx, const toml::t
     return std::nullopt;
   }
   if (const toml::table* t = node->as_table(); t && t->contains("series"))
-    return series_values(ctx, *t, name, rule, series_column);
+    return series_values(ctx, *t, name, rule, forms.series_column);
   const toml::array* arr = node->as_array();
   if (!arr) {
-    auto t = entry_table(ctx, *node, name, cells, rule);
+    auto t = entry_table(ctx, *node, name, cells, rule, forms);
     if (!t) return std::nullopt;
     return PeriodValues({std::move(*t)}, {});
   }
@@ -118,7 +157,8 @@ std::optional<PeriodValues> read_period_values(ReaderContext& ctx, const toml::t
   std::vector<std::uint32_t> map;
   bool ok = true;
   for (std::size_t p = 0; p < arr->size(); ++p) {
-    auto t = entry_table(ctx, (*arr)[p], name + "[" + std::to_string(p + 1) + "]", cells, rule);
+    auto t =
+        entry_table(ctx, (*arr)[p], name + "[" + std::to_string(p + 1) + "]", cells, rule, forms);
     if (!t) {
       ok = false;
       continue;

@@ -68,10 +68,14 @@ void read_rivers(ReaderContext& ctx, const toml::table& root, Model& model) {
     // then the conductance of the cell (L2/T).
     r.cells = place->cells;
     r.length = place->polyline ? place->length : std::vector<double>(place->cells.size(), 1.0);
-    auto stage = read_period_values(ctx, t, "stage", path, r.cells, std::nullopt,
-                                    {[](double v) { return std::isfinite(v); }, "an elevation"});
-    auto bottom = read_period_values(ctx, t, "bed_bottom", path, r.cells, std::nullopt,
-                                     {[](double v) { return std::isfinite(v); }, "an elevation"});
+    // Stage and bed bottom may be given at the vertices of a polyline channel.
+    const ValueForms along{{}, place->polyline ? &*place : nullptr};
+    auto stage =
+        read_period_values(ctx, t, "stage", path, r.cells, std::nullopt,
+                           {[](double v) { return std::isfinite(v); }, "an elevation"}, along);
+    auto bottom =
+        read_period_values(ctx, t, "bed_bottom", path, r.cells, std::nullopt,
+                           {[](double v) { return std::isfinite(v); }, "an elevation"}, along);
     std::optional<PeriodValues> per_length;
     if (by_value && !by_bed) {
       per_length = read_period_values(ctx, t, "bed_conductance", path, r.cells, std::nullopt,

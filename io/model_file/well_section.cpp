@@ -46,7 +46,7 @@ void read_well_table(ReaderContext& ctx, const FeatureHead& f, std::vector<std::
       rate = PeriodValues(*v);
     } else if (f.table->contains("pumping_rate")) {
       rate = read_period_values(ctx, *f.table, "pumping_rate", f.path, {row.cell}, std::nullopt,
-                                rate_rule(ctx), row.name);
+                                rate_rule(ctx), {row.name});
     } else {
       ctx.error(row.at, f.path + ".table",
                 "well '" + row.name +
