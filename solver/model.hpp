@@ -153,6 +153,8 @@ struct OutputSettings {
   /// the end of the first step that reaches each (0: the initial heads).
   std::vector<double> head_array_times;
   bool head_arrays_at_period_ends = false;  ///< also at the end of every period
+  /// Head, drawdown and compaction also as GeoTIFF at the field output times (uniform grids).
+  bool geotiff = false;
 };
 
 enum class LinearChoice { automatic, direct, pcg, bicgstab };
@@ -182,6 +184,9 @@ struct Model {
   /// Calendar time of model time 0, seconds since 1970-01-01T00:00:00 (proleptic Gregorian,
   /// no time zone), when [model] gives start_date; outputs then carry dates beside times.
   std::optional<double> start_date;
+  /// EPSG code of the coordinate system of x and y ([grid].epsg), when given: rasters read are
+  /// checked against it and GeoTIFF outputs carry it.
+  std::optional<int> epsg;
   RectilinearGrid grid;
   Aquifer aquifer;
   Initial initial;

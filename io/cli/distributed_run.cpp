@@ -16,6 +16,9 @@ class PetscRunEngine final : public RunEngine {
   bool root() const override { return runtime_.rank() == 0; }
   const char* name() const override { return "petsc"; }
   std::string unsupported(const Model& model) const override {
+    if (model.output.geotiff)
+      return "[output].geotiff is written by the serial engine only; run without --engine petsc "
+             "or leave geotiff out (the .pvtr field sets hold the same fields)";
     if (runtime_.n_ranks() <= model.grid.n_rows()) return {};
     return "the distributed engine gives each rank at least one grid row: " +
            std::to_string(runtime_.n_ranks()) + " ranks for " +

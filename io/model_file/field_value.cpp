@@ -4,6 +4,7 @@
 #include <set>
 
 #include "io/files/input_file_guard.hpp"
+#include "io/model_file/raster_file.hpp"
 #include "io/model_file/toml_access.hpp"
 
 namespace aquiledger {
@@ -146,9 +147,17 @@ std::optional<CellField> read_zones(ReaderContext& ctx, const toml::table& t,
     }
   }
   if (!file || !ok) return std::nullopt;
-  const ArraySource* src = load_cached(ctx, ctx.resolve(*file), field.at, key + ".zones");
   CellField zones = field;
-  if (!src || !fill_from_file(ctx, *src, key + ".zones", zones)) return std::nullopt;
+  if (looks_like_gdal_raster(*file)) {
+    // A zone raster: the zone at each cell's centre.
+    auto read = read_raster_field(ctx, ctx.resolve(*file), 1, RasterMethod::nearest,
+                                  ctx.spot(*t.get("zones")), key + ".zones");
+    if (!read) return std::nullopt;
+    zones = std::move(*read);
+  } else {
+    const ArraySource* src = load_cached(ctx, ctx.resolve(*file), field.at, key + ".zones");
+    if (!src || !fill_from_file(ctx, *src, key + ".zones", zones)) return std::nullopt;
+  }
   field.file = zones.file;
   field.row_line = zones.row_line;
   field.first = zones.first;
@@ -201,12 +210,16 @@ std::optional<CellField> read_field(ReaderContext& ctx, const toml::node& node,
     return field;
   }
   const toml::table* t = node.as_table();
-  if (!t || !(t->contains("file") || t->contains("zones"))) {
+  if (!t || !(t->contains("file") || t->contains("zones") || t->contains("raster"))) {
     ctx.error(node, key,
-              "expected a field value: a number, { file = \"...\" } or { zones = \"...\", values = "
-              "{ 1 = ... } }; found " +
+              "expected a field value: a number, { file = \"...\" }, { raster = \"...\" } or { "
+              "zones = \"...\", values = { 1 = ... } }; found " +
                   type_name(node) + " " + show(node));
     return std::nullopt;
+  }
+  if (t->contains("raster")) {
+    if (!ctx.shape) return std::nullopt;
+    return read_raster_table(ctx, *t, key, RasterMethod::average);
   }
   if (t->contains("zones")) {
     if (!ctx.shape) return std::nullopt;

@@ -4,6 +4,7 @@
 
 #include "io/model_file/field_value.hpp"
 #include "io/model_file/memory_guard.hpp"
+#include "io/model_file/raster_file.hpp"
 #include "io/model_file/section_readers.hpp"
 #include "io/model_file/toml_access.hpp"
 
@@ -43,7 +44,15 @@ bool read_grid_shape(ReaderContext& ctx, const toml::table& root) {
     return false;
   }
   const std::string path = "[grid]";
-  check_keys(ctx, *t, path, {"nrow", "ncol", "dx", "dy", "origin", "active"});
+  check_keys(ctx, *t, path, {"nrow", "ncol", "dx", "dy", "origin", "active", "epsg"});
+  if (auto epsg = read_integer(ctx, *t, "epsg", path, false)) {
+    if (*epsg < 1 || *epsg > 999999 || !known_epsg(static_cast<int>(*epsg)))
+      ctx.error(*t->get("epsg"), path + ".epsg",
+                "EPSG:" + std::to_string(*epsg) +
+                    " is not a coordinate system GDAL knows (expected an EPSG code such as 32633)");
+    else
+      ctx.epsg = static_cast<int>(*epsg);
+  }
   auto nrow = read_integer(ctx, *t, "nrow", path, true);
   auto ncol = read_integer(ctx, *t, "ncol", path, true);
   if (!nrow || !ncol) return false;
@@ -101,7 +110,11 @@ void read_active_mask(ReaderContext& ctx, const toml::table& root, Model& model)
   const toml::table& t = *root.get("grid")->as_table();
   std::vector<std::uint8_t> active;
   if (const toml::node* node = t.get("active")) {
-    auto field = read_field(ctx, *node, "[grid].active");
+    // A mask raster takes the pixel at each cell's centre unless told otherwise.
+    const toml::table* raster = node->as_table();
+    auto field = raster && raster->contains("raster")
+                     ? read_raster_table(ctx, *raster, "[grid].active", RasterMethod::nearest)
+                     : read_field(ctx, *node, "[grid].active");
     if (!field) return;
     if (!check_field(
             ctx, *field, "[grid].active", [](double v) { return v == 0.0 || v == 1.0; },
@@ -116,6 +129,7 @@ void read_active_mask(ReaderContext& ctx, const toml::table& root, Model& model)
   }
   const GridShape& s = *ctx.shape;
   model.grid = RectilinearGrid(s.dx, s.dy, s.x0, s.y0, std::move(active));
+  model.epsg = ctx.epsg;
   ctx.grid = model.grid;
   ctx.fixed.assign(static_cast<std::size_t>(s.n_cells()), 0);
 }

@@ -53,7 +53,7 @@ void read_output(ReaderContext& ctx, const toml::table& root, Model& model) {
   const toml::table* t = optional_table(ctx, root, "output");
   if (!t) return;
   const std::string path = "[output]";
-  check_keys(ctx, *t, path, {"folder", "fields", "budget", "head_arrays"});
+  check_keys(ctx, *t, path, {"folder", "fields", "budget", "head_arrays", "geotiff"});
   if (auto folder = read_string(ctx, *t, "folder", path, false)) {
     if (folder->empty())
       ctx.error(*t->get("folder"), path + ".folder",
@@ -67,6 +67,22 @@ void read_output(ReaderContext& ctx, const toml::table& root, Model& model) {
                                              : FieldCadence::period_end;
   if (auto b = read_bool(ctx, *t, "budget", path)) model.output.budget = *b;
   if (const toml::node* h = t->get("head_arrays")) read_head_array_times(ctx, *h, model);
+  if (auto g = read_bool(ctx, *t, "geotiff", path); g && *g) {
+    // A GeoTIFF's pixels are equal: a grid of equal column widths and equal row heights.
+    auto uniform = [](const std::vector<double>& w) {
+      return std::all_of(w.begin(), w.end(), [&](double v) { return v == w.front(); });
+    };
+    if (model.output.fields == FieldCadence::none)
+      ctx.error(*t->get("geotiff"), path + ".geotiff",
+                "GeoTIFF files are written at the field output times, and fields = \"none\" has "
+                "none; give fields = \"period_end\" or \"every_step\"");
+    else if (ctx.shape && (!uniform(ctx.shape->dx) || !uniform(ctx.shape->dy)))
+      ctx.error(*t->get("geotiff"), path + ".geotiff",
+                "a GeoTIFF needs equal column widths and equal row heights; this grid's dx or dy "
+                "vary (the VTK field files hold every grid)");
+    else
+      model.output.geotiff = true;
+  }
 }
 
 }  // namespace aquiledger

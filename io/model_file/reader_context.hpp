@@ -41,6 +41,8 @@ struct ReaderContext {
   std::vector<double> period_bounds;
   /// Set when [model] gives a start date: dates in the model and its files map to times.
   std::optional<CalendarClock> clock;
+  /// [grid].epsg: the model's coordinate system, against which rasters are checked.
+  std::optional<int> epsg;
   /// Time-series files read so far (a file serves many features; read and checked once).
   std::map<std::filesystem::path, std::shared_ptr<const struct SeriesFile>> series_cache;
   /// Other files read (feature tables); with the caches and the measured-head files they

@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <cmath>
 
+#include "io/results/geotiff_fields.hpp"
 #include "io/results/head_arrays.hpp"
 
 namespace aquiledger {
@@ -163,6 +164,14 @@ void ResultRecorder::write_fields(double time) {
   if (reduction_ == nullptr) {
     const std::string name = fmt::format("fields_{:04d}.vtr", field_entries_.size());
     write_fields_vtr(folder_ / name, model_, fields_, time);
+    if (model_.output.geotiff) {
+      const std::string n = fmt::format("{:04d}.tif", field_entries_.size());
+      const std::string at =
+          fmt::format(" ({}) at time {} {}", model_.length_unit, time, model_.time_unit);
+      write_geotiff(folder_ / ("head_" + n), model_, fields_.head, "head" + at);
+      write_geotiff(folder_ / ("drawdown_" + n), model_, fields_.drawdown, "drawdown" + at);
+      write_geotiff(folder_ / ("compaction_" + n), model_, fields_.compaction, "compaction" + at);
+    }
     field_entries_.push_back({time, name});
     // The index names only files that are complete on disk.
     write_pvd(folder_ / "fields.pvd", field_entries_);
