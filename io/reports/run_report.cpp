@@ -4,6 +4,7 @@
 
 #include <algorithm>
 
+#include "io/files/calendar.hpp"
 #include "postproc/water_budget.hpp"
 
 namespace aquiledger {
@@ -34,17 +35,20 @@ std::string format_period_budget_table(const Model& model,
       "Water budget per period (volumes in {}; balance_periods.csv and budget_periods.csv hold "
       "them all)\n",
       vu);
-  out +=
-      fmt::format("  {:>3}  {:<{}}  {:>10}  {:>12}  {:>14}  {:>13}  {:>11}  {:>11}  {:>10}\n", "#",
-                  "period", name_width, fmt::format("end ({})", model.time_unit), "into aquifer",
-                  "out of aquifer", "storage, net", "of it pores", "pumped", "imbalance");
+  // With a start date the period's end date follows its end time.
+  const std::optional<CalendarClock> clock = model_clock(model);
+  out += fmt::format("  {:>3}  {:<{}}  {:>10}{}  {:>12}  {:>14}  {:>13}  {:>11}  {:>11}  {:>10}\n",
+                     "#", "period", name_width, fmt::format("end ({})", model.time_unit),
+                     clock ? fmt::format("  {:<10}", "end date") : "", "into aquifer",
+                     "out of aquifer", "storage, net", "of it pores", "pumped", "imbalance");
   for (const auto& r : rows) {
     const WaterBudget& b = r.volumes;
     const std::string name = r.name.size() > name_width ? r.name.substr(0, name_width) : r.name;
     out += fmt::format(
-        "  {:>3}  {:<{}}  {:>10.4g}  {:>12}  {:>14}  {:>13}  {:>11}  {:>11}  {:>9.2e}%\n", r.period,
-        name, name_width, r.end, volume(b.total_in()), volume(b.total_out()),
-        volume(storage_net_release(b)),
+        "  {:>3}  {:<{}}  {:>10.4g}{}  {:>12}  {:>14}  {:>13}  {:>11}  {:>11}  {:>9.2e}%\n",
+        r.period, name, name_width, r.end,
+        clock ? fmt::format("  {:<10}", clock->date_of(r.end).substr(0, 10)) : "",
+        volume(b.total_in()), volume(b.total_out()), volume(storage_net_release(b)),
         volume(b[BudgetComponent::storage_drainage].in - b[BudgetComponent::storage_drainage].out),
         volume(b[BudgetComponent::well].out), b.imbalance_percent());
   }
