@@ -210,6 +210,7 @@ int run_sources_command(const SourcesOptions& o) {
   context.program_version = version_string;
   context.length_unit = model.length_unit;
   context.time_unit = model.time_unit;
+  context.clock = model_clock(model);
   context.chosen_wells = chosen;
   context.model_file = std::filesystem::absolute(*o.model_file).string();
   context.caution = professional_caution;

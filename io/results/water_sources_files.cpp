@@ -90,17 +90,21 @@ std::string water_sources_csv(const WaterSources& s, const WaterSourcesContext& 
   const std::string vu = c.length_unit + "3", ru = c.length_unit + "3/" + c.time_unit;
   std::string out =
       "period,period_name,start,end,source,feature,volume,rate,share,cumulative_volume,"
-      "cumulative_share,pumped_volume,cumulative_pumped_volume,volume_unit,rate_unit\n";
+      "cumulative_share,pumped_volume,cumulative_pumped_volume,volume_unit,rate_unit" +
+      std::string(c.clock ? ",start_date,end_date" : "") + "\n";
   auto it = std::back_inserter(out);
   for (std::size_t p = 0; p < s.periods.size(); ++p) {
     const SourcePeriod& r = s.periods[p];
     const double length = r.end - r.start;
+    const std::string dates =
+        c.clock ? "," + c.clock->date_of(r.start) + "," + c.clock->date_of(r.end) : "";
     for (std::size_t k = 0; k < s.lines.size(); ++k)
-      fmt::format_to(it, "{},{},{},{},{},{},{},{},{},{},{},{},{},{},{}\n", p + 1, csv_text(r.name),
-                     r.start, r.end, s.lines[k].source, csv_text(s.lines[k].feature), r.volume[k],
+      fmt::format_to(it, "{},{},{},{},{},{},{},{},{},{},{},{},{},{},{}{}\n", p + 1,
+                     csv_text(r.name), r.start, r.end, s.lines[k].source,
+                     csv_text(s.lines[k].feature), r.volume[k],
                      length > 0.0 ? r.volume[k] / length : 0.0, share_of(r.volume[k], r.withdrawn),
                      r.cumulative[k], share_of(r.cumulative[k], r.cumulative_withdrawn),
-                     r.withdrawn, r.cumulative_withdrawn, vu, ru);
+                     r.withdrawn, r.cumulative_withdrawn, vu, ru, dates);
   }
   return out;
 }

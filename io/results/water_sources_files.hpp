@@ -6,6 +6,7 @@
 #include <string>
 #include <vector>
 
+#include "io/files/calendar.hpp"
 #include "io/files/output_error.hpp"
 #include "postproc/water_sources.hpp"
 
@@ -24,6 +25,8 @@ struct WaterSourcesContext {
   /// known (comparison of folders).
   std::vector<double> planned;
   std::string caution;
+  /// The model's clock (a start date): the CSV then also gives start_date,end_date.
+  std::optional<CalendarClock> clock;
 };
 
 /// Columns period,period_name,start,end,source,feature,volume,rate,share,cumulative_volume,
