@@ -96,8 +96,12 @@ std::string water_sources_csv(const WaterSources& s, const WaterSourcesContext& 
   for (std::size_t p = 0; p < s.periods.size(); ++p) {
     const SourcePeriod& r = s.periods[p];
     const double length = r.end - r.start;
-    const std::string dates =
-        c.clock ? "," + c.clock->date_of(r.start) + "," + c.clock->date_of(r.end) : "";
+    std::string dates;  // (appended in steps: GCC 12 warns falsely on "," + string&&)
+    if (c.clock)
+      dates.append(",")
+          .append(c.clock->date_of(r.start))
+          .append(",")
+          .append(c.clock->date_of(r.end));
     for (std::size_t k = 0; k < s.lines.size(); ++k)
       fmt::format_to(it, "{},{},{},{},{},{},{},{},{},{},{},{},{},{},{}{}\n", p + 1,
                      csv_text(r.name), r.start, r.end, s.lines[k].source,
