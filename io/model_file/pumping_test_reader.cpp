@@ -64,6 +64,25 @@ void read_test_section(ReaderContext& ctx, const toml::table& root, PumpingTest&
   }
 }
 
+/// [pumped_well]: radius (r_w) and casing_radius (r_c, default r_w), for the large-diameter
+/// model of Papadopulos and Cooper (1967).
+void read_pumped_well(ReaderContext& ctx, const toml::table& root, PumpingTest& test) {
+  const toml::table* t = optional_table(ctx, root, "pumped_well");
+  if (!t) return;
+  check_keys(ctx, *t, "[pumped_well]", {"radius", "casing_radius"});
+  for (const char* key : {"radius", "casing_radius"}) {
+    auto v = read_number(ctx, *t, key, "[pumped_well]", std::string(key) == "radius");
+    if (!v) continue;
+    if (!(*v > 0.0)) {
+      ctx.error(*t->get(key), std::string("[pumped_well].") + key,
+                "expected a radius > 0 " + ctx.length_unit + ", found " + show_number(*v));
+      continue;
+    }
+    (std::string(key) == "radius" ? test.pumped_well.well : test.pumped_well.casing) = *v;
+  }
+  if (test.pumped_well.casing == 0.0) test.pumped_well.casing = test.pumped_well.well;
+}
+
 void read_schedule(ReaderContext& ctx, const toml::table& root, PumpingTest& test) {
   const toml::array* arr = section_tables(ctx, root, "pumping");
   if (!arr || arr->empty()) {
@@ -252,12 +271,20 @@ void read_wells(ReaderContext& ctx, const toml::table& root, PumpingTest& test) 
 }  // namespace
 
 std::vector<std::string> pumping_test_model_names() {
-  return {"auto", "theis", "cooper-jacob", "hantush-jacob", "neuman"};
+  return {"auto",
+          "theis",
+          "cooper-jacob",
+          "hantush-jacob",
+          "neuman",
+          "papadopulos-cooper",
+          "hantush-aquitard-storage"};
 }
 
 std::optional<WellTestModel> well_test_model_from_name(std::string_view name) {
-  for (WellTestModel m : {WellTestModel::theis, WellTestModel::cooper_jacob,
-                          WellTestModel::hantush_jacob, WellTestModel::neuman})
+  for (WellTestModel m :
+       {WellTestModel::theis, WellTestModel::cooper_jacob, WellTestModel::hantush_jacob,
+        WellTestModel::neuman, WellTestModel::papadopulos_cooper,
+        WellTestModel::hantush_aquitard_storage})
     if (model_name(m) == name) return m;
   return std::nullopt;
 }
@@ -271,9 +298,10 @@ PumpingTestReadResult read_pumping_test_text(std::string_view toml_text,
   PumpingTestReadResult result;
   try {
     const toml::table root = toml::parse(toml_text, as_if_path.string());
-    check_keys(ctx, root, "(top level)", {"test", "pumping", "well"});
+    check_keys(ctx, root, "(top level)", {"test", "pumped_well", "pumping", "well"});
     PumpingTest test;
     read_test_section(ctx, root, test, result);
+    read_pumped_well(ctx, root, test);
     read_schedule(ctx, root, test);
     read_wells(ctx, root, test);
     if (!ctx.diagnostics.has_errors()) result.test = std::move(test);

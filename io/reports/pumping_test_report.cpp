@@ -50,6 +50,10 @@ std::string model_title(WellTestModel m) {
       return "Hantush and Jacob (1955), leaky";
     case WellTestModel::neuman:
       return "Neuman (1974), delayed yield";
+    case WellTestModel::papadopulos_cooper:
+      return "Papadopulos and Cooper (1967), large-diameter well";
+    case WellTestModel::hantush_aquitard_storage:
+      return "Hantush (1960), leaky with aquitard storage";
   }
   return model_name(m);
 }
@@ -93,6 +97,10 @@ HtmlReport pumping_test_page(const PumpingTest& test, const PumpingTestInterpret
                                         w.images.front().recharge ? "recharge" : "barrier",
                                         number(w.images.front().image_distance), lu)});
     page.add_table({"well", "distance (" + lu + ")", "measurements", "straight boundary"}, rows);
+    if (test.pumped_well.well > 0.0)
+      page.add_paragraph(fmt::format("Pumped well: radius {} {}, casing radius {} {}.",
+                                     number(test.pumped_well.well), lu,
+                                     number(test.pumped_well.casing), lu));
   }
 
   page.add_heading("Fitted values");
@@ -165,7 +173,8 @@ HtmlReport pumping_test_page(const PumpingTest& test, const PumpingTestInterpret
     std::vector<double> ctp, cs;
     for (double tc : ct) {
       ctp.push_back(tc - start);
-      cs.push_back(schedule_drawdown(m.model, p, test.schedule, well.distance, tc, well.images));
+      cs.push_back(schedule_drawdown(m.model, p, test.schedule, well.distance, tc, well.images,
+                                     test.pumped_well));
     }
     std::vector<double> cd = logarithmic_derivative(ctp, cs, 0.1);
     loglog.push_back({well.name + ": drawdown", t, s, SeriesStyle::points});

@@ -86,6 +86,34 @@ TEST_CASE("a good test file is read whole", "[pumping_test_reader]") {
   CHECK(t.wells[1].drawdowns[3] == Approx(0.3));
 }
 
+TEST_CASE("the pumped well's radii for the large-diameter model", "[pumping_test_reader]") {
+  {
+    const std::string t =
+        replace(good, "[[pumping]]", "[pumped_well]\nradius = 0.6\n\n[[pumping]]");
+    const PumpingTestReadResult r = read_pumping_test_text(t, "/invented/test.toml");
+    REQUIRE(r.test.has_value());
+    CHECK(r.test->pumped_well.well == 0.6);
+    CHECK(r.test->pumped_well.casing == 0.6);  // the casing radius defaults to the well's
+  }
+  {
+    const std::string t = replace(
+        good, "[[pumping]]", "[pumped_well]\nradius = 0.6\ncasing_radius = 0.4\n\n[[pumping]]");
+    const PumpingTestReadResult r = read_pumping_test_text(t, "/invented/test.toml");
+    REQUIRE(r.test.has_value());
+    CHECK(r.test->pumped_well.casing == 0.4);
+  }
+  {
+    const std::string t = replace(
+        good, "[[pumping]]", "[pumped_well]\nradius = 0.6\ncasing_radius = 0.0\n\n[[pumping]]");
+    expect_error(t, "[pumped_well].casing_radius", line_of(t, "casing_radius"), "radius > 0");
+  }
+  {
+    const std::string t =
+        replace(good, "[[pumping]]", "[pumped_well]\ncasing_radius = 0.4\n\n[[pumping]]");
+    expect_error(t, "[pumped_well].radius", line_of(t, "[pumped_well]"), "missing");
+  }
+}
+
 TEST_CASE("a series read from a CSV file", "[pumping_test_reader]") {
   const auto folder = std::filesystem::temp_directory_path() / "aquiledger-pumping-reader";
   std::filesystem::create_directories(folder);
