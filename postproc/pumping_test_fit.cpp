@@ -60,12 +60,18 @@ ParameterGuess guess_parameters(const PumpingTest& test, WellTestModel model) {
   g.start = {t_guess, s_guess};
   g.lower = {t_guess * 1e-3, 1e-8};
   g.upper = {t_guess * 1e3, 0.5};
-  if (model == WellTestModel::hantush_jacob) {
+  if (model == WellTestModel::hantush_jacob || model == WellTestModel::hantush_aquitard_storage) {
     double r_max = 0.0;
     for (const ObservationSeries& w : test.wells) r_max = std::max(r_max, w.distance);
     g.start.push_back(std::max(30.0 * r_max, 1e-3));
     g.lower.push_back(std::max(0.1 * r_max, 1e-6));
     g.upper.push_back(std::max(1e5 * r_max, 1e3));
+  }
+  if (model == WellTestModel::hantush_aquitard_storage) {
+    // The aquitard's storativity S' = S_s' b': start at ten times the aquifer's.
+    g.start.push_back(std::clamp(10.0 * s_guess, 1e-7, 0.1));
+    g.lower.push_back(1e-9);
+    g.upper.push_back(0.5);
   }
   if (model == WellTestModel::neuman) {
     // The late slope sees S + Sy; start with that as Sy and the elastic S a hundredth of it.
@@ -86,6 +92,16 @@ std::vector<WellTestModel> automatic_candidates() {
 }
 
 ModelFit fit_pumping_test(const PumpingTest& test, WellTestModel model) {
+  if (model == WellTestModel::papadopulos_cooper) {
+    if (!(test.pumped_well.well > 0.0 && test.pumped_well.casing > 0.0))
+      throw std::invalid_argument(
+          "papadopulos-cooper: give the pumped well's radius and casing_radius in "
+          "[pumped_well]");
+    for (const ObservationSeries& w : test.wells)
+      if (w.distance < test.pumped_well.well)
+        throw std::invalid_argument("papadopulos-cooper: well \"" + w.name +
+                                    "\" is closer than the pumped well's radius");
+  }
   const ParameterGuess guess = guess_parameters(test, model);
   ModelFit result;
   result.model = model;
@@ -116,7 +132,8 @@ ModelFit fit_pumping_test(const PumpingTest& test, WellTestModel model) {
                                 " are needed");
   auto model_at = [&](const std::vector<double>& p, std::size_t w, std::size_t i) {
     const ObservationSeries& well = test.wells[w];
-    return schedule_drawdown(model, p, test.schedule, well.distance, well.times[i], well.images);
+    return schedule_drawdown(model, p, test.schedule, well.distance, well.times[i], well.images,
+                             test.pumped_well);
   };
   BoundedFitProblem problem;
   problem.model = [&](const Eigen::VectorXd& p) {

@@ -28,6 +28,7 @@ struct PumpingTest {
   std::string length_unit = "m";
   std::string time_unit = "d";
   std::vector<RateStep> schedule;  ///< sorted by start; rate 0 = recovery
+  PumpedWellRadii pumped_well;     ///< the pumped well's radii (0 when not given)
   std::vector<ObservationSeries> wells;
   int n_observations() const;
 };
@@ -63,7 +64,8 @@ ParameterGuess guess_parameters(const PumpingTest& test, WellTestModel model);
 
 /// Fits one model to every well at once (unit weights). The Cooper-Jacob line is fitted only
 /// to the points whose u = r^2 S / (4 T t) is below 0.01 (Cooper and Jacob, 1946) with the
-/// Theis start values. Throws std::invalid_argument when too few points remain.
+/// Theis start values. Throws std::invalid_argument when too few points remain, or when
+/// Papadopulos and Cooper (1967) lacks the pumped well's radii or a well is closer than r_w.
 ModelFit fit_pumping_test(const PumpingTest& test, WellTestModel model);
 
 /// The models `auto` compares: each fitted to the same points, so AICc is comparable

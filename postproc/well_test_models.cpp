@@ -3,6 +3,7 @@
 #include <cassert>
 #include <cmath>
 #include <numbers>
+#include <stdexcept>
 
 #include "postproc/analytical_solutions.hpp"
 #include "postproc/laplace_inversion.hpp"
@@ -19,6 +20,10 @@ std::string model_name(WellTestModel model) {
       return "hantush-jacob";
     case WellTestModel::neuman:
       return "neuman";
+    case WellTestModel::papadopulos_cooper:
+      return "papadopulos-cooper";
+    case WellTestModel::hantush_aquitard_storage:
+      return "hantush-aquitard-storage";
   }
   return "";
 }
@@ -28,6 +33,8 @@ std::vector<std::string> model_parameter_names(WellTestModel model) {
     return {"transmissivity", "storativity", "leakage_factor"};
   if (model == WellTestModel::neuman)
     return {"transmissivity", "storativity", "specific_yield", "drainage_length"};
+  if (model == WellTestModel::hantush_aquitard_storage)
+    return {"transmissivity", "storativity", "leakage_factor", "aquitard_storativity"};
   return {"transmissivity", "storativity"};
 }
 
@@ -36,7 +43,7 @@ int n_model_parameters(WellTestModel model) {
 }
 
 double unit_rate_drawdown(WellTestModel model, const std::vector<double>& parameters, double r,
-                          double t) {
+                          double t, const PumpedWellRadii& radii) {
   assert(static_cast<int>(parameters.size()) == n_model_parameters(model));
   if (t <= 0.0) return 0.0;
   const double transmissivity = parameters[0];
@@ -51,13 +58,24 @@ double unit_rate_drawdown(WellTestModel model, const std::vector<double>& parame
       return hantush_jacob_drawdown(1.0, transmissivity, storativity, parameters[2], r, t);
     case WellTestModel::neuman:
       return neuman_drawdown(1.0, transmissivity, storativity, parameters[2], parameters[3], r, t);
+    case WellTestModel::papadopulos_cooper:
+      if (!(radii.well > 0.0 && radii.casing > 0.0))
+        throw std::invalid_argument(
+            "papadopulos-cooper needs the pumped well's radius and casing radius");
+      if (r < radii.well)
+        throw std::invalid_argument("papadopulos-cooper: a distance below the well radius");
+      return papadopulos_cooper_drawdown(1.0, transmissivity, storativity, radii.well, radii.casing,
+                                         r, t);
+    case WellTestModel::hantush_aquitard_storage:
+      return hantush_aquitard_storage_drawdown(1.0, transmissivity, storativity, parameters[2],
+                                               parameters[3], r, t);
   }
   return 0.0;
 }
 
 double schedule_drawdown(WellTestModel model, const std::vector<double>& parameters,
                          const std::vector<RateStep>& schedule, double r, double t,
-                         const std::vector<ImageWell>& images) {
+                         const std::vector<ImageWell>& images, const PumpedWellRadii& radii) {
   double s = 0.0;
   double previous_rate = 0.0;
   for (const RateStep& step : schedule) {
@@ -66,9 +84,9 @@ double schedule_drawdown(WellTestModel model, const std::vector<double>& paramet
     previous_rate = step.rate;
     if (change == 0.0) continue;
     const double since = t - step.start;
-    double unit = unit_rate_drawdown(model, parameters, r, since);
+    double unit = unit_rate_drawdown(model, parameters, r, since, radii);
     for (const ImageWell& image : images) {
-      const double si = unit_rate_drawdown(model, parameters, image.image_distance, since);
+      const double si = unit_rate_drawdown(model, parameters, image.image_distance, since, radii);
       unit += image.recharge ? -si : si;
     }
     s += change * unit;
@@ -88,6 +106,62 @@ double papadopulos_cooper_drawdown(double q, double transmissivity, double stora
            (p * (root * std::cyl_bessel_k(1.0, root) + c_d * p * std::cyl_bessel_k(0.0, root)));
   };
   return q / (2.0 * std::numbers::pi * transmissivity) * stehfest_inverse(transform, t_d);
+}
+
+std::complex<double> bessel_k0(std::complex<double> z) {
+  // Terms fall below e^-45 of K0's scale e^-z once Re z (cosh u - 1) > 45.
+  constexpr double h = 0.05;
+  std::complex<double> sum = 0.5 * std::exp(-z);
+  for (int k = 1; k < 20000; ++k) {
+    const double c = std::cosh(k * h);
+    sum += std::exp(-z * c);
+    if (z.real() * (c - 1.0) > 45.0) break;
+  }
+  return h * sum;
+}
+
+namespace {
+
+/// x coth x, with its series 1 + x^2/3 - x^4/45 for small x (the aquitard without storage).
+std::complex<double> x_coth_x(std::complex<double> x) {
+  if (std::abs(x) < 1e-3) return 1.0 + x * x / 3.0 - x * x * x * x / 45.0;
+  const std::complex<double> e = std::exp(-2.0 * x);  // Re x > 0: no overflow
+  return x * (1.0 + e) / (1.0 - e);
+}
+
+/// The argument of K0 in Hantush's (1960) Laplace form over r: sqrt(S p / T + x coth x / B^2).
+std::complex<double> hantush_aquitard_root(double transmissivity, double storativity,
+                                           double leakage_factor, double aquitard_storativity,
+                                           std::complex<double> p) {
+  const std::complex<double> x =
+      leakage_factor * std::sqrt(aquitard_storativity * p / transmissivity);
+  return std::sqrt(storativity * p / transmissivity +
+                   x_coth_x(x) / (leakage_factor * leakage_factor));
+}
+
+}  // namespace
+
+std::complex<double> hantush_aquitard_storage_laplace(double transmissivity, double storativity,
+                                                      double leakage_factor,
+                                                      double aquitard_storativity, double r,
+                                                      std::complex<double> p) {
+  const std::complex<double> root =
+      hantush_aquitard_root(transmissivity, storativity, leakage_factor, aquitard_storativity, p);
+  return bessel_k0(r * root) / (2.0 * std::numbers::pi * transmissivity * p);
+}
+
+double hantush_aquitard_storage_drawdown(double q, double transmissivity, double storativity,
+                                         double leakage_factor, double aquitard_storativity,
+                                         double r, double t, int stehfest_terms) {
+  if (t <= 0.0) return 0.0;
+  auto transform = [&](double p) {
+    // Real p: the real K0 of the standard library.
+    const double root = hantush_aquitard_root(transmissivity, storativity, leakage_factor,
+                                              aquitard_storativity, {p, 0.0})
+                            .real();
+    return std::cyl_bessel_k(0.0, r * root) / (2.0 * std::numbers::pi * transmissivity * p);
+  };
+  return q * stehfest_inverse(transform, t, stehfest_terms);
 }
 
 namespace {

@@ -3,6 +3,7 @@
 // solution, superposed in time over a rate schedule (steps and recovery) and in space over
 // image wells for a straight boundary. Pure numerics, no I/O.
 
+#include <complex>
 #include <string>
 #include <vector>
 
@@ -10,13 +11,15 @@ namespace aquiledger {
 
 /// The closed-form models a test can be fitted with.
 enum class WellTestModel {
-  theis,          ///< Theis (1935): parameters T, S
-  cooper_jacob,   ///< Cooper and Jacob (1946) straight line: parameters T, S
-  hantush_jacob,  ///< Hantush and Jacob (1955) leaky: parameters T, S, B
-  neuman,         ///< Neuman (1974) delayed yield: parameters T, S, Sy, L_v
+  theis,               ///< Theis (1935): parameters T, S
+  cooper_jacob,        ///< Cooper and Jacob (1946) straight line: parameters T, S
+  hantush_jacob,       ///< Hantush and Jacob (1955) leaky: parameters T, S, B
+  neuman,              ///< Neuman (1974) delayed yield: parameters T, S, Sy, L_v
+  papadopulos_cooper,  ///< Papadopulos and Cooper (1967) large-diameter well: T, S (radii given)
+  hantush_aquitard_storage,  ///< Hantush (1960) leaky with aquitard storage: T, S, B, S'
 };
 
-/// Plain name used in files and messages ("theis", "cooper-jacob", "hantush-jacob").
+/// Plain name used in files and messages ("theis", "cooper-jacob", "hantush-jacob", ...).
 std::string model_name(WellTestModel model);
 /// Names of the parameters in fitting order, e.g. {"transmissivity", "storativity"}.
 std::vector<std::string> model_parameter_names(WellTestModel model);
@@ -37,19 +40,31 @@ struct ImageWell {
   bool recharge = false;
 };
 
+/// The pumped well's construction, given (not fitted), for the models that need it
+/// (Papadopulos and Cooper, 1967): the radius of the screen or open hole and the inside radius
+/// of the casing in which the water level falls. 0 when not given.
+struct PumpedWellRadii {
+  double well = 0.0;    ///< L, r_w
+  double casing = 0.0;  ///< L, r_c
+};
+
 /// Drawdown (L) for a unit rate, time t (T) after the pumping began, at radius r (L), for the
 /// model's parameters (T in L2/T, S dimensionless, B in L). Zero for t <= 0. The Cooper-Jacob
 /// line q/(4 pi T) ln(2.25 T t / (r^2 S)) is returned as is (negative at early times); it
 /// approximates Theis for u = r^2 S / (4 T t) small (u < 0.01, Cooper and Jacob, 1946).
+/// Papadopulos and Cooper (1967) needs radii.well > 0, radii.casing > 0 and r >= radii.well
+/// (std::invalid_argument otherwise).
 double unit_rate_drawdown(WellTestModel model, const std::vector<double>& parameters, double r,
-                          double t);
+                          double t, const PumpedWellRadii& radii = {});
 
 /// Drawdown (L) at time t (T) at radius r (L) from the pumped well with the rate schedule
 /// (sorted by start) superposed in time, s(t) = sum_i (Q_i - Q_{i-1}) s_1(t - t_i)
 /// (Theis, 1935, for recovery; the principle of superposition), and the image wells in space.
+/// An image well is a well of the same construction (radii) at the image distance.
 double schedule_drawdown(WellTestModel model, const std::vector<double>& parameters,
                          const std::vector<RateStep>& schedule, double r, double t,
-                         const std::vector<ImageWell>& images = {});
+                         const std::vector<ImageWell>& images = {},
+                         const PumpedWellRadii& radii = {});
 
 /// Papadopulos and Cooper (1967): drawdown (L) at radius r >= r_well (L) around a
 /// large-diameter well with casing radius r_casing (L) whose stored water supplies part of the
@@ -74,6 +89,30 @@ double neuman_drawdown(double q, double transmissivity, double storativity, doub
 /// The Laplace transform of neuman_drawdown for q = 1 at a real p > 0 (1/T), for checks.
 double neuman_laplace_drawdown(double transmissivity, double storativity, double specific_yield,
                                double drainage_length, double r, double p);
+
+/// Hantush (1960): drawdown (L) at radius r (L), time t (T), for a rate q (L3/T), in a leaky
+/// aquifer (transmissivity T, storativity S) under one aquitard that stores water (its
+/// storativity S' = S_s' b') with a constant head beyond it, leakage factor B = sqrt(T b' / K')
+/// (L). Laplace form, derived from Hantush's boundary-value problem (aquitard: S_s' ds'/dt =
+/// K' d2s'/dz2, s' = s at the aquifer, s' = 0 at the far side; separation in z):
+///   s(p) = q / (2 pi T p) K0(r sqrt(S p / T + x coth(x) / B^2)),  x = B sqrt(S' p / T),
+/// inverted by Stehfest (1970). S' -> 0 gives Hantush and Jacob (1955); early time Theis
+/// (1935), and Hantush's (1960) early-time H(u, beta), beta = r / (4 B) sqrt(S' / S), for
+/// t < S' B^2 / (10 T).
+double hantush_aquitard_storage_drawdown(double q, double transmissivity, double storativity,
+                                         double leakage_factor, double aquitard_storativity,
+                                         double r, double t, int stehfest_terms = 12);
+/// Its Laplace transform for q = 1 at a complex p with Re p > 0 (for de Hoog's inversion).
+std::complex<double> hantush_aquitard_storage_laplace(double transmissivity, double storativity,
+                                                      double leakage_factor,
+                                                      double aquitard_storativity, double r,
+                                                      std::complex<double> p);
+
+/// The modified Bessel function K0(z) for complex z with Re z > 0, from its integral
+/// K0(z) = int_0^inf exp(-z cosh u) du (Abramowitz and Stegun, 1964, 9.6.24) by the trapezoidal
+/// rule (step 0.05, which converges geometrically for this analytic integrand), for the
+/// complex samples of de Hoog's inversion.
+std::complex<double> bessel_k0(std::complex<double> z);
 
 /// Logarithmic derivative ds/d ln t of a series (Bourdet et al., 1989): for each point the
 /// slopes to the first neighbours at least `smoothing` (in ln t) away on each side, weighted

@@ -11,8 +11,12 @@
 
 #include "aquiledger_version.hpp"
 #include "io/cli/commands.hpp"
+#include "io/files/atomic_file.hpp"
 #include "io/files/output_lock.hpp"
+#include "io/files/read_error.hpp"
 #include "io/model_file/pumping_test_reader.hpp"
+#include "io/reports/html_report.hpp"
+#include "io/reports/pumping_test_report.hpp"
 #include "io/results/pumping_test_files.hpp"
 
 namespace aquiledger {
@@ -24,7 +28,8 @@ CLI::App* add_drawdown_fit_subcommand(CLI::App& app, DrawdownFitOptions& o) {
   auto* cmd = app.add_subcommand(
       "drawdown-fit",
       "Interpret a pumping test: fit drawdown models to the observation wells and write the "
-      "fitted values (fit.json, parameters.csv, fit_series.csv).");
+      "fitted values (fit.json, parameters.csv, fit_series.csv) and the interpretation page "
+      "(interpretation.html).");
   cmd->add_option("TEST", o.test_file, "Pumping-test file (TOML)")->required();
   cmd->add_option("-m,--model", o.model,
                   "Model to fit: " + models + " (default: [test].model, else auto)");
@@ -53,10 +58,10 @@ int run_drawdown_fit_command(const DrawdownFitOptions& o) {
   const std::string name = o.model.value_or(read.model.value_or("auto"));
   std::optional<WellTestModel> model = well_test_model_from_name(name);
   if (!model && name != "auto") {
-    std::fprintf(stderr,
-                 "error: --model %s: expected one of auto, theis, cooper-jacob, "
-                 "hantush-jacob\n",
-                 name.c_str());
+    std::string models;
+    for (const std::string& n : pumping_test_model_names())
+      models += (models.empty() ? "" : ", ") + n;
+    std::fprintf(stderr, "error: --model %s: expected one of %s\n", name.c_str(), models.c_str());
     return exit_usage;
   }
   const PumpingTest& test = *read.test;
@@ -70,10 +75,19 @@ int run_drawdown_fit_command(const DrawdownFitOptions& o) {
   const std::filesystem::path folder =
       o.output_folder ? *o.output_folder
                       : std::filesystem::absolute(o.test_file).parent_path() / "drawdown-fit";
+  const std::string test_path = std::filesystem::absolute(o.test_file).string();
+  std::string html;
+  try {
+    // The page is rendered before anything is written, so a missing Vega leaves nothing.
+    html = pumping_test_page(test, result, test_path).render(load_vega_library());
+  } catch (const ReadError& e) {
+    std::fprintf(stderr, "error: %s\n", e.what());
+    return exit_output_failure;
+  }
   try {
     const OutputFolderLock lock(folder);
-    write_drawdown_fit_files(folder, test, result, std::filesystem::absolute(o.test_file).string(),
-                             version_string);
+    write_drawdown_fit_files(folder, test, result, test_path, version_string);
+    write_file_atomically(folder / "interpretation.html", html);
   } catch (const OutputError& e) {
     std::fprintf(stderr, "error: %s\n", e.what());
     return exit_output_failure;

@@ -11,15 +11,143 @@
 #include "io/model_file/reader_context.hpp"
 #include "io/model_file/section_readers.hpp"
 #include "io/model_file/toml_access.hpp"
+#include "io/model_file/unit_system.hpp"
 
 namespace aquiledger {
 namespace {
 
 constexpr std::uintmax_t max_test_file_bytes = 64u << 20;
 
-/// A numeric array at key (every entry a finite number), or nullopt with an error.
+/// Days from 1970-01-01 to the proleptic Gregorian date y-m-d (H. Hinnant's days_from_civil,
+/// "chrono-Compatible Low-Level Date Algorithms", public domain).
+long days_from_civil(long y, unsigned m, unsigned d) {
+  y -= m <= 2;
+  const long era = (y >= 0 ? y : y - 399) / 400;
+  const unsigned yoe = static_cast<unsigned>(y - era * 400);
+  const unsigned doy = (153 * (m + (m > 2 ? -3 : 9)) + 2) / 5 + d - 1;
+  const unsigned doe = yoe * 365 + yoe / 4 - yoe / 100 + doy;
+  return era * 146097 + static_cast<long>(doe) - 719468;
+}
+
+/// A date and time: seconds since 1970-01-01T00:00 (UTC when it carries an offset).
+struct DateTime {
+  double seconds = 0.0;
+  bool has_offset = false;
+};
+
+/// An ISO 8601 date and time, YYYY-MM-DDThh:mm[:ss[.fff]][Z|+hh:mm|-hh:mm] (a space may stand
+/// for the T, as in TOML); nullopt when the text is not one.
+std::optional<DateTime> parse_iso_date_time(std::string_view text) {
+  auto digits = [&](std::size_t at, std::size_t n) -> std::optional<int> {
+    if (at + n > text.size()) return std::nullopt;
+    int v = 0;
+    for (std::size_t i = at; i < at + n; ++i) {
+      if (text[i] < '0' || text[i] > '9') return std::nullopt;
+      v = v * 10 + (text[i] - '0');
+    }
+    return v;
+  };
+  auto y = digits(0, 4), mo = digits(5, 2), d = digits(8, 2), h = digits(11, 2), mi = digits(14, 2);
+  if (!y || !mo || !d || !h || !mi || text[4] != '-' || text[7] != '-' ||
+      (text[10] != 'T' && text[10] != 't' && text[10] != ' ') || text[13] != ':')
+    return std::nullopt;
+  if (*mo < 1 || *mo > 12 || *d < 1 || *d > 31 || *h > 23 || *mi > 59) return std::nullopt;
+  std::size_t at = 16;
+  double sec = 0.0;
+  if (at < text.size() && text[at] == ':') {
+    auto ss = digits(at + 1, 2);
+    if (!ss || *ss > 60) return std::nullopt;
+    sec = *ss;
+    at += 3;
+    if (at < text.size() && text[at] == '.') {
+      double scale = 0.1;
+      ++at;
+      if (at >= text.size() || text[at] < '0' || text[at] > '9') return std::nullopt;
+      for (; at < text.size() && text[at] >= '0' && text[at] <= '9'; ++at, scale /= 10.0)
+        sec += (text[at] - '0') * scale;
+    }
+  }
+  DateTime out;
+  out.seconds = static_cast<double>(
+                    days_from_civil(*y, static_cast<unsigned>(*mo), static_cast<unsigned>(*d))) *
+                    86400.0 +
+                *h * 3600.0 + *mi * 60.0 + sec;
+  if (at == text.size()) return out;
+  if ((text[at] == 'Z' || text[at] == 'z') && at + 1 == text.size()) {
+    out.has_offset = true;
+    return out;
+  }
+  if ((text[at] == '+' || text[at] == '-') && at + 6 == text.size() && text[at + 3] == ':') {
+    auto oh = digits(at + 1, 2), om = digits(at + 4, 2);
+    if (!oh || !om || *oh > 23 || *om > 59) return std::nullopt;
+    const double offset = (*oh * 3600.0 + *om * 60.0) * (text[at] == '+' ? 1.0 : -1.0);
+    out.seconds -= offset;
+    out.has_offset = true;
+    return out;
+  }
+  return std::nullopt;
+}
+
+/// A TOML date-time value (or an ISO string) as a DateTime; nullopt when the node is neither
+/// (a TOML date or time alone is not a date-time).
+std::optional<DateTime> date_time_of(const toml::node& node) {
+  if (const auto* v = node.as_date_time()) {
+    const toml::date_time& dt = v->get();
+    DateTime out;
+    out.seconds =
+        static_cast<double>(days_from_civil(dt.date.year, dt.date.month, dt.date.day)) * 86400.0 +
+        dt.time.hour * 3600.0 + dt.time.minute * 60.0 + dt.time.second + dt.time.nanosecond * 1e-9;
+    if (dt.offset) {
+      out.seconds -= dt.offset->minutes * 60.0;
+      out.has_offset = true;
+    }
+    return out;
+  }
+  if (const auto* v = node.as_string()) return parse_iso_date_time(v->get());
+  return std::nullopt;
+}
+
+/// Turns dates into times (in the test's time unit) since the stated start of pumping.
+struct TestClock {
+  std::optional<DateTime> start;  ///< [test].pumping_started
+  double seconds_per_unit = 86400.0;
+
+  /// A time from a number (already since the start) or a date; nullopt with an error naming
+  /// the key otherwise.
+  std::optional<double> time_of(ReaderContext& ctx, const toml::node& node,
+                                const std::string& key) const {
+    if (auto v = number_of(node)) return v;
+    if (auto dt = date_time_of(node)) return since_start(ctx, node, key, *dt);
+    ctx.error(node, key,
+              "expected a time in " + ctx.time_unit +
+                  " or a date and time (2026-05-12T08:30:00), found " + show(node));
+    return std::nullopt;
+  }
+  std::optional<double> since_start(ReaderContext& ctx, const toml::node& node,
+                                    const std::string& key, const DateTime& dt) const {
+    if (!start) {
+      ctx.error(node, key,
+                "a date needs the start of pumping: give [test].pumping_started = "
+                "2026-05-12T08:00:00");
+      return std::nullopt;
+    }
+    if (dt.has_offset != start->has_offset) {
+      ctx.error(node, key,
+                std::string("this date ") + (dt.has_offset ? "has" : "has no") +
+                    " UTC offset and [test].pumping_started " +
+                    (start->has_offset ? "has one" : "has none") +
+                    ": give every date with an offset or none");
+      return std::nullopt;
+    }
+    return (dt.seconds - start->seconds) / seconds_per_unit;
+  }
+};
+
+/// A numeric array at key (every entry a finite number, or with a clock a date), or nullopt
+/// with an error.
 std::optional<std::vector<double>> read_numbers(ReaderContext& ctx, const toml::node& node,
-                                                const std::string& key) {
+                                                const std::string& key,
+                                                const TestClock* clock = nullptr) {
   const toml::array* arr = node.as_array();
   if (!arr) {
     ctx.error(node, key, "expected an array of numbers, found " + type_name(node));
@@ -27,6 +155,12 @@ std::optional<std::vector<double>> read_numbers(ReaderContext& ctx, const toml::
   }
   std::vector<double> out;
   for (std::size_t i = 0; i < arr->size(); ++i) {
+    if (clock) {
+      auto v = clock->time_of(ctx, (*arr)[i], key + "[" + std::to_string(i) + "]");
+      if (!v) return std::nullopt;
+      out.push_back(*v);
+      continue;
+    }
     auto v = number_of((*arr)[i]);
     if (!v) {
       ctx.error((*arr)[i], key + "[" + std::to_string(i) + "]",
@@ -39,18 +173,27 @@ std::optional<std::vector<double>> read_numbers(ReaderContext& ctx, const toml::
 }
 
 void read_test_section(ReaderContext& ctx, const toml::table& root, PumpingTest& test,
-                       PumpingTestReadResult& result) {
+                       PumpingTestReadResult& result, TestClock& clock) {
   const toml::table* t = optional_table(ctx, root, "test");
   if (!t) {
     if (!root.get("test")) ctx.error(ctx.file_spot(), "[test]", "missing the [test] section");
     return;
   }
-  check_keys(ctx, *t, "[test]", {"title", "length_unit", "time_unit", "model"});
+  check_keys(ctx, *t, "[test]", {"title", "length_unit", "time_unit", "model", "pumping_started"});
   test.title = read_string(ctx, *t, "title", "[test]", false).value_or("");
   test.length_unit = read_string(ctx, *t, "length_unit", "[test]", false).value_or("m");
   test.time_unit = read_string(ctx, *t, "time_unit", "[test]", false).value_or("d");
   ctx.length_unit = test.length_unit;
   ctx.time_unit = test.time_unit;
+  clock.seconds_per_unit = 86400.0 * days_per_time_unit(test.time_unit);
+  if (const toml::node* start = t->get("pumping_started")) {
+    clock.start = date_time_of(*start);
+    if (!clock.start)
+      ctx.error(*start, "[test].pumping_started",
+                "expected a date and time (2026-05-12T08:00:00, optionally with Z or an offset "
+                "+hh:mm), found " +
+                    show(*start));
+  }
   if (const toml::node* m = t->get("model")) {
     auto name = m->value<std::string>();
     if (!name || (*name != "auto" && !well_test_model_from_name(*name))) {
@@ -64,7 +207,27 @@ void read_test_section(ReaderContext& ctx, const toml::table& root, PumpingTest&
   }
 }
 
-void read_schedule(ReaderContext& ctx, const toml::table& root, PumpingTest& test) {
+/// [pumped_well]: radius (r_w) and casing_radius (r_c, default r_w), for the large-diameter
+/// model of Papadopulos and Cooper (1967).
+void read_pumped_well(ReaderContext& ctx, const toml::table& root, PumpingTest& test) {
+  const toml::table* t = optional_table(ctx, root, "pumped_well");
+  if (!t) return;
+  check_keys(ctx, *t, "[pumped_well]", {"radius", "casing_radius"});
+  for (const char* key : {"radius", "casing_radius"}) {
+    auto v = read_number(ctx, *t, key, "[pumped_well]", std::string(key) == "radius");
+    if (!v) continue;
+    if (!(*v > 0.0)) {
+      ctx.error(*t->get(key), std::string("[pumped_well].") + key,
+                "expected a radius > 0 " + ctx.length_unit + ", found " + show_number(*v));
+      continue;
+    }
+    (std::string(key) == "radius" ? test.pumped_well.well : test.pumped_well.casing) = *v;
+  }
+  if (test.pumped_well.casing == 0.0) test.pumped_well.casing = test.pumped_well.well;
+}
+
+void read_schedule(ReaderContext& ctx, const toml::table& root, PumpingTest& test,
+                   const TestClock& clock) {
   const toml::array* arr = section_tables(ctx, root, "pumping");
   if (!arr || arr->empty()) {
     if (!root.get("pumping"))
@@ -76,7 +239,11 @@ void read_schedule(ReaderContext& ctx, const toml::table& root, PumpingTest& tes
     const toml::table& row = *(*arr)[i].as_table();
     const std::string path = "[[pumping]] #" + std::to_string(i + 1);
     check_keys(ctx, row, path, {"time", "rate"});
-    auto time = read_number(ctx, row, "time", path, true);
+    std::optional<double> time;
+    if (const toml::node* at = row.get("time"))
+      time = clock.time_of(ctx, *at, path + ".time");
+    else
+      read_number(ctx, row, "time", path, true);  // reports the missing key
     auto rate = read_number(ctx, row, "rate", path, true);
     if (!time || !rate) continue;
     if (*rate < 0.0) {
@@ -102,7 +269,8 @@ void read_schedule(ReaderContext& ctx, const toml::table& root, PumpingTest& tes
 /// The series of one well from `series = { file = "x.csv" }`: columns time and drawdown, or
 /// time and water_level.
 bool read_series_file(ReaderContext& ctx, const toml::node& node, const std::string& path,
-                      std::vector<double>& times, std::vector<double>& values, bool& levels) {
+                      const TestClock& clock, std::vector<double>& times,
+                      std::vector<double>& values, bool& levels) {
   const toml::table* t = node.as_table();
   const std::string key = path + ".series";
   if (!t) {
@@ -130,6 +298,16 @@ bool read_series_file(ReaderContext& ctx, const toml::node& node, const std::str
   levels = !table.column("drawdown");
   times = table.numbers("time");
   values = table.numbers(levels ? "water_level" : "drawdown");
+  // A time that is not a number may be a date and time since [test].pumping_started.
+  const std::vector<std::string> texts = table.texts("time");
+  for (std::size_t i = 0; i < times.size() && i < texts.size(); ++i) {
+    if (std::isfinite(times[i])) continue;
+    const auto dt = parse_iso_date_time(texts[i]);
+    if (!dt) continue;
+    const auto since = clock.since_start(ctx, *t->get("file"), key + ".file", *dt);
+    if (!since) return false;
+    times[i] = *since;
+  }
   for (std::size_t i = 0; i < times.size(); ++i)
     if (!std::isfinite(times[i]) || !std::isfinite(values[i])) {
       ctx.error(*t->get("file"), key + ".file",
@@ -139,7 +317,8 @@ bool read_series_file(ReaderContext& ctx, const toml::node& node, const std::str
   return true;
 }
 
-void read_wells(ReaderContext& ctx, const toml::table& root, PumpingTest& test) {
+void read_wells(ReaderContext& ctx, const toml::table& root, PumpingTest& test,
+                const TestClock& clock) {
   const toml::array* arr = section_tables(ctx, root, "well");
   if (!arr || arr->empty()) {
     if (!root.get("well"))
@@ -193,7 +372,7 @@ void read_wells(ReaderContext& ctx, const toml::table& root, PumpingTest& test) 
       continue;
     }
     if (series) {
-      ok = read_series_file(ctx, *series, path, w.times, values, levels);
+      ok = read_series_file(ctx, *series, path, clock, w.times, values, levels);
     } else {
       if (!t.get("times") || !(t.get("drawdowns") || t.get("water_levels"))) {
         ctx.error(t, path,
@@ -207,7 +386,7 @@ void read_wells(ReaderContext& ctx, const toml::table& root, PumpingTest& test) 
         continue;
       }
       levels = !t.get("drawdowns");
-      auto times = read_numbers(ctx, *t.get("times"), path + ".times");
+      auto times = read_numbers(ctx, *t.get("times"), path + ".times", &clock);
       const std::string vkey = levels ? "water_levels" : "drawdowns";
       auto vals = read_numbers(ctx, *t.get(vkey), path + "." + vkey);
       if (times && vals) {
@@ -252,12 +431,20 @@ void read_wells(ReaderContext& ctx, const toml::table& root, PumpingTest& test) 
 }  // namespace
 
 std::vector<std::string> pumping_test_model_names() {
-  return {"auto", "theis", "cooper-jacob", "hantush-jacob", "neuman"};
+  return {"auto",
+          "theis",
+          "cooper-jacob",
+          "hantush-jacob",
+          "neuman",
+          "papadopulos-cooper",
+          "hantush-aquitard-storage"};
 }
 
 std::optional<WellTestModel> well_test_model_from_name(std::string_view name) {
-  for (WellTestModel m : {WellTestModel::theis, WellTestModel::cooper_jacob,
-                          WellTestModel::hantush_jacob, WellTestModel::neuman})
+  for (WellTestModel m :
+       {WellTestModel::theis, WellTestModel::cooper_jacob, WellTestModel::hantush_jacob,
+        WellTestModel::neuman, WellTestModel::papadopulos_cooper,
+        WellTestModel::hantush_aquitard_storage})
     if (model_name(m) == name) return m;
   return std::nullopt;
 }
@@ -271,11 +458,13 @@ PumpingTestReadResult read_pumping_test_text(std::string_view toml_text,
   PumpingTestReadResult result;
   try {
     const toml::table root = toml::parse(toml_text, as_if_path.string());
-    check_keys(ctx, root, "(top level)", {"test", "pumping", "well"});
+    check_keys(ctx, root, "(top level)", {"test", "pumped_well", "pumping", "well"});
     PumpingTest test;
-    read_test_section(ctx, root, test, result);
-    read_schedule(ctx, root, test);
-    read_wells(ctx, root, test);
+    TestClock clock;
+    read_test_section(ctx, root, test, result, clock);
+    read_pumped_well(ctx, root, test);
+    read_schedule(ctx, root, test, clock);
+    read_wells(ctx, root, test, clock);
     if (!ctx.diagnostics.has_errors()) result.test = std::move(test);
   } catch (const toml::parse_error& e) {
     ctx.error(ctx.spot(e.source()), "", "TOML syntax: " + std::string(e.description()));

@@ -47,7 +47,9 @@ std::string model_json(const PumpingTest& test, const ModelFit& m, const std::st
 
 std::string parameter_unit(const std::string& parameter, const PumpingTest& test) {
   if (parameter == "transmissivity") return test.length_unit + "2/" + test.time_unit;
-  if (parameter == "storativity" || parameter == "specific_yield") return "-";
+  if (parameter == "storativity" || parameter == "specific_yield" ||
+      parameter == "aquitard_storativity")
+    return "-";
   return test.length_unit;
 }
 

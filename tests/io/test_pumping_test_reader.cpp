@@ -86,6 +86,34 @@ TEST_CASE("a good test file is read whole", "[pumping_test_reader]") {
   CHECK(t.wells[1].drawdowns[3] == Approx(0.3));
 }
 
+TEST_CASE("the pumped well's radii for the large-diameter model", "[pumping_test_reader]") {
+  {
+    const std::string t =
+        replace(good, "[[pumping]]", "[pumped_well]\nradius = 0.6\n\n[[pumping]]");
+    const PumpingTestReadResult r = read_pumping_test_text(t, "/invented/test.toml");
+    REQUIRE(r.test.has_value());
+    CHECK(r.test->pumped_well.well == 0.6);
+    CHECK(r.test->pumped_well.casing == 0.6);  // the casing radius defaults to the well's
+  }
+  {
+    const std::string t = replace(
+        good, "[[pumping]]", "[pumped_well]\nradius = 0.6\ncasing_radius = 0.4\n\n[[pumping]]");
+    const PumpingTestReadResult r = read_pumping_test_text(t, "/invented/test.toml");
+    REQUIRE(r.test.has_value());
+    CHECK(r.test->pumped_well.casing == 0.4);
+  }
+  {
+    const std::string t = replace(
+        good, "[[pumping]]", "[pumped_well]\nradius = 0.6\ncasing_radius = 0.0\n\n[[pumping]]");
+    expect_error(t, "[pumped_well].casing_radius", line_of(t, "casing_radius"), "radius > 0");
+  }
+  {
+    const std::string t =
+        replace(good, "[[pumping]]", "[pumped_well]\ncasing_radius = 0.4\n\n[[pumping]]");
+    expect_error(t, "[pumped_well].radius", line_of(t, "[pumped_well]"), "missing");
+  }
+}
+
 TEST_CASE("a series read from a CSV file", "[pumping_test_reader]") {
   const auto folder = std::filesystem::temp_directory_path() / "aquiledger-pumping-reader";
   std::filesystem::create_directories(folder);
@@ -132,4 +160,89 @@ TEST_CASE("bad test files give file, line and key", "[pumping_test_reader]") {
     expect_error(t, "[[well]] \"west piezometer\".static_level",
                  line_of(t, "[[well]]\nname = \"west"), "missing");
   }
+}
+
+TEST_CASE("times as dates since the stated start of pumping", "[pumping_test_reader]") {
+  // Calendar facts: 2028 is a leap year (divisible by 4, not by 100), so 2028-02-28T12:00 to
+  // 2028-03-01T12:00 is 2 days; 08:00+02:00 is 06:00 UTC (ISO 8601).
+  const std::string dated = R"([test]
+time_unit = "min"
+pumping_started = 2028-02-28T12:00:00
+
+[[pumping]]
+time = 2028-02-28T12:00:00
+rate = 2.5
+
+[[pumping]]
+time = "2028-03-01T12:00"
+rate = 0.0
+
+[[well]]
+name = "east piezometer"
+distance = 12.0
+times = [2028-02-28T12:01:00, "2028-02-28 12:02:30", 5.0, 2028-03-01T12:00:00.5]
+drawdowns = [0.1, 0.2, 0.3, 0.4]
+)";
+  {
+    const PumpingTestReadResult r = read_pumping_test_text(dated, "/invented/test.toml");
+    REQUIRE(r.test.has_value());
+    CHECK(r.test->schedule[0].start == 0.0);
+    CHECK(r.test->schedule[1].start == Approx(2.0 * 1440.0));
+    const std::vector<double>& t = r.test->wells[0].times;
+    CHECK(t[0] == Approx(1.0));
+    CHECK(t[1] == Approx(2.5));
+    CHECK(t[2] == 5.0);  // a number is a time since the start already
+    CHECK(t[3] == Approx(2.0 * 1440.0 + 0.5 / 60.0));
+  }
+  {
+    // Offsets: 06:30Z is 30 minutes after 08:00+02:00.
+    std::string t = replace(dated, "pumping_started = 2028-02-28T12:00:00",
+                            "pumping_started = 2028-02-28T08:00:00+02:00");
+    t = replace(t, "time = 2028-02-28T12:00:00", "time = 2028-02-28T06:30:00Z");
+    t = replace(t, "time = \"2028-03-01T12:00\"", "time = 2028-02-28T07:00:00Z");
+    t = replace(t,
+                "times = [2028-02-28T12:01:00, \"2028-02-28 12:02:30\", 5.0, "
+                "2028-03-01T12:00:00.5]",
+                "times = [31.0, 32.0, 33.0, 34.0]");
+    const PumpingTestReadResult r = read_pumping_test_text(t, "/invented/test.toml");
+    REQUIRE(r.test.has_value());
+    CHECK(r.test->schedule[0].start == Approx(30.0));
+    CHECK(r.test->schedule[1].start == Approx(60.0));
+  }
+  {
+    const std::string t = replace(dated, "pumping_started = 2028-02-28T12:00:00\n", "");
+    expect_error(t, "[[pumping]] #1.time", line_of(t, "time = 2028-02-28T12:00:00"),
+                 "pumping_started");
+  }
+  {
+    const std::string t =
+        replace(dated, "time = \"2028-03-01T12:00\"", "time = \"2028-03-01T12:00Z\"");
+    expect_error(t, "[[pumping]] #2.time", line_of(t, "time = \"2028-03-01T12:00Z\""),
+                 "UTC offset");
+  }
+  {
+    const std::string t = replace(dated, "\"2028-02-28 12:02:30\"", "\"28/02/2028 12:02\"");
+    expect_error(t, "[[well]] \"east piezometer\".times[1]", line_of(t, "times = ["),
+                 "a date and time");
+  }
+}
+
+TEST_CASE("a CSV series with dates", "[pumping_test_reader]") {
+  const auto folder = std::filesystem::temp_directory_path() / "aquiledger-pumping-dates";
+  std::filesystem::create_directories(folder);
+  std::ofstream(folder / "ow.csv") << "time,drawdown\n2026-05-12T08:01:00,0.1\n"
+                                      "2026-05-12T08:02:00,0.2\n2026-05-12T08:04:00,0.3\n"
+                                      "2026-05-12T09:00:00,0.4\n";
+  std::string text = good.substr(0, good.find("[[well]]"));
+  text = replace(text, "time_unit = \"min\"",
+                 "time_unit = \"h\"\npumping_started = 2026-05-12T08:00:00");
+  text = replace(text, "time = 100.0", "time = 100.0");
+  text += "[[well]]\nname = \"ow\"\ndistance = 5.0\nseries = { file = \"ow.csv\" }\n";
+  const PumpingTestReadResult r = read_pumping_test_text(text, folder / "test.toml");
+  REQUIRE(r.test.has_value());
+  const std::vector<double>& t = r.test->wells[0].times;
+  REQUIRE(t.size() == 4);
+  CHECK(t[0] == Approx(1.0 / 60.0));
+  CHECK(t[3] == Approx(1.0));
+  std::filesystem::remove_all(folder);
 }

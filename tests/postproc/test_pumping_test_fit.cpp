@@ -60,6 +60,37 @@ TEST_CASE("noise-free Hantush-Jacob is recovered to 0.5 %", "[pumping_test_fit]"
                   truth);
 }
 
+TEST_CASE("noise-free Papadopulos-Cooper at a large-diameter well is recovered to 0.5 %",
+          "[pumping_test_fit]") {
+  // An invented dug well: r_w = 0.6 m, casing 0.5 m, 300 m3/d for 2 d then recovery to 3 d,
+  // watched in the well itself (distance = r_w) and at 8 m. Well-bore storage dominates
+  // until about 250 r_c^2 / T = 1.25 d (Papadopulos and Cooper, 1967), the whole first step.
+  const std::vector<double> truth{50.0, 2.0e-3};  // m2/d, -
+  PumpingTest test;
+  test.pumped_well = {0.6, 0.5};
+  test.schedule = {{0.0, 300.0}, {2.0, 0.0}};
+  for (double r : {0.6, 8.0}) {
+    ObservationSeries w;
+    w.name = "well at " + std::to_string(r);
+    w.distance = r;
+    for (int i = 0; i < 40; ++i)
+      w.times.push_back(2.0 * std::pow(10.0, -4.0 + 4.0 * (i + 1) / 40.0));
+    for (int i = 0; i < 20; ++i)
+      w.times.push_back(2.0 + std::pow(10.0, -3.0 + 3.0 * (i + 1) / 20.0));
+    for (double t : w.times)
+      w.drawdowns.push_back(schedule_drawdown(WellTestModel::papadopulos_cooper, truth,
+                                              test.schedule, r, t, {}, test.pumped_well));
+    test.wells.push_back(std::move(w));
+  }
+  const ModelFit fit = fit_pumping_test(test, WellTestModel::papadopulos_cooper);
+  CHECK(fit.fit.converged);
+  check_recovered(fit, truth);
+  // Without the radii the model cannot be fitted, and says why.
+  test.pumped_well = {};
+  CHECK_THROWS_WITH(fit_pumping_test(test, WellTestModel::papadopulos_cooper),
+                    Catch::Contains("[pumped_well]"));
+}
+
 TEST_CASE("Theis beside a barrier image is recovered to 0.5 %", "[pumping_test_fit]") {
   const std::vector<double> truth{600.0, 5.0e-4};
   const PumpingTest test = synthesise(WellTestModel::theis, truth, {{400.0, false}});

@@ -22,34 +22,8 @@ trap 'rm -rf "$tmp"' EXIT
 "$exe" run "$src/cases/01-marrow-basin/model.toml" --output "$tmp" --quiet
 "$exe" report "$tmp"
 
-browse() {  # browse <page> <extra chromium args...>
-  local page=$1
-  shift
-  local profile
-  profile=$(mktemp -d "$tmp/profile.XXXXXX")
-  timeout 120 "$chromium" --headless --no-sandbox --disable-gpu --disable-quic --no-first-run \
-    --disable-background-networking --disable-component-update --disable-sync \
-    --user-data-dir="$profile" --virtual-time-budget=10000 "$@" "file://$page" 2>/dev/null
-}
-
-check_page() {  # check_page <page> <minimum charts>
-  local page=$1 minimum=$2 dom
-  dom=$(browse "$page" --dump-dom)
-  local status charts rendered
-  status=$(grep -o '<p id="render-status">[^<]*' <<<"$dom" | sed 's/.*>//')
-  charts=$(grep -o '<div class="chart" id="chart-[0-9]*"' <<<"$dom" | wc -l)
-  # A container rendered by Vega's SVG renderer holds an <svg> element right inside it.
-  rendered=$(grep -o '<div class="chart" id="chart-[0-9]*"[^>]*><svg' <<<"$dom" | wc -l)
-  echo "$page: status '$status', $rendered of $charts charts rendered"
-  if [[ "$status" != "ok" ]]; then
-    echo "FAILED: the page's status marker reads '$status'" >&2
-    exit 1
-  fi
-  if ((charts < minimum || rendered != charts)); then
-    echo "FAILED: expected at least $minimum charts, all rendered" >&2
-    exit 1
-  fi
-}
+# shellcheck source=../support/browser_page.sh
+source "$src/tests/support/browser_page.sh"
 
 # Demo report: volumes and mean rates, storage, imbalance, converted cells, 3 hydrographs,
 # calibration scatter and residual map, and the 4 maps at the last output time.
@@ -63,13 +37,7 @@ for heading in "About this run" "Stress periods" "Water budget by stress period"
     exit 1
   fi
 done
-# No NaN and no error text in what a reader sees (scripts, the Vega library among them, and
-# the hidden status marker left out).
-visible=$(perl -0pe 's/<script.*?<\/script>//gs; s/<p id="render-status"[^>]*>[^<]*//; s/<[^>]*>/ /g' <<<"$dom")
-if grep -qiw -e 'nan' -e 'error:' -e 'undefined' <<<"$visible"; then
-  echo "FAILED: the rendered page shows 'nan', 'undefined' or an error" >&2
-  exit 1
-fi
+check_visible_text "$dom"
 # --maps-at: every output time maps; a bad value writes nothing and exits 64.
 "$exe" report "$tmp" --maps-at all --out "$tmp/all.html" --quiet
 check_page "$tmp/all.html" 20
