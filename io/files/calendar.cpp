@@ -29,7 +29,7 @@ double day_start(std::chrono::year_month_day ymd) {
 
 }  // namespace
 
-std::optional<double> parse_calendar_time(std::string_view text) {
+std::optional<ZonedCalendarTime> parse_zoned_calendar_time(std::string_view text) {
   const auto b = text.find_first_not_of(" \t\r"), e = text.find_last_not_of(" \t\r");
   if (b == std::string_view::npos) return std::nullopt;
   text = text.substr(b, e - b + 1);
@@ -39,19 +39,45 @@ std::optional<double> parse_calendar_time(std::string_view text) {
                                         std::chrono::month{static_cast<unsigned>(*m)},
                                         std::chrono::day{static_cast<unsigned>(*d)}};
   if (!ymd.ok()) return std::nullopt;
-  double seconds = day_start(ymd);
-  if (text.size() == 10) return seconds;
-  if (text[10] != 'T' && text[10] != ' ') return std::nullopt;
+  ZonedCalendarTime out{day_start(ymd), false};
+  if (text.size() == 10) return out;
+  if (text[10] != 'T' && text[10] != 't' && text[10] != ' ') return std::nullopt;
   const auto hh = digits(text, 11, 2), mm = digits(text, 14, 2);
-  if (!hh || !mm || text.size() < 16 || text[13] != ':' || *hh > 23 || *mm > 59)
-    return std::nullopt;
-  int ss = 0;
-  if (text.size() != 16) {
-    const auto s = digits(text, 17, 2);
-    if (!s || text.size() != 19 || text[16] != ':' || *s > 59) return std::nullopt;
-    ss = *s;
+  if (!hh || !mm || text[13] != ':' || *hh > 23 || *mm > 59) return std::nullopt;
+  out.seconds += 3600.0 * *hh + 60.0 * *mm;
+  std::size_t at = 16;
+  if (at < text.size() && text[at] == ':') {
+    const auto ss = digits(text, at + 1, 2);
+    if (!ss || *ss > 59) return std::nullopt;
+    out.seconds += *ss;
+    at += 3;
+    if (at < text.size() && text[at] == '.') {
+      ++at;
+      if (at >= text.size() || text[at] < '0' || text[at] > '9') return std::nullopt;
+      for (double scale = 0.1; at < text.size() && text[at] >= '0' && text[at] <= '9';
+           ++at, scale /= 10.0)
+        out.seconds += (text[at] - '0') * scale;
+    }
   }
-  return seconds + 3600.0 * *hh + 60.0 * *mm + ss;
+  if (at == text.size()) return out;
+  if ((text[at] == 'Z' || text[at] == 'z') && at + 1 == text.size()) {
+    out.has_offset = true;
+    return out;
+  }
+  if ((text[at] == '+' || text[at] == '-') && at + 6 == text.size() && text[at + 3] == ':') {
+    const auto oh = digits(text, at + 1, 2), om = digits(text, at + 4, 2);
+    if (!oh || !om || *oh > 23 || *om > 59) return std::nullopt;
+    out.seconds -= (3600.0 * *oh + 60.0 * *om) * (text[at] == '+' ? 1.0 : -1.0);
+    out.has_offset = true;
+    return out;
+  }
+  return std::nullopt;
+}
+
+std::optional<double> parse_calendar_time(std::string_view text) {
+  const auto t = parse_zoned_calendar_time(text);
+  if (!t || t->has_offset) return std::nullopt;
+  return t->seconds;
 }
 
 bool looks_like_date(std::string_view text) {

@@ -10,9 +10,20 @@
 
 namespace aquiledger {
 
-/// Parses "YYYY-MM-DD", optionally followed by "T" or one space and "hh:mm" or "hh:mm:ss"
-/// (years 1 to 9999). nullopt when the text is not such a date or the date does not exist
-/// (2023-02-29, 2024-04-31, 25:00).
+/// A calendar time read from text that may carry a UTC offset.
+struct ZonedCalendarTime {
+  double seconds = 0.0;     ///< since 1970-01-01, converted to UTC when an offset was given
+  bool has_offset = false;  ///< the text gave Z or +hh:mm / -hh:mm
+};
+
+/// Parses ISO 8601 "YYYY-MM-DD", optionally followed by "T" (or "t", or one space) and
+/// "hh:mm", "hh:mm:ss" or "hh:mm:ss.fff", then optionally "Z" or an offset "+hh:mm" /
+/// "-hh:mm" (years 1 to 9999). nullopt when the text is not such a date or the day or time
+/// does not exist (2023-02-29, 2024-04-31, 25:00).
+std::optional<ZonedCalendarTime> parse_zoned_calendar_time(std::string_view text);
+
+/// As parse_zoned_calendar_time without a UTC offset (model times carry no zone): nullopt
+/// for a text with one.
 std::optional<double> parse_calendar_time(std::string_view text);
 
 /// True when the text starts like a date ("1999-" ...): for messages and for telling a date

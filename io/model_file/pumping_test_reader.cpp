@@ -5,6 +5,7 @@
 #include <fstream>
 #include <sstream>
 
+#include "io/files/calendar.hpp"
 #include "io/files/csv_table.hpp"
 #include "io/files/input_file_guard.hpp"
 #include "io/files/read_error.hpp"
@@ -18,90 +19,23 @@ namespace {
 
 constexpr std::uintmax_t max_test_file_bytes = 64u << 20;
 
-/// Days from 1970-01-01 to the proleptic Gregorian date y-m-d (H. Hinnant's days_from_civil,
-/// "chrono-Compatible Low-Level Date Algorithms", public domain).
-long days_from_civil(long y, unsigned m, unsigned d) {
-  y -= m <= 2;
-  const long era = (y >= 0 ? y : y - 399) / 400;
-  const unsigned yoe = static_cast<unsigned>(y - era * 400);
-  const unsigned doy = (153 * (m + (m > 2 ? -3 : 9)) + 2) / 5 + d - 1;
-  const unsigned doe = yoe * 365 + yoe / 4 - yoe / 100 + doy;
-  return era * 146097 + static_cast<long>(doe) - 719468;
-}
-
 /// A date and time: seconds since 1970-01-01T00:00 (UTC when it carries an offset).
-struct DateTime {
-  double seconds = 0.0;
-  bool has_offset = false;
-};
+using DateTime = ZonedCalendarTime;
 
-/// An ISO 8601 date and time, YYYY-MM-DDThh:mm[:ss[.fff]][Z|+hh:mm|-hh:mm] (a space may stand
-/// for the T, as in TOML); nullopt when the text is not one.
+/// An ISO 8601 date and time (io/files/calendar.hpp); a date alone is not a date-time here.
 std::optional<DateTime> parse_iso_date_time(std::string_view text) {
-  auto digits = [&](std::size_t at, std::size_t n) -> std::optional<int> {
-    if (at + n > text.size()) return std::nullopt;
-    int v = 0;
-    for (std::size_t i = at; i < at + n; ++i) {
-      if (text[i] < '0' || text[i] > '9') return std::nullopt;
-      v = v * 10 + (text[i] - '0');
-    }
-    return v;
-  };
-  auto y = digits(0, 4), mo = digits(5, 2), d = digits(8, 2), h = digits(11, 2), mi = digits(14, 2);
-  if (!y || !mo || !d || !h || !mi || text[4] != '-' || text[7] != '-' ||
-      (text[10] != 'T' && text[10] != 't' && text[10] != ' ') || text[13] != ':')
-    return std::nullopt;
-  if (*mo < 1 || *mo > 12 || *d < 1 || *d > 31 || *h > 23 || *mi > 59) return std::nullopt;
-  std::size_t at = 16;
-  double sec = 0.0;
-  if (at < text.size() && text[at] == ':') {
-    auto ss = digits(at + 1, 2);
-    if (!ss || *ss > 60) return std::nullopt;
-    sec = *ss;
-    at += 3;
-    if (at < text.size() && text[at] == '.') {
-      double scale = 0.1;
-      ++at;
-      if (at >= text.size() || text[at] < '0' || text[at] > '9') return std::nullopt;
-      for (; at < text.size() && text[at] >= '0' && text[at] <= '9'; ++at, scale /= 10.0)
-        sec += (text[at] - '0') * scale;
-    }
-  }
-  DateTime out;
-  out.seconds = static_cast<double>(
-                    days_from_civil(*y, static_cast<unsigned>(*mo), static_cast<unsigned>(*d))) *
-                    86400.0 +
-                *h * 3600.0 + *mi * 60.0 + sec;
-  if (at == text.size()) return out;
-  if ((text[at] == 'Z' || text[at] == 'z') && at + 1 == text.size()) {
-    out.has_offset = true;
-    return out;
-  }
-  if ((text[at] == '+' || text[at] == '-') && at + 6 == text.size() && text[at + 3] == ':') {
-    auto oh = digits(at + 1, 2), om = digits(at + 4, 2);
-    if (!oh || !om || *oh > 23 || *om > 59) return std::nullopt;
-    const double offset = (*oh * 3600.0 + *om * 60.0) * (text[at] == '+' ? 1.0 : -1.0);
-    out.seconds -= offset;
-    out.has_offset = true;
-    return out;
-  }
-  return std::nullopt;
+  const auto b = text.find_first_not_of(" \t\r");
+  if (b == std::string_view::npos || text.substr(b).size() <= 10) return std::nullopt;
+  return parse_zoned_calendar_time(text);
 }
 
 /// A TOML date-time value (or an ISO string) as a DateTime; nullopt when the node is neither
 /// (a TOML date or time alone is not a date-time).
 std::optional<DateTime> date_time_of(const toml::node& node) {
   if (const auto* v = node.as_date_time()) {
-    const toml::date_time& dt = v->get();
-    DateTime out;
-    out.seconds =
-        static_cast<double>(days_from_civil(dt.date.year, dt.date.month, dt.date.day)) * 86400.0 +
-        dt.time.hour * 3600.0 + dt.time.minute * 60.0 + dt.time.second + dt.time.nanosecond * 1e-9;
-    if (dt.offset) {
-      out.seconds -= dt.offset->minutes * 60.0;
-      out.has_offset = true;
-    }
-    return out;
+    std::ostringstream text;  // TOML++ prints the ISO 8601 form, offset included
+    text << v->get();
+    return parse_zoned_calendar_time(text.str());
   }
   if (const auto* v = node.as_string()) return parse_iso_date_time(v->get());
   return std::nullopt;
@@ -181,8 +115,9 @@ void read_test_section(ReaderContext& ctx, const toml::table& root, PumpingTest&
   }
   check_keys(ctx, *t, "[test]", {"title", "length_unit", "time_unit", "model", "pumping_started"});
   test.title = read_string(ctx, *t, "title", "[test]", false).value_or("");
-  test.length_unit = read_string(ctx, *t, "length_unit", "[test]", false).value_or("m");
-  test.time_unit = read_string(ctx, *t, "time_unit", "[test]", false).value_or("d");
+  test.length_unit = read_choice(ctx, *t, "length_unit", "[test]", {"m", "ft"}).value_or("m");
+  test.time_unit =
+      read_choice(ctx, *t, "time_unit", "[test]", {"s", "min", "h", "d", "yr"}).value_or("d");
   ctx.length_unit = test.length_unit;
   ctx.time_unit = test.time_unit;
   clock.seconds_per_unit = 86400.0 * days_per_time_unit(test.time_unit);
