@@ -97,9 +97,10 @@ CellFields initial_cell_fields(const Model& model, const SystemLayout& layout,
 
 void update_cell_fields(const Model& model, const SystemLayout& layout, bool steady, double dt,
                         std::span<const double> initial_head, std::span<const double> head_old,
-                        std::span<const double> head_new, CellFields& f) {
+                        std::span<const double> head_new, CellFields& f,
+                        std::span<const double> preconsolidation) {
   update_cell_fields(model, layout, GridPart::whole(model.grid), steady, dt, initial_head, head_old,
-                     head_new, f);
+                     head_new, preconsolidation, f);
 }
 
 CellFields initial_cell_fields(const Model& model, const SystemLayout& layout, const GridPart& part,
@@ -119,13 +120,26 @@ CellFields initial_cell_fields(const Model& model, const SystemLayout& layout, c
         (*v)[k] = std::nan("");
   fill_face_flows(model, layout, part, initial_head, f);
   f.depth_to_water = depth_to_water(model, part, initial_head);
+  if (model.aquifer.interbeds) {
+    for (auto* v : {&f.interbed_elastic_compaction, &f.interbed_inelastic_compaction, &f.subsidence,
+                    &f.preconsolidation_head})
+      v->assign(n, std::nan(""));
+    for (std::size_t k = 0; k < n; ++k) {
+      if (!model.grid.is_active(CellIndex{static_cast<std::int32_t>(first + k)})) continue;
+      f.interbed_elastic_compaction[k] = f.interbed_inelastic_compaction[k] = 0.0;
+      f.subsidence[k] = 0.0;
+      f.preconsolidation_head[k] =
+          initial_preconsolidation(*model.aquifer.interbeds, first + k, initial_head[first + k]);
+    }
+  }
   return f;
 }
 
 void update_cell_fields(const Model& model, const SystemLayout& layout, const GridPart& part,
                         bool steady, double dt, CellValues initial_head, CellValues head_old,
-                        CellValues head_new, CellFields& f) {
+                        CellValues head_new, CellValues preconsolidation, CellFields& f) {
   fill_heads(model, layout, part, initial_head, head_new, f);
+  const bool beds = model.aquifer.interbeds.has_value();
   const bool split = model.aquifer.elastic_split();
   const auto first = static_cast<std::size_t>(part.first_owned());
   for (std::size_t k = 0; k < f.head.size(); ++k) {
@@ -133,15 +147,19 @@ void update_cell_fields(const Model& model, const SystemLayout& layout, const Gr
     const CellIndex c{static_cast<std::int32_t>(i)};
     if (!model.grid.is_active(c)) continue;
     double elastic = 0.0, drainage = 0.0;  // L3/T released
+    double bed_elastic = 0.0, bed_inelastic = 0.0;
+    const double pc = beds ? preconsolidation[i] : 0.0;
     // Fixed cells and steady steps have no storage term.
     if (!steady && !layout.fixed[i]) {
-      const StorageRelease release = storage_release_rate(cell_storage(model, c), layout.area[i],
-                                                          head_old[i], head_new[i], dt);
+      const StorageRelease release = storage_release_rate(
+          cell_storage(model, c, pc), layout.area[i], head_old[i], head_new[i], dt);
       elastic = release.elastic;
       drainage = release.drainage;
+      bed_elastic = release.interbed_elastic;
+      bed_inelastic = release.interbed_inelastic;
     }
     const double share = split ? model.aquifer.skeleton_share[i] : 1.0;
-    f.storage_rate[k] = elastic + drainage;
+    f.storage_rate[k] = elastic + drainage + bed_elastic + bed_inelastic;
     f.storage_skeleton_rate[k] = split ? share * elastic : 0.0;
     f.storage_water_rate[k] = split ? (1.0 - share) * elastic : 0.0;
     f.storage_elastic_rate[k] = split ? 0.0 : elastic;
@@ -149,6 +167,16 @@ void update_cell_fields(const Model& model, const SystemLayout& layout, const Gr
     // Skeleton release per unit area is compaction; with Ss given directly the whole elastic
     // release is used, an upper bound on the skeleton's share.
     if (!steady) f.compaction[k] += share * elastic * dt / layout.area[i];
+    if (beds) {
+      // Water squeezed from the beds per unit area is their compaction (no-delay beds).
+      if (!steady) {
+        f.interbed_elastic_compaction[k] += bed_elastic * dt / layout.area[i];
+        f.interbed_inelastic_compaction[k] += bed_inelastic * dt / layout.area[i];
+      }
+      f.subsidence[k] =
+          f.compaction[k] + f.interbed_elastic_compaction[k] + f.interbed_inelastic_compaction[k];
+      f.preconsolidation_head[k] = lowered_preconsolidation(pc, head_new[i]);
+    }
   }
   fill_face_flows(model, layout, part, head_new, f);
   f.depth_to_water = depth_to_water(model, part, head_new);

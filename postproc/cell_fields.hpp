@@ -23,6 +23,11 @@ struct CellFields {
   std::vector<double> flow_east;              ///< L3/T across the east face, positive east
   std::vector<double> flow_north;             ///< L3/T across the north face, positive north
   std::vector<double> depth_to_water;         ///< L, land surface minus head; empty without one
+  /// With [interbeds] only (empty otherwise; docs/subsidence.md):
+  std::vector<double> interbed_elastic_compaction;    ///< L, cumulative, recoverable
+  std::vector<double> interbed_inelastic_compaction;  ///< L, cumulative, permanent
+  std::vector<double> subsidence;                     ///< L, compaction plus both interbed parts
+  std::vector<double> preconsolidation_head;          ///< L, the lowest head the beds have known
 };
 
 /// How many active cells are in each state (the `state` field's classes) at one time.
@@ -47,13 +52,16 @@ CellFields initial_cell_fields(const Model& model, const SystemLayout& layout,
 /// Updates the fields for an accepted step; compaction accumulates.
 void update_cell_fields(const Model& model, const SystemLayout& layout, bool steady, double dt,
                         std::span<const double> initial_head, std::span<const double> head_old,
-                        std::span<const double> head_new, CellFields& fields);
+                        std::span<const double> head_new, CellFields& fields,
+                        std::span<const double> preconsolidation = {});
 
 /// As above for the cells a part owns (the heads must hold them and their neighbours).
 CellFields initial_cell_fields(const Model& model, const SystemLayout& layout, const GridPart& part,
                                CellValues initial_head);
+/// preconsolidation: the interbeds' preconsolidation heads at the step start
+/// (StepInfo::preconsolidation; empty without interbeds).
 void update_cell_fields(const Model& model, const SystemLayout& layout, const GridPart& part,
                         bool steady, double dt, CellValues initial_head, CellValues head_old,
-                        CellValues head_new, CellFields& fields);
+                        CellValues head_new, CellValues preconsolidation, CellFields& fields);
 
 }  // namespace aquiledger

@@ -74,8 +74,8 @@ void Recorder::step_done(const StepInfo& info, std::span<const double> head_old,
   steps.push_back(info);
   heads.emplace_back(head_new.begin(), head_new.end());
   if (keep_budget_) {
-    budgets.push_back(
-        step_budget(model_, layout_, info.period, info.steady, info.dt, head_old, head_new));
+    budgets.push_back(step_budget(model_, layout_, info.period, info.steady, info.dt, head_old,
+                                  head_new, info.preconsolidation));
     cumulative.add_scaled(budgets.back(), info.dt);
   }
 }

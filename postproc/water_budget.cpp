@@ -1,5 +1,6 @@
 #include "postproc/water_budget.hpp"
 
+#include <cassert>
 #include <cmath>
 
 #include "solver/face_table.hpp"
@@ -52,6 +53,10 @@ std::string_view component_label(BudgetComponent c) {
       return "storage_drainage";
     case BudgetComponent::storage_elastic:
       return "storage_elastic";
+    case BudgetComponent::interbed_recoverable:
+      return "interbed_recoverable";
+    case BudgetComponent::interbed_permanent:
+      return "interbed_permanent";
     case BudgetComponent::fixed_head:
       return "fixed_head";
     case BudgetComponent::well:
@@ -106,14 +111,15 @@ void WaterBudget::add_scaled(const WaterBudget& other, double factor) {
 
 WaterBudget step_budget(const Model& model, const SystemLayout& layout, std::size_t period,
                         bool steady, double dt, std::span<const double> head_old,
-                        std::span<const double> head_new) {
+                        std::span<const double> head_new,
+                        std::span<const double> preconsolidation) {
   return step_budget(model, layout, GridPart::whole(model.grid), period, steady, dt, head_old,
-                     head_new);
+                     head_new, preconsolidation);
 }
 
 WaterBudget step_budget(const Model& model, const SystemLayout& layout, const GridPart& part,
                         std::size_t period, bool steady, double dt, CellValues head_old,
-                        CellValues head_new) {
+                        CellValues head_new, CellValues preconsolidation) {
   WaterBudget budget;
   // Storage: released (positive) or taken (negative) in each unknown cell, by mechanism.
   if (!steady) {
@@ -123,14 +129,19 @@ WaterBudget step_budget(const Model& model, const SystemLayout& layout, const Gr
     const auto n = static_cast<std::ptrdiff_t>(owned.end);
     // In and out of each storage mechanism as plain scalars so that OpenMP can reduce them.
     double skel_in = 0, skel_out = 0, water_in = 0, water_out = 0, el_in = 0, el_out = 0;
-    double dr_in = 0, dr_out = 0;
-#pragma omp parallel for schedule(static) \
-    reduction(+ : skel_in, skel_out, water_in, water_out, el_in, el_out, dr_in, dr_out)
+    double dr_in = 0, dr_out = 0, ire_in = 0, ire_out = 0, ipe_in = 0, ipe_out = 0;
+    const bool interbeds = !preconsolidation.values().empty();
+    assert(interbeds == model.aquifer.interbeds.has_value());
+#pragma omp parallel for schedule(static) reduction(+ : skel_in, skel_out, water_in, water_out, \
+                                                        el_in, el_out, dr_in, dr_out, ire_in, \
+                                                        ire_out, ipe_in, ipe_out)
     for (std::ptrdiff_t u = first; u < n; ++u) {
       const CellIndex c = layout.cell_of_unknown[static_cast<std::size_t>(u)];
       const std::size_t i = at(c);
-      const auto [elastic, drainage] = storage_release_rate(cell_storage(model, c), layout.area[i],
-                                                            head_old[i], head_new[i], dt);
+      const double pc = interbeds ? preconsolidation[i] : 0.0;
+      const StorageRelease release = storage_release_rate(
+          cell_storage(model, c, pc), layout.area[i], head_old[i], head_new[i], dt);
+      const double elastic = release.elastic;
       auto add = [](double& in, double& out, double q) { q > 0.0 ? in += q : out -= q; };
       if (split) {
         const double share = model.aquifer.skeleton_share[i];
@@ -139,12 +150,16 @@ WaterBudget step_budget(const Model& model, const SystemLayout& layout, const Gr
       } else {
         add(el_in, el_out, elastic);
       }
-      add(dr_in, dr_out, drainage);
+      add(dr_in, dr_out, release.drainage);
+      add(ire_in, ire_out, release.interbed_elastic);
+      add(ipe_in, ipe_out, release.interbed_inelastic);
     }
     budget[BudgetComponent::storage_skeleton] = {skel_in, skel_out};
     budget[BudgetComponent::storage_water] = {water_in, water_out};
     budget[BudgetComponent::storage_elastic] = {el_in, el_out};
     budget[BudgetComponent::storage_drainage] = {dr_in, dr_out};
+    budget[BudgetComponent::interbed_recoverable] = {ire_in, ire_out};
+    budget[BudgetComponent::interbed_permanent] = {ipe_in, ipe_out};
   }
 
   const std::vector<FeatureRef> features = list_features(model);

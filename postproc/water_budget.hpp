@@ -19,6 +19,8 @@ enum class BudgetComponent {
   storage_water,
   storage_drainage,
   storage_elastic,
+  interbed_recoverable,
+  interbed_permanent,
   fixed_head,
   well,
   recharge,
@@ -28,7 +30,7 @@ enum class BudgetComponent {
   evapotranspiration,
   leakage
 };
-inline constexpr std::size_t n_budget_components = 12;
+inline constexpr std::size_t n_budget_components = 14;
 
 /// Name of a component in the results, e.g. "storage_skeleton" or "well".
 std::string_view component_label(BudgetComponent c);
@@ -60,16 +62,19 @@ struct WaterBudget {
 };
 
 /// End-of-step rates of every component and feature for an accepted step.
-/// Steady steps have no storage terms; dt is then ignored.
+/// Steady steps have no storage terms; dt is then ignored. preconsolidation: the interbeds'
+/// preconsolidation heads at the step start (StepInfo::preconsolidation; empty without
+/// interbeds).
 WaterBudget step_budget(const Model& model, const SystemLayout& layout, std::size_t period,
                         bool steady, double dt, std::span<const double> head_old,
-                        std::span<const double> head_new);
+                        std::span<const double> head_new,
+                        std::span<const double> preconsolidation = {});
 
 /// The share of the cells a part owns (head_old and head_new must hold them and their
 /// neighbours): summed over every part, the budget of the whole grid.
 WaterBudget step_budget(const Model& model, const SystemLayout& layout, const GridPart& part,
                         std::size_t period, bool steady, double dt, CellValues head_old,
-                        CellValues head_new);
+                        CellValues head_new, CellValues preconsolidation);
 
 /// Replaces every rate of b (components, features, well shortfall) by its sum over the
 /// processes of a distributed run.

@@ -22,6 +22,8 @@ std::string_view storage_source_label(BudgetComponent c) {
     case BudgetComponent::storage_water:
     case BudgetComponent::storage_drainage:
     case BudgetComponent::storage_elastic:
+    case BudgetComponent::interbed_recoverable:
+    case BudgetComponent::interbed_permanent:
       return component_label(c);
     default:
       return "";
@@ -36,11 +38,15 @@ std::vector<BudgetComponent> storage_components(const Model& model) {
     out = {BudgetComponent::storage_elastic};
   if (model.aquifer.condition != Condition::confined)
     out.push_back(BudgetComponent::storage_drainage);
+  if (model.aquifer.interbeds) {
+    out.push_back(BudgetComponent::interbed_recoverable);
+    out.push_back(BudgetComponent::interbed_permanent);
+  }
   return out;
 }
 
 std::string_view source_group(std::string_view source) {
-  if (source.rfind("storage_", 0) == 0) return "storage";
+  if (source.rfind("storage_", 0) == 0 || source.rfind("interbed_", 0) == 0) return "storage";
   if (source == "river" || source == "drain") return "rivers and drains";
   if (source == "fixed_head" || source == "external_head" || source == "leakage")
     return "boundaries";
@@ -124,8 +130,8 @@ void PeriodVolumeObserver::initial_state(std::span<const double> head) {
 void PeriodVolumeObserver::step_done(const StepInfo& info, std::span<const double> head_old,
                                      std::span<const double> head_new) {
   if (periods.size() <= info.period) periods.resize(info.period + 1);
-  const WaterBudget rates =
-      step_budget(model_, layout_, info.period, info.steady, info.dt, head_old, head_new);
+  const WaterBudget rates = step_budget(model_, layout_, info.period, info.steady, info.dt,
+                                        head_old, head_new, info.preconsolidation);
   periods[info.period].add_scaled(rates, info.dt);
   head.assign(head_new.begin(), head_new.end());
 }

@@ -71,6 +71,11 @@ void FlowSystem::set_step(std::size_t period, bool steady, double dt,
   head_old_ = head_old;
 }
 
+void FlowSystem::set_preconsolidation(std::span<const double> preconsolidation) {
+  for (std::size_t u = 0; u < storage_.size(); ++u)
+    storage_[u].preconsolidation = preconsolidation[at(layout_.cell_of_unknown[u])];
+}
+
 template <bool Confined>
 void FlowSystem::assemble_cells(std::span<const double> head) {
   const int n = n_unknowns();

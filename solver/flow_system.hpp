@@ -23,6 +23,8 @@ class FlowSystem {
   /// Fixes the step: stresses of `period`, storage from head_old (per grid cell) over dt (T),
   /// or no storage when steady.
   void set_step(std::size_t period, bool steady, double dt, std::span<const double> head_old);
+  /// The interbeds' preconsolidation heads at the step start (L, per grid cell).
+  void set_preconsolidation(std::span<const double> preconsolidation);
 
   /// Evaluates the residual R (L3/T per unknown: face flows + stresses + storage release
   /// rate) and the matrix -dR/dh at head (per grid cell; fixed cells hold their heads).

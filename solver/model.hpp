@@ -40,6 +40,26 @@ inline double skeleton_share_of_storage(const Compressibility& c, double alpha, 
   return total > 0.0 ? alpha / total : 0.0;
 }
 
+/// Fine-grained interbeds within the aquifer that equilibrate with the cell's head within a
+/// step (no delay). Per-cell arrays have n_cells entries; docs/subsidence.md.
+struct Interbeds {
+  std::vector<double> thickness;          ///< L, total thickness of the beds in the cell
+  std::vector<double> elastic_storage;    ///< 1/L, Ske, elastic skeletal specific storage
+  std::vector<double> inelastic_storage;  ///< 1/L, Skv, inelastic skeletal specific storage
+  /// L, the initial preconsolidation head per cell; empty when given as an offset below the
+  /// initial head instead. A value above the initial head is lowered to it (the beds have
+  /// already been at that head).
+  std::vector<double> preconsolidation;
+  double preconsolidation_offset = 0.0;  ///< L, >= 0, used when preconsolidation is empty
+};
+
+/// The initial preconsolidation head of cell i (L) given its initial head (L).
+inline double initial_preconsolidation(const Interbeds& ib, std::size_t i, double initial_head) {
+  const double pc = ib.preconsolidation.empty() ? initial_head - ib.preconsolidation_offset
+                                                : ib.preconsolidation[i];
+  return pc < initial_head ? pc : initial_head;
+}
+
 struct Aquifer {
   Condition condition = Condition::confined;
   /// All per-cell arrays have n_cells entries in raster order (inactive cells included).
@@ -56,6 +76,7 @@ struct Aquifer {
   /// heads above it mean flooding or flowing artesian conditions).
   std::vector<double> land_surface;
   std::optional<Compressibility> compressibility;  ///< set on the compressibility route
+  std::optional<Interbeds> interbeds;              ///< set when the model has interbeds
   bool elastic_split() const { return !skeleton_share.empty(); }
 };
 

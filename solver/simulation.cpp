@@ -10,6 +10,7 @@
 #include "solver/flow_system.hpp"
 #include "solver/linear_solver.hpp"
 #include "solver/newton_solver.hpp"
+#include "solver/preconsolidation_heads.hpp"
 #include "solver/system_layout.hpp"
 #include "solver/time_loop.hpp"
 #include "solver/time_steps.hpp"
@@ -45,19 +46,25 @@ class SerialStepper {
     std::copy(head_.begin(), head_.end(), head_old_.begin());
     history_.start(period, steady, dt, head_, trial_);
     system_.set_step(period, steady, dt, head_old_);
+    if (preconsolidation_.active()) system_.set_preconsolidation(preconsolidation_.values());
     return solve_newton(system_, linear_, settings_, trial_, work_);
   }
   void accept(const StepInfo& info) {
     std::swap(head_, trial_);
-    observer_.step_done(info, head_old_, head_);
+    StepInfo told = info;
+    told.preconsolidation = preconsolidation_.values();
+    observer_.step_done(told, head_old_, head_);
+    preconsolidation_.lower(head_);
     history_.accepted(info.period, info.dt, head_old_);
   }
-  void resume(const StartState& start) {
+  void start_interbeds() { preconsolidation_.start(head_); }
+  bool resume(const StartState& start) {
     if (start.linear_start.size() == static_cast<std::size_t>(system_.n_unknowns()))
       work_.update = Eigen::Map<const Eigen::VectorXd>(
           start.linear_start.data(), static_cast<Eigen::Index>(start.linear_start.size()));
     if (start.step_in_period > 0)
       history_.resume_after(start.period, start.previous_head, start.previous_dt);
+    return preconsolidation_.resume(start.preconsolidation);
   }
   NewtonResult solve_initial_steady() {
     system_.set_step(0, true, 1.0, head_);
@@ -67,6 +74,8 @@ class SerialStepper {
   void checkpoint(std::size_t period, int step_in_period, double time, const RunResult& so_far) {
     StartState state = history_.checkpoint_state(period, step_in_period, time, head_, so_far);
     state.linear_start.assign(work_.update.data(), work_.update.data() + work_.update.size());
+    state.preconsolidation.assign(preconsolidation_.values().begin(),
+                                  preconsolidation_.values().end());
     options_.checkpoint(state);
   }
   RunResult finish(RunResult r) const {
@@ -88,6 +97,7 @@ class SerialStepper {
   const RunResult& base_;
   std::vector<double> head_old_, trial_;
   StepHistory history_{head_old_.size()};
+  PreconsolidationHeads preconsolidation_{model_, GridPart::whole(model_.grid)};
 };
 
 }  // namespace

@@ -22,6 +22,10 @@ struct StepInfo {
   int cutbacks = 0;              ///< halvings needed for this step
   double max_head_change = 0.0;  ///< L, last Newton update
   double max_imbalance = 0.0;    ///< -, largest cell imbalance over throughflow
+  /// L, the interbeds' preconsolidation heads at the start of the step, the same cells as the
+  /// heads given with it (NaN where inactive); empty without interbeds. Valid only during
+  /// step_done: a copy of a StepInfo kept afterwards must not read it.
+  std::span<const double> preconsolidation;
 };
 
 /// Receives the run's results as they are produced. Heads are per grid cell, NaN where
@@ -70,6 +74,8 @@ struct StartState {
   /// start of a period.
   std::vector<double> previous_head;
   double previous_dt = 0.0;
+  /// L per grid cell: the interbeds' preconsolidation heads (empty without interbeds).
+  std::vector<double> preconsolidation;
   RunResult so_far;  ///< counters of the run up to this point
 };
 

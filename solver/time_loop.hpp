@@ -8,7 +8,9 @@
 //   void period_done(std::size_t period);
 //   void checkpoint(std::size_t period, int step_in_period, double time, const RunResult& so_far);
 //   RunResult finish(RunResult r) const;     adds the linear solver's counters
-//   void resume(const StartState& start);    continues after a checkpoint (heads already set)
+//   bool resume(const StartState& start);    continues after a checkpoint (heads already set);
+//                                            false when its interbed state does not fit
+//   void start_interbeds();                  the initial heads are set: preconsolidation heads
 //   NewtonResult solve_initial_steady();     the initial steady state from the current heads
 #include <algorithm>
 #include <cmath>
@@ -217,7 +219,10 @@ RunResult run_from_start(const Model& model, const SystemLayout& layout, const G
     head = start->head;
     first_period = start->period;
     first_step = start->step_in_period;
-    stepper.resume(*start);
+    if (!stepper.resume(*start))
+      return stepper.finish(
+          mark_failed(result, start->period, 0, start->time,
+                      "the start state has no preconsolidation heads for this model's interbeds"));
   } else if (model.initial.steady) {
     steady_guess(model, layout, window, part);
     apply_fixed_heads(model, 0, window, part);
@@ -230,7 +235,10 @@ RunResult run_from_start(const Model& model, const SystemLayout& layout, const G
   } else {
     given_initial_heads(model, part, window);
   }
-  if (!start) observer.initial_state(head);
+  if (!start) {
+    stepper.start_interbeds();
+    observer.initial_state(head);
+  }
   return run_periods(model, stepper, result, first_period, first_step, checkpoint_every);
 }
 

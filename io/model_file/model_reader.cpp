@@ -29,14 +29,15 @@ namespace {
 void read_sections(ReaderContext& ctx, const toml::table& root, Model& model) {
   check_keys(ctx, root, "(top level)",
              {"model", "grid", "aquifer", "initial", "period", "well", "fixed_head", "recharge",
-              "river", "drain", "external_head", "evapotranspiration", "leakage", "observation",
-              "output", "solver"});
+              "river", "drain", "external_head", "evapotranspiration", "leakage", "interbeds",
+              "observation", "output", "solver"});
   read_model_section(ctx, root, model);
   // Without a usable grid nothing per cell is read; the other sections are still checked for
   // keys and scalar values.
   if (read_grid_shape(ctx, root)) read_active_mask(ctx, root, model);
   read_periods(ctx, root, model);
   read_aquifer(ctx, root, model);
+  read_interbeds(ctx, root, model);
   read_initial(ctx, root, model);
   read_fixed_heads(ctx, root, model);
   read_wells(ctx, root, model);

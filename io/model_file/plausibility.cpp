@@ -106,6 +106,36 @@ std::vector<PlausibilityWarning> plausibility_warnings(const Model& model) {
                                            "; check both elevations and their datum"});
     }
   }
+  // Interbeds: skeletal specific storage of fine-grained beds, elastic Ske about 1e-6 to
+  // 1e-4 1/m and inelastic Skv about 1e-5 to 1e-2 1/m, Skv larger than Ske (virgin
+  // compression exceeds recompression); from memory, ranges of the kind tabulated for
+  // aquifer-system clays in the subsidence literature (e.g. Galloway et al., 1999, USGS
+  // Circular 1182), not checked against a document at hand.
+  if (a.interbeds) {
+    const Interbeds& ib = *a.interbeds;
+    const double per_metre_in_model = metres_per_length_unit(model.length_unit);
+    const std::string per = " 1/" + model.length_unit;
+    check_range(out, "[interbeds].elastic_storage", "elastic skeletal specific storage of",
+                active_range(g, ib.elastic_storage), 1.0e-6 * per_metre_in_model,
+                1.0e-4 * per_metre_in_model, per);
+    check_range(out, "[interbeds].inelastic_storage", "inelastic skeletal specific storage of",
+                active_range(g, ib.inelastic_storage), 1.0e-5 * per_metre_in_model,
+                1.0e-2 * per_metre_in_model, per);
+    int smaller = 0;
+    for (int c = 0; c < g.n_cells(); ++c) {
+      const auto i = static_cast<std::size_t>(c);
+      if (g.is_active(CellIndex{c}) && ib.thickness[i] > 0.0 &&
+          ib.inelastic_storage[i] < ib.elastic_storage[i])
+        ++smaller;
+    }
+    if (smaller > 0)
+      out.push_back({"[interbeds].inelastic_storage",
+                     "inelastic skeletal specific storage below the elastic one in " +
+                         std::to_string(smaller) +
+                         " cells; fine-grained beds compact more on first loading than on "
+                         "reloading (from memory: Skv is commonly tens of times Ske), so check "
+                         "whether the two are swapped"});
+  }
   // Measured heads the report cannot compare: every measured time of a bore outside the run.
   double end = 0.0;
   for (const Period& p : model.periods) end += p.length;

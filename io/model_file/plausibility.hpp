@@ -17,7 +17,8 @@ struct PlausibilityWarning {
 /// Confined storativity outside 1e-5..1e-3, specific yield outside 0.01..0.35 and
 /// K outside 1e-4..1e4 m/d (in the model's units) over the active cells; a bore whose
 /// measured heads all lie outside the run; with a land surface, initial heads above it and an
-/// aquifer top above it.
+/// aquifer top above it; interbeds with Ske outside 1e-6..1e-4 1/m, Skv outside 1e-5..1e-2
+/// 1/m, or Skv below Ske.
 std::vector<PlausibilityWarning> plausibility_warnings(const Model& model);
 
 /// "in 12 active cells (largest 3.2 m at row 4, column 7; 2.9 m at ...)", for warnings.

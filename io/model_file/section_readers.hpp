@@ -19,6 +19,8 @@ bool read_grid_shape(ReaderContext& ctx, const toml::table& root);
 void read_active_mask(ReaderContext& ctx, const toml::table& root, Model& model);
 void read_periods(ReaderContext& ctx, const toml::table& root, Model& model);
 void read_aquifer(ReaderContext& ctx, const toml::table& root, Model& model);
+/// [interbeds] (after [aquifer], whose top and bottom bound the beds' thickness).
+void read_interbeds(ReaderContext& ctx, const toml::table& root, Model& model);
 void read_initial(ReaderContext& ctx, const toml::table& root, Model& model);
 void read_fixed_heads(ReaderContext& ctx, const toml::table& root, Model& model);
 void read_wells(ReaderContext& ctx, const toml::table& root, Model& model);

@@ -113,6 +113,19 @@ void aquifer_part(Report& r, const Model& m) {
   } else if (a.condition != Condition::water_table) {
     r.item("storage route", "specific storage given (budget component storage_elastic)");
   }
+  if (a.interbeds) {
+    const Interbeds& ib = *a.interbeds;
+    const std::string per = "1/" + m.length_unit;
+    r.item("interbeds (no delay)",
+           "thickness " + range_text(active_range(g, ib.thickness), m.length_unit) +
+               "; budget components interbed_recoverable, interbed_permanent");
+    r.item("  Ske, Skv", range_text(active_range(g, ib.elastic_storage), per) + "; " +
+                             range_text(active_range(g, ib.inelastic_storage), per));
+    r.item("  preconsolidation head",
+           ib.preconsolidation.empty()
+               ? g3(ib.preconsolidation_offset) + " " + m.length_unit + " below the initial head"
+               : range_text(active_range(g, ib.preconsolidation), m.length_unit));
+  }
 }
 
 /// Ranges of each zoned property, zone by zone (active cells only).

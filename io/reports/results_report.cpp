@@ -104,6 +104,8 @@ std::string plain_component(const std::string& c) {
       {"storage_water", "storage: water expansion"},
       {"storage_elastic", "storage: elastic release"},
       {"storage_drainage", "storage: draining pores"},
+      {"interbed_recoverable", "storage: interbeds, elastic"},
+      {"interbed_permanent", "storage: interbeds, permanent"},
       {"fixed_head", "fixed-head boundary"},
       {"well", "wells"},
       {"recharge", "recharge"},
@@ -236,7 +238,9 @@ void add_step_charts(HtmlReport& page, const CsvTable& steps, const CsvTable& ba
       {"storage_skeleton", "skeleton compression"},
       {"storage_water", "water expansion"},
       {"storage_elastic", "elastic (undivided)"},
-      {"storage_drainage", "drainage of pores"}};
+      {"storage_drainage", "drainage of pores"},
+      {"interbed_recoverable", "interbeds, elastic"},
+      {"interbed_permanent", "interbeds, permanent"}};
   for (const auto& [component, label] : mechanisms) {
     const auto found = series.find(component);
     if (found == series.end()) continue;

@@ -14,7 +14,8 @@ namespace {
 double storage_net_release(const WaterBudget& b) {
   double net = 0.0;
   for (auto c : {BudgetComponent::storage_skeleton, BudgetComponent::storage_water,
-                 BudgetComponent::storage_drainage, BudgetComponent::storage_elastic})
+                 BudgetComponent::storage_drainage, BudgetComponent::storage_elastic,
+                 BudgetComponent::interbed_recoverable, BudgetComponent::interbed_permanent})
     net += b[c].in - b[c].out;
   return net;
 }
@@ -41,20 +42,36 @@ std::string format_period_budget_table(const Model& model,
                      "#", "period", name_width, fmt::format("end ({})", model.time_unit),
                      clock ? fmt::format("  {:<10}", "end date") : "", "into aquifer",
                      "out of aquifer", "storage, net", "of it pores", "pumped", "imbalance");
+  const bool beds = model.aquifer.interbeds.has_value();
+  if (beds) {
+    out.pop_back();
+    out += fmt::format("  {:>11}  {:>11}\n", "beds, elast", "beds, lost");
+  }
   for (const auto& r : rows) {
     const WaterBudget& b = r.volumes;
     const std::string name = r.name.size() > name_width ? r.name.substr(0, name_width) : r.name;
     out += fmt::format(
-        "  {:>3}  {:<{}}  {:>10.4g}{}  {:>12}  {:>14}  {:>13}  {:>11}  {:>11}  {:>9.2e}%\n",
-        r.period, name, name_width, r.end,
+        "  {:>3}  {:<{}}  {:>10.4g}{}  {:>12}  {:>14}  {:>13}  {:>11}  {:>11}  {:>9.2e}%", r.period,
+        name, name_width, r.end,
         clock ? fmt::format("  {:<10}", clock->date_of(r.end).substr(0, 10)) : "",
         volume(b.total_in()), volume(b.total_out()), volume(storage_net_release(b)),
         volume(b[BudgetComponent::storage_drainage].in - b[BudgetComponent::storage_drainage].out),
         volume(b[BudgetComponent::well].out), b.imbalance_percent());
+    if (beds) {
+      const InOut& e = b[BudgetComponent::interbed_recoverable];
+      out += fmt::format("  {:>11}  {:>11}", volume(e.in - e.out),
+                         volume(b[BudgetComponent::interbed_permanent].in));
+    }
+    out += "\n";
   }
   out +=
       "  (storage, net: released minus taken into storage; of it pores: by draining pores at the "
       "water table)\n";
+  if (beds)
+    out +=
+        "  (beds, elast: net elastic release of the interbeds, recoverable; beds, lost: water "
+        "squeezed from the interbeds below their preconsolidation head, a permanent loss of "
+        "storage)\n";
   return out;
 }
 

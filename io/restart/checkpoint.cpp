@@ -46,7 +46,9 @@ template <class Fields, class F>
 void for_each_field(Fields& f, F visit) {
   for (auto* v : {&f.head, &f.drawdown, &f.saturated_thickness, &f.state, &f.storage_rate,
                   &f.storage_skeleton_rate, &f.storage_water_rate, &f.storage_elastic_rate,
-                  &f.storage_drainage_rate, &f.compaction, &f.flow_east, &f.flow_north})
+                  &f.storage_drainage_rate, &f.compaction, &f.flow_east, &f.flow_north,
+                  &f.interbed_elastic_compaction, &f.interbed_inelastic_compaction, &f.subsidence,
+                  &f.preconsolidation_head})
     visit(*v);
 }
 
@@ -195,6 +197,7 @@ std::string encode_checkpoint(const Checkpoint& c) {
   payload.put_vector(s.linear_start);
   payload.put_vector(s.previous_head);
   payload.put(s.previous_dt);
+  payload.put_vector(s.preconsolidation);
   put_run_counters(payload, s.so_far);
   put_recorder(payload, c.recorder);
 
@@ -221,8 +224,9 @@ Checkpoint decode_checkpoint(std::string_view bytes) {
     const auto version = r.get<std::uint32_t>();
     if (version != checkpoint_format_version)
       throw CheckpointError(
-          fmt::format("checkpoint format version {}; this program reads version {}", version,
-                      checkpoint_format_version));
+          fmt::format("checkpoint format version {}; this program reads version {} only "
+                      "(an older checkpoint cannot be resumed: run the model again from its start)",
+                      version, checkpoint_format_version));
     if (r.get<std::uint32_t>() != byte_order_mark)
       throw CheckpointError("checkpoint written on a machine of another byte order");
     Checkpoint c;
@@ -243,6 +247,7 @@ Checkpoint decode_checkpoint(std::string_view bytes) {
     c.state.linear_start = p.get_vector<double>();
     c.state.previous_head = p.get_vector<double>();
     c.state.previous_dt = p.get<double>();
+    c.state.preconsolidation = p.get_vector<double>();
     c.state.so_far = get_run_counters(p);
     c.recorder = get_recorder(p);
     if (!p.at_end()) throw CheckpointError("checkpoint file has unexpected trailing data");

@@ -26,7 +26,8 @@ class CheckpointError : public std::runtime_error {
 };
 
 inline constexpr std::string_view checkpoint_file_name = "checkpoint.aqck";
-inline constexpr std::uint32_t checkpoint_format_version = 3;
+inline constexpr std::uint32_t checkpoint_format_version =
+    4;  ///< 4: interbeds' preconsolidation heads
 
 /// FNV-1a fingerprints of the model file's bytes and of each file it read.
 struct InputFingerprint {

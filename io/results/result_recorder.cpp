@@ -100,8 +100,9 @@ void ResultRecorder::step_done(const StepInfo& info, std::span<const double> hea
   const auto start = Clock::now();
   if (!period_open_ || current_period_ != info.period) start_period_row(info.period);
 
-  WaterBudget rates = step_budget(model_, layout_, part_, info.period, info.steady, info.dt,
-                                  window(head_old), window(head_new));
+  WaterBudget rates =
+      step_budget(model_, layout_, part_, info.period, info.steady, info.dt, window(head_old),
+                  window(head_new), window(info.preconsolidation));
   reduce(rates);
   const double imbalance = std::abs(rates.imbalance_percent());
   stats_.max_abs_imbalance_percent = std::max(stats_.max_abs_imbalance_percent, imbalance);
@@ -126,7 +127,7 @@ void ResultRecorder::step_done(const StepInfo& info, std::span<const double> hea
   // Cell fields exist only for the field files; compaction accumulates inside them.
   if (model_.output.fields != FieldCadence::none)
     update_cell_fields(model_, layout_, part_, info.steady, info.dt, window(initial_head_),
-                       window(head_old), window(head_new), fields_);
+                       window(head_old), window(head_new), window(info.preconsolidation), fields_);
   std::vector<double> observed = sampler_.sample(window(head_new), part_);
   reduce(observed);
   for (std::size_t k = 0; k < observed.size(); ++k)

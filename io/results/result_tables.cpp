@@ -76,6 +76,10 @@ BudgetTableLayout budget_table_layout(const Model& model) {
     layout.components = {C::storage_elastic};
   if (model.aquifer.condition != Condition::confined)
     layout.components.push_back(C::storage_drainage);
+  if (model.aquifer.interbeds) {
+    layout.components.push_back(C::interbed_recoverable);
+    layout.components.push_back(C::interbed_permanent);
+  }
   std::vector<bool> present(n_budget_components, false);
   for (const FeatureRef& f : list_features(model))
     present[static_cast<std::size_t>(budget_component_of(f.kind))] = true;

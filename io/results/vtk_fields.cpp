@@ -207,6 +207,14 @@ void write_fields_vtr(const std::filesystem::path& path, const Model& model,
   add_cell_array(vtk_grid, grid, band, "flow_north", fields.flow_north);
   if (!fields.depth_to_water.empty())
     add_cell_array(vtk_grid, grid, band, "depth_to_water", fields.depth_to_water);
+  if (model.aquifer.interbeds) {
+    add_cell_array(vtk_grid, grid, band, "interbed_elastic_compaction",
+                   fields.interbed_elastic_compaction);
+    add_cell_array(vtk_grid, grid, band, "interbed_inelastic_compaction",
+                   fields.interbed_inelastic_compaction);
+    add_cell_array(vtk_grid, grid, band, "subsidence", fields.subsidence);
+    add_cell_array(vtk_grid, grid, band, "preconsolidation_head", fields.preconsolidation_head);
+  }
   vtk_grid->GetCellData()->SetActiveScalars("head");
 
   vtkNew<vtkDoubleArray> time_array;
@@ -270,9 +278,22 @@ void write_pvtr(const std::filesystem::path& path, const Model& model,
       "  <PRectilinearGrid WholeExtent=\"0 {} 0 {} 0 0\" GhostLevel=\"0\">\n"
       "    <PCellData Scalars=\"head\">\n",
       grid.n_cols(), grid.n_rows());
-  for (const char* name : {"head", "drawdown", "saturated_thickness", "state", "storage_rate",
-                           "storage_skeleton_rate", "storage_water_rate", "storage_elastic_rate",
-                           "storage_drainage_rate", "compaction", "flow_east", "flow_north"})
+  std::vector<const char*> names = {"head",
+                                    "drawdown",
+                                    "saturated_thickness",
+                                    "state",
+                                    "storage_rate",
+                                    "storage_skeleton_rate",
+                                    "storage_water_rate",
+                                    "storage_elastic_rate",
+                                    "storage_drainage_rate",
+                                    "compaction",
+                                    "flow_east",
+                                    "flow_north"};
+  if (model.aquifer.interbeds)
+    names.insert(names.end(), {"interbed_elastic_compaction", "interbed_inelastic_compaction",
+                               "subsidence", "preconsolidation_head"});
+  for (const char* name : names)
     fmt::format_to(std::back_inserter(text), "      <PDataArray type=\"{}\" Name=\"{}\"/>\n",
                    std::string_view(name) == "state" ? "Int32" : "Float64", name);
   if (!model.aquifer.land_surface.empty())

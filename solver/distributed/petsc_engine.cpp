@@ -17,6 +17,7 @@
 #include "solver/flow_system.hpp"
 #include "solver/linear_solver.hpp"
 #include "solver/newton_iteration.hpp"
+#include "solver/preconsolidation_heads.hpp"
 #include "solver/storage_function.hpp"
 #include "solver/stress_flows.hpp"
 #include "solver/system_layout.hpp"
@@ -220,6 +221,12 @@ struct DistributedEngine::Impl {
   }
 
   /// The held heads of the current iterate (ghost rows updated).
+  /// The interbeds' preconsolidation heads at the step start (L, per held cell).
+  void set_preconsolidation(std::span<const double> held) {
+    const auto offset = static_cast<std::size_t>(part.first_owned() - part.first_held());
+    for (std::size_t k = 0; k < storage.size(); ++k) storage[k].preconsolidation = held[offset + k];
+  }
+
   void update_ghosts() {
     check(DMGlobalToLocalBegin(da, head, INSERT_VALUES, head_local), "DMGlobalToLocal");
     check(DMGlobalToLocalEnd(da, head, INSERT_VALUES, head_local), "DMGlobalToLocal");
@@ -422,10 +429,12 @@ class DistributedStepper {
         base_(base),
         trial_(head) {}
 
-  void resume(const StartState& start) {
+  bool resume(const StartState& start) {
     if (start.step_in_period > 0)
       history_.resume_after(start.period, start.previous_head, start.previous_dt);
+    return preconsolidation_.resume(start.preconsolidation);
   }
+  void start_interbeds() { preconsolidation_.start(head_); }
   NewtonResult solve_initial_steady() { return newton_from(0, true, 1.0, head_); }
   void apply_fixed_heads(std::size_t period) {
     aquiledger::apply_fixed_heads(e_.model, period, CellWindow<double>(head_, e_.part.first_held()),
@@ -438,13 +447,19 @@ class DistributedStepper {
   }
   void accept(const StepInfo& info) {
     std::swap(head_, trial_);
-    observer_.step_done(info, e_.head_old, head_);
+    StepInfo told = info;
+    told.preconsolidation = preconsolidation_.values();
+    observer_.step_done(told, e_.head_old, head_);
+    preconsolidation_.lower(head_);
     history_.accepted(info.period, info.dt, e_.head_old);  // e_.head_old is set anew next step
   }
   void period_done(std::size_t period) { observer_.period_done(period); }
   /// Collective: every rank hands its rows' state to options.checkpoint at the same step.
   void checkpoint(std::size_t period, int step_in_period, double time, const RunResult& so_far) {
-    options_.checkpoint(history_.checkpoint_state(period, step_in_period, time, head_, so_far));
+    StartState state = history_.checkpoint_state(period, step_in_period, time, head_, so_far);
+    state.preconsolidation.assign(preconsolidation_.values().begin(),
+                                  preconsolidation_.values().end());
+    options_.checkpoint(state);
     e_.forget_preconditioner();
   }
   RunResult finish(RunResult r) const {
@@ -458,6 +473,7 @@ class DistributedStepper {
   /// Newton for a step of `period` of length dt from head_, started at x; the result in x.
   NewtonResult newton_from(std::size_t period, bool steady, double dt, std::vector<double>& x) {
     e_.head_old = head_;
+    if (preconsolidation_.active()) e_.set_preconsolidation(preconsolidation_.values());
     e_.period = period;
     e_.steady = steady;
     e_.dt = dt;
@@ -477,6 +493,7 @@ class DistributedStepper {
   const RunResult& base_;  ///< counters of the run before this call (a resumed run's)
   std::vector<double> trial_;
   StepHistory history_{trial_.size()};
+  PreconsolidationHeads preconsolidation_{e_.model, e_.part};
 };
 
 }  // namespace

@@ -32,6 +32,7 @@ Checkpoint sample() {
   c.state.linear_start = {1e-300, -2.5};
   c.state.previous_head = awkward;
   c.state.previous_dt = 0.1;
+  c.state.preconsolidation = {std::nan(""), 17.25, -0.0};
   c.state.so_far.steps = 15;
   c.state.so_far.newton_iterations = 61;
   c.state.so_far.cutbacks = 1;
@@ -70,6 +71,7 @@ TEST_CASE("a checkpoint reads back bit for bit", "[io][checkpoint]") {
   CHECK(same_bits(d.state.linear_start, c.state.linear_start));
   CHECK(same_bits(d.state.previous_head, c.state.previous_head));
   CHECK(d.state.previous_dt == c.state.previous_dt);
+  CHECK(same_bits(d.state.preconsolidation, c.state.preconsolidation));
   CHECK(d.state.so_far.steps == 15);
   CHECK(d.state.so_far.newton_iterations == 61);
   CHECK(same_bits(d.recorder.initial_head, c.recorder.initial_head));
@@ -115,4 +117,14 @@ TEST_CASE("a checkpoint of changed input files is named", "[io][checkpoint]") {
   file_changed.files[1].second ^= 1;
   CHECK(checkpoint_mismatch(saved, file_changed, "m.toml")->find("'/data/zones.txt' changed") !=
         std::string::npos);
+}
+
+TEST_CASE("a checkpoint of an older format version is refused, saying so", "[io][checkpoint]") {
+  // Version 3 had no preconsolidation heads: its state cannot continue a run with interbeds.
+  std::string bytes = encode_checkpoint(sample());
+  const std::uint32_t old = 3;
+  std::memcpy(bytes.data() + 8, &old, sizeof old);  // after the 8-byte magic
+  CHECK_THROWS_WITH(decode_checkpoint(bytes), Catch::Contains("format version 3") &&
+                                                  Catch::Contains("older checkpoint cannot be "
+                                                                  "resumed"));
 }

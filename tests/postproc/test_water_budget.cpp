@@ -2,6 +2,7 @@
 // compressibility route, fixed heads and features.
 #include <catch2/catch.hpp>
 #include <cmath>
+#include <iterator>
 
 #include "postproc/water_budget.hpp"
 #include "support/budget_observer.hpp"
@@ -10,11 +11,14 @@
 using namespace aquiledger;
 
 TEST_CASE("component labels and arithmetic follow the model format", "[budget]") {
-  // Component names listed in the model format contract ("Results", version 2).
+  // Component names listed in the model format contract ("Results", version 2), and the
+  // interbeds' two (docs/results.md) after the storage ones.
   const char* stems[] = {"storage_skeleton",
                          "storage_water",
                          "storage_drainage",
                          "storage_elastic",
+                         "interbed_recoverable",
+                         "interbed_permanent",
                          "fixed_head",
                          "well",
                          "recharge",
@@ -23,6 +27,7 @@ TEST_CASE("component labels and arithmetic follow the model format", "[budget]")
                          "external_head",
                          "evapotranspiration",
                          "leakage"};
+  static_assert(std::size(stems) == n_budget_components);
   for (std::size_t k = 0; k < n_budget_components; ++k)
     CHECK(component_label(static_cast<BudgetComponent>(k)) == stems[k]);
   WaterBudget b;

@@ -55,3 +55,54 @@ TEST_CASE("storage release rate: a falling head releases water by mechanism",
   CHECK(r.elastic == Approx(-s.elastic));
   CHECK(r.drainage == Approx(-s.drainage));
 }
+
+TEST_CASE("interbeds: elastic above the preconsolidation head, inelastic below",
+          "[storage_function][interbeds]") {
+  // No-delay interbeds (physics decisions, docs/subsidence.md): the beds give Ske b per unit
+  // decline of head above the preconsolidation head and Skv b below it (Terzaghi, 1925, one-
+  // dimensional consolidation; the preconsolidation head as the stress history's memory).
+  CellStorage s{Condition::confined, 1e-4, 0.0, 10.0, 0.0};
+  s.interbed_elastic = 2e-5 * 8.0;    // Ske b
+  s.interbed_inelastic = 1e-3 * 8.0;  // Skv b
+  s.preconsolidation = 40.0;
+  // Above pc: only the elastic part changes, by Ske b dh.
+  StoredWater d = stored_water_change(s, 45.0, 42.0);
+  CHECK(d.interbed_elastic == Approx(-2e-5 * 8.0 * 3.0));
+  CHECK(d.interbed_inelastic == 0.0);
+  // Across pc from above: Ske b down to pc, Skv b below it.
+  d = stored_water_change(s, 42.0, 37.0);
+  CHECK(d.interbed_elastic == Approx(-2e-5 * 8.0 * 2.0));
+  CHECK(d.interbed_inelastic == Approx(-1e-3 * 8.0 * 3.0));
+  CHECK(d.elastic == Approx(-1e-4 * 5.0));
+  // The change is W(h_new) - W(h_old) with the same pc (mass conservation within a step).
+  CHECK(d.total() == Approx(stored_water(s, 37.0).total() - stored_water(s, 42.0).total()));
+  // Slope: the elastic (upper) one at the kink, as at the top of a switching cell.
+  CHECK(stored_water_slope(s, 40.0) == Approx(1e-4 + 2e-5 * 8.0));
+  CHECK(stored_water_slope(s, 39.0) == Approx(1e-4 + 1e-3 * 8.0));
+  // The preconsolidation head only goes down.
+  CHECK(lowered_preconsolidation(40.0, 37.0) == 37.0);
+  CHECK(lowered_preconsolidation(40.0, 43.0) == 40.0);
+  // Release rates by mechanism, per unit area over dt = 2: a decline releases water.
+  const StorageRelease r = storage_release_rate(s, 1.0, 42.0, 37.0, 2.0);
+  CHECK(r.interbed_elastic == Approx(2e-5 * 8.0 * 2.0 / 2.0));
+  CHECK(r.interbed_inelastic == Approx(1e-3 * 8.0 * 3.0 / 2.0));
+}
+
+TEST_CASE("interbeds: the slope of W(h) against a central finite difference",
+          "[storage_function][interbeds]") {
+  CellStorage s{Condition::switching, 2e-4, 0.15, 30.0, 10.0};
+  s.interbed_elastic = 3e-5 * 5.0;
+  s.interbed_inelastic = 6e-4 * 5.0;
+  for (Condition c : {Condition::confined, Condition::water_table, Condition::switching})
+    for (double pc : {20.0, 30.0, 35.0}) {
+      s.condition = c;
+      s.preconsolidation = pc;
+      for (double h : {5.0, 12.0, 19.0, 21.0, 29.0, 31.0, 34.0, 36.0, 40.0}) {
+        const double fd =
+            (stored_water(s, h + fd_step).total() - stored_water(s, h - fd_step).total()) /
+            (2 * fd_step);
+        // As above: rounding of W ~ 3 over a difference 2e-6 leaves ~1e-9 absolute.
+        CHECK(stored_water_slope(s, h) == Approx(fd).margin(1e-8));
+      }
+    }
+}

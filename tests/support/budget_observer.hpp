@@ -23,8 +23,10 @@ class BudgetObserver : public SimulationObserver {
   void step_done(const StepInfo& info, std::span<const double> head_old,
                  std::span<const double> head_new) override {
     steps.push_back(info);
-    const WaterBudget b =
-        step_budget(model_, layout_, info.period, info.steady, info.dt, head_old, head_new);
+    steps.back().preconsolidation = {};  // valid only during this call
+    preconsolidation.emplace_back(info.preconsolidation.begin(), info.preconsolidation.end());
+    const WaterBudget b = step_budget(model_, layout_, info.period, info.steady, info.dt, head_old,
+                                      head_new, info.preconsolidation);
     const double d = b.imbalance_percent();
     max_imbalance = std::max(max_imbalance, std::abs(d));
     CHECK(std::abs(d) < 1e-6);
@@ -41,6 +43,7 @@ class BudgetObserver : public SimulationObserver {
   std::vector<StepInfo> steps;
   std::vector<WaterBudget> budgets;
   std::vector<std::vector<double>> heads;
+  std::vector<std::vector<double>> preconsolidation;  ///< L, at each step's start
   std::vector<double> last_head;
   std::vector<std::size_t> periods_done;
   WaterBudget cumulative;      ///< volumes (L3) since the start

@@ -100,6 +100,18 @@ inline void add_recharge(Model& m, std::vector<double> rates) {
   m.recharges.push_back(r);
 }
 
+/// Uniform no-delay interbeds of total thickness b (L), Ske and Skv (1/L), the initial
+/// preconsolidation head `offset` (L) below the initial head.
+inline void add_interbeds(Model& m, double b, double ske, double skv, double offset) {
+  const auto n = static_cast<std::size_t>(m.grid.n_cells());
+  Interbeds ib;
+  ib.thickness.assign(n, b);
+  ib.elastic_storage.assign(n, ske);
+  ib.inelastic_storage.assign(n, skv);
+  ib.preconsolidation_offset = offset;
+  m.aquifer.interbeds = ib;
+}
+
 inline std::vector<CellIndex> column_cells(const Model& m, int col) {
   std::vector<CellIndex> cells;
   for (int r = 0; r < m.grid.n_rows(); ++r) cells.push_back(m.grid.cell(r, col));

@@ -1,0 +1,42 @@
+#!/usr/bin/env bash
+# The invented subsidence case (cases/05-quillon-vale-subsidence): the clay interbeds release
+# water permanently only while the heads fall below every earlier head, never take it back,
+# and the budget closes; in the recovery years the heads rise and only the elastic part of
+# the beds takes water back (docs/subsidence.md).
+#   bash subsidence_case.sh <aquiledger> <source-dir>
+set -euo pipefail
+exe=${1:?usage: subsidence_case.sh <aquiledger> <source-dir>}
+src=${2:?usage: subsidence_case.sh <aquiledger> <source-dir>}
+out=$(mktemp -d)
+trap 'rm -rf "$out"' EXIT
+"$exe" run "$src/cases/05-quillon-vale-subsidence/model.toml" -o "$out/r" -q >/dev/null
+python3 - "$out/r" <<'PY'
+import csv, sys
+folder = sys.argv[1]
+rows = list(csv.DictReader(open(f"{folder}/budget_periods.csv")))
+def volume(period, component, column):
+    return sum(float(r[column]) for r in rows
+               if int(r["period"]) == period and r["component"] == component)
+# Periods: 1 steady, 2-4 dry years, 5-6 recovery years (model.toml).
+for p in range(2, 7):
+    # Permanent compaction is never undone: nothing goes back into the beds' inelastic part.
+    assert volume(p, "interbed_permanent", "out_of_aquifer") == 0.0, p
+for p in (2, 3, 4):  # the heads fall below every earlier head: permanent release
+    assert volume(p, "interbed_permanent", "into_aquifer") > 0.0, p
+for p in (5, 6):  # the heads recover: no permanent release
+    assert volume(p, "interbed_permanent", "into_aquifer") == 0.0, p
+# ... and the elastic part of the beds takes water back as they rise in the first year.
+assert volume(5, "interbed_recoverable", "out_of_aquifer") > 0.0
+# Budget closure at every step (model format contract: below 1e-6 percent).
+for r in csv.DictReader(open(f"{folder}/balance_steps.csv")):
+    assert abs(float(r["imbalance_percent"])) < 1e-6, r
+# The bore at the well field: lowest at the end of the dry years, higher after recovery.
+heads = {}
+for r in csv.DictReader(open(f"{folder}/observations.csv")):
+    if r["observation"] == "Sallow Cross bore":
+        heads[(int(r["period"]), int(r["step"]))] = float(r["head"])
+end_dry = max(k for k in heads if k[0] == 4)
+end_run = max(heads)
+assert heads[end_run] > heads[end_dry] + 1.0, (heads[end_dry], heads[end_run])
+PY
+echo "subsidence case: all checks passed"
