@@ -75,7 +75,8 @@ template <class T>
 void put(std::ofstream& out, const std::vector<T>& v) {
   const long size = static_cast<long>(v.size());
   out.write(reinterpret_cast<const char*>(&size), sizeof size);
-  out.write(reinterpret_cast<const char*>(v.data()), static_cast<std::streamsize>(size * sizeof(T)));
+  out.write(reinterpret_cast<const char*>(v.data()),
+            static_cast<std::streamsize>(size * sizeof(T)));
 }
 template <class T>
 void get(std::ifstream& in, std::vector<T>& v) {
@@ -120,7 +121,9 @@ struct Stop {};
 class Capture final : public SimulationObserver {
  public:
   explicit Capture(int step) : step_(step) {}
-  void initial_state(std::span<const double> head) override { now.assign(head.begin(), head.end()); }
+  void initial_state(std::span<const double> head) override {
+    now.assign(head.begin(), head.end());
+  }
   void step_done(const StepInfo& info, std::span<const double>,
                  std::span<const double> head) override {
     before = now;
@@ -154,8 +157,8 @@ int write_mode(double cells, bool switching, int step, const std::string& path) 
   system.set_step(0, false, capture.dt, capture.now);
   std::vector<double> start(capture.now.size());
   for (std::size_t i = 0; i < start.size(); ++i)
-    start[i] = std::isfinite(capture.now[i]) ? 2.0 * capture.now[i] - capture.before[i]
-                                             : capture.now[i];
+    start[i] =
+        std::isfinite(capture.now[i]) ? 2.0 * capture.now[i] - capture.before[i] : capture.now[i];
   system.assemble(start);
   const Eigen::SparseMatrix<double, Eigen::RowMajor, int> a = system.matrix();
   System s;
@@ -343,7 +346,7 @@ Outcome hypre_pfmg(const System& s, const std::string& krylov, double tol) {
   HYPRE_StructPFMGSetMaxIter(pfmg, 1);
   HYPRE_StructPFMGSetTol(pfmg, 0.0);
   HYPRE_StructPFMGSetZeroGuess(pfmg);
-  HYPRE_StructPFMGSetRAPType(pfmg, 0);  // Galerkin coarse operators
+  HYPRE_StructPFMGSetRAPType(pfmg, 0);    // Galerkin coarse operators
   HYPRE_StructPFMGSetRelaxType(pfmg, 2);  // red-black Gauss-Seidel (non-symmetric)
   HYPRE_StructPFMGSetNumPreRelax(pfmg, 1);
   HYPRE_StructPFMGSetNumPostRelax(pfmg, 1);
@@ -454,7 +457,8 @@ Outcome present(const System& s, const std::string& method, double tol) {
   std::vector<Eigen::Triplet<double>> t;
   t.reserve(s.value.size());
   for (int i = 0; i < s.n(); ++i)
-    for (int k = s.row_start[i]; k < s.row_start[i + 1]; ++k) t.emplace_back(i, s.column[k], s.value[k]);
+    for (int k = s.row_start[i]; k < s.row_start[i + 1]; ++k)
+      t.emplace_back(i, s.column[k], s.value[k]);
   r.setFromTriplets(t.begin(), t.end());
   const SparseMatrix a = r;
   std::unique_ptr<LinearSolver> solver = method == "umfpack"   ? make_umfpack_solver()
@@ -484,13 +488,20 @@ int main(int argc, char** argv) {
   int step = 3;
   for (int i = 1; i + 1 < argc; i += 2) {
     const std::string key = argv[i], value = argv[i + 1];
-    if (key == "--write") write_path = value;
-    else if (key == "--solve") solve_path = value;
-    else if (key == "--method") method = value;
-    else if (key == "--variant") variant = value;
-    else if (key == "--cells") cells = std::stod(value);
-    else if (key == "--tolerance") tol = std::stod(value);
-    else if (key == "--step") step = std::stoi(value);
+    if (key == "--write")
+      write_path = value;
+    else if (key == "--solve")
+      solve_path = value;
+    else if (key == "--method")
+      method = value;
+    else if (key == "--variant")
+      variant = value;
+    else if (key == "--cells")
+      cells = std::stod(value);
+    else if (key == "--tolerance")
+      tol = std::stod(value);
+    else if (key == "--step")
+      step = std::stoi(value);
     else {
       std::fprintf(stderr, "unknown option %s\n", key.c_str());
       return 64;

@@ -152,7 +152,7 @@ struct OutputSettings {
   bool head_arrays_at_period_ends = false;  ///< also at the end of every period
 };
 
-enum class LinearChoice { automatic, direct, pcg, bicgstab };
+enum class LinearChoice { automatic, direct, pcg, bicgstab, multigrid };
 
 struct SolverSettings {
   LinearChoice linear = LinearChoice::automatic;
