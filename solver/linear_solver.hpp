@@ -65,9 +65,10 @@ inline constexpr double cholmod_bytes_per_unknown = 1200.0;
 /// Without a memory figure, symmetric systems up to this size are factorised.
 inline constexpr int cholmod_auto_limit = 5'000'000;
 inline constexpr int umfpack_auto_limit = 300'000;
-/// Under linear = "auto", non-symmetric systems of any size go to the multigrid backend when
-/// it is built: measured faster per step than LU at 1e4 and 1e5 switching cells and than the
-/// kept-Cholesky BiCGSTAB at 1e6 (docs/performance.md).
+/// Under linear = "auto", non-symmetric systems from 1e4 unknowns go to the multigrid backend
+/// when it is built (linear_solver.cpp, multigrid_auto_from): measured faster per step than
+/// LU at 1e4 and 1e5 switching cells and than the kept-Cholesky BiCGSTAB at 1e6
+/// (docs/performance.md).
 
 std::unique_ptr<LinearSolver> make_cholmod_solver();
 /// Fill-reducing ordering of the Cholesky factorisation: CHOLMOD's own choice, or forced.
