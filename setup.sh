@@ -12,10 +12,12 @@ case "$what" in
   *) echo "usage: ./setup.sh demo|test" >&2; exit 64 ;;
 esac
 jobs=$(nproc 2>/dev/null || echo 2)
-# The demo is the plain build (no MPI); the tests also build and run the distributed engine.
+# The demo is the plain build (no MPI); the tests also build and run the distributed engine
+# and the multigrid linear solver (hypre).
 petsc=OFF
 if [[ $what == test ]]; then petsc=ON; fi
-cmake -S . -B build -DCMAKE_BUILD_TYPE=Release -DAQUILEDGER_WITH_PETSC=$petsc
+cmake -S . -B build -DCMAKE_BUILD_TYPE=Release -DAQUILEDGER_WITH_PETSC=$petsc \
+  -DAQUILEDGER_WITH_HYPRE=$petsc
 cmake --build build -j "$jobs"
 case "$what" in
   demo)

@@ -3,7 +3,7 @@
 // linear backend, next to a streaming floor measured on this machine in the same run.
 //
 //   basin_benchmark [--sizes 1e4,1e5,1e6,4e6] [--steps 30] [--variant both|confined|switching]
-//                   [--threads N] [--linear auto|direct|pcg|bicgstab] [--json FILE]
+//                   [--threads N] [--linear auto|direct|pcg|bicgstab|multigrid] [--json FILE]
 //                   [--face-thickness mean|upstream]
 // Each case runs in its own child process (own peak memory); --steps is per period.
 #include <fmt/format.h>
@@ -123,6 +123,7 @@ LinearChoice parse_linear(const std::string& v) {
   if (v == "direct") return LinearChoice::direct;
   if (v == "pcg") return LinearChoice::pcg;
   if (v == "bicgstab") return LinearChoice::bicgstab;
+  if (v == "multigrid") return LinearChoice::multigrid;
   return LinearChoice::automatic;
 }
 

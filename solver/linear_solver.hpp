@@ -3,8 +3,10 @@
 // sparse_direct.cpp, the only file that includes SuiteSparse headers) and Eigen's
 // preconditioned conjugate gradients and BiCGSTAB (iterative, in linear_solver.cpp).
 #include <Eigen/SparseCore>
+#include <cstdint>
 #include <memory>
 #include <string>
+#include <vector>
 
 #include "solver/flow_system.hpp"
 #include "solver/model.hpp"
@@ -63,6 +65,10 @@ inline constexpr double cholmod_bytes_per_unknown = 1200.0;
 /// Without a memory figure, symmetric systems up to this size are factorised.
 inline constexpr int cholmod_auto_limit = 5'000'000;
 inline constexpr int umfpack_auto_limit = 300'000;
+/// Under linear = "auto", non-symmetric systems from 1e4 unknowns go to the multigrid backend
+/// when it is built (linear_solver.cpp, multigrid_auto_from): measured faster per step than
+/// LU at 1e4 and 1e5 switching cells and than the kept-Cholesky BiCGSTAB at 1e6
+/// (docs/performance.md).
 
 std::unique_ptr<LinearSolver> make_cholmod_solver();
 /// Fill-reducing ordering of the Cholesky factorisation: CHOLMOD's own choice, or forced.
@@ -75,14 +81,37 @@ std::unique_ptr<LinearSolver> make_bicgstab_solver();
 /// while it works (non-symmetric upstream-weighted systems too large for LU).
 std::unique_ptr<LinearSolver> make_picard_krylov_solver();
 
+/// The structured grid behind the unknowns: n_rows x n_cols cells in raster order, the
+/// unknown of each (-1: none, a fixed or inactive cell).
+struct StructuredUnknowns {
+  int n_rows = 0;
+  int n_cols = 0;
+  std::vector<std::int32_t> unknown_of_cell;
+};
+/// True when the program was built with the multigrid backend (-DAQUILEDGER_WITH_HYPRE=ON,
+/// which defines AQUILEDGER_HAVE_MULTIGRID for every target linking the solver library).
+constexpr bool multigrid_available() {
+#ifdef AQUILEDGER_HAVE_MULTIGRID
+  return true;
+#else
+  return false;
+#endif
+}
+/// Krylov (conjugate gradients when symmetric, BiCGSTAB otherwise) preconditioned by
+/// structured-grid multigrid (solver/multigrid_solver.cpp); the preconditioner is kept across
+/// solves while it converges fast. Throws std::runtime_error when not built.
+std::unique_ptr<LinearSolver> make_multigrid_solver(const StructuredUnknowns& grid, bool symmetric);
+
 struct LinearSolverChoice {
   std::unique_ptr<LinearSolver> solver;
   std::string reason;  ///< one line: why this backend
 };
 
 /// The backend for a system of n_unknowns equations, symmetric or not, as the user asked,
-/// for a run that may use memory_bytes (0: not known).
+/// for a run that may use memory_bytes (0: not known). Without a grid (nullptr) the
+/// multigrid backend is not a candidate.
 LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int n_unknowns,
-                                        double memory_bytes = 0.0);
+                                        double memory_bytes = 0.0,
+                                        const StructuredUnknowns* grid = nullptr);
 
 }  // namespace aquiledger

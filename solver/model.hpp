@@ -178,7 +178,7 @@ struct OutputSettings {
   bool geotiff = false;
 };
 
-enum class LinearChoice { automatic, direct, pcg, bicgstab };
+enum class LinearChoice { automatic, direct, pcg, bicgstab, multigrid };
 
 struct SolverSettings {
   LinearChoice linear = LinearChoice::automatic;

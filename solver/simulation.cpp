@@ -182,8 +182,9 @@ RunResult run_simulation(const Model& model, SimulationObserver& observer,
   omp_set_num_threads(model.solver.threads > 0 ? model.solver.threads : omp_get_num_procs());
   const SystemLayout layout = make_system_layout(model);
   FlowSystem system(model, layout);
-  LinearSolverChoice choice = choose_linear_solver(model.solver.linear, system.symmetric(),
-                                                   system.n_unknowns(), options.memory_bytes);
+  const StructuredUnknowns grid{model.grid.n_rows(), model.grid.n_cols(), layout.unknown_of_cell};
+  LinearSolverChoice choice = choose_linear_solver(
+      model.solver.linear, system.symmetric(), system.n_unknowns(), options.memory_bytes, &grid);
   LinearSolver& linear = *choice.solver;
   const StartState* start = options.start ? &*options.start : nullptr;
   RunResult result = starting_result(start, linear.name(), choice.reason);

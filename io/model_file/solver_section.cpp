@@ -9,6 +9,7 @@
 #include "io/model_file/memory_guard.hpp"
 #include "io/model_file/section_readers.hpp"
 #include "io/model_file/toml_access.hpp"
+#include "solver/linear_solver.hpp"
 
 namespace aquiledger {
 
@@ -20,11 +21,18 @@ void read_solver(ReaderContext& ctx, const toml::table& root, Model& model) {
              {"linear", "head_tolerance", "flow_tolerance", "max_iterations", "max_cutbacks",
               "threads", "face_thickness"});
   SolverSettings& s = model.solver;
-  if (auto l = read_choice(ctx, *t, "linear", path, {"auto", "direct", "pcg", "bicgstab"}))
-    s.linear = *l == "direct"     ? LinearChoice::direct
-               : *l == "pcg"      ? LinearChoice::pcg
-               : *l == "bicgstab" ? LinearChoice::bicgstab
-                                  : LinearChoice::automatic;
+  if (auto l = read_choice(ctx, *t, "linear", path,
+                           {"auto", "direct", "pcg", "bicgstab", "multigrid"})) {
+    s.linear = *l == "direct"      ? LinearChoice::direct
+               : *l == "pcg"       ? LinearChoice::pcg
+               : *l == "bicgstab"  ? LinearChoice::bicgstab
+               : *l == "multigrid" ? LinearChoice::multigrid
+                                   : LinearChoice::automatic;
+    if (s.linear == LinearChoice::multigrid && !multigrid_available())
+      ctx.error(*t->get("linear"), key_path(path, "linear"),
+                "\"multigrid\" needs a program built with -DAQUILEDGER_WITH_HYPRE=ON; this one "
+                "was built without it (use \"auto\")");
+  }
   if (auto f = read_choice(ctx, *t, "face_thickness", path, {"mean", "upstream"}))
     s.face_thickness = *f == "upstream" ? FaceThickness::upstream : FaceThickness::mean;
   auto positive = [&](std::string_view key, double& into, const std::string& unit) {

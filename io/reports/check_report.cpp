@@ -273,7 +273,7 @@ void settings_part(Report& r, const Model& m) {
     const std::string ends = m.output.head_arrays_at_period_ends ? "every period end" : "";
     r.item("head arrays", ends + (!ends.empty() && !times.empty() ? "; " : "") + times);
   }
-  const char* linear[] = {"auto", "direct", "pcg", "bicgstab"};
+  const char* linear[] = {"auto", "direct", "pcg", "bicgstab", "multigrid"};
   r.item("linear solver", linear[static_cast<int>(m.solver.linear)]);
   if (m.aquifer.condition != Condition::confined)
     r.item("face thickness",
