@@ -33,7 +33,9 @@ sources=(
 # __builtin_unreachable, reached by its Unicode white-space table for a non-ASCII character
 # right after a value (e.g. "x = 1" followed by a Latin-1 letter). Our code uses neither.
 flags=(-std=c++20 -O2 -g -fno-omit-frame-pointer -fsanitize=fuzzer-no-link,address,undefined
-       -fno-sanitize=unreachable -fno-sanitize-recover=undefined -DTOML_HEADER_ONLY=1 "-DTOML_ASSERT(expr)=static_assert(true)" -I"$source_dir")
+       -fno-sanitize=unreachable -fno-sanitize-recover=undefined -DTOML_HEADER_ONLY=1 "-DTOML_ASSERT(expr)=static_assert(true)" -I"$source_dir"
+       -I/usr/include/eigen3 -I/usr/include/gdal)
+# (Eigen: the solver settings' reader names the linear solvers; GDAL: the raster reader.)
 # New flags rebuild everything.
 if [[ "$(cat "$build/flags" 2>/dev/null)" != "${flags[*]}" ]]; then
   rm -f "$build"/obj/*.o
@@ -52,7 +54,7 @@ export cxx build source_dir
 export flags_string="${flags[*]}"
 objects=$(printf '%s\n' "${sources[@]}" |
   xargs -P 2 -I{} bash -c 'flags=($flags_string); compile {}')
-"$cxx" -fsanitize=fuzzer,address,undefined $objects -lfmt -o "$build/fuzz_model_reader"
+"$cxx" -fsanitize=fuzzer,address,undefined $objects -lfmt -lgdal -o "$build/fuzz_model_reader"
 
 # Seeds: every model of the project, each marked with its folder; the folders themselves are
 # copied, so the fuzzer reads (never writes) copies of the array files.
