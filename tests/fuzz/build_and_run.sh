@@ -25,6 +25,7 @@ mapfile -t reader_sources < <(cd "$source_dir" && ls io/model_file/*.cpp | grep 
 sources=(
   "${reader_sources[@]}" io/files/input_file_guard.cpp io/files/calendar.cpp
   io/files/csv_table.cpp postproc/land_surface.cpp mesh/rectilinear_grid.cpp
+  mesh/raster_resampling.cpp
   mesh/polyline_crossing.cpp tests/fuzz/fuzz_model_reader.cpp
 )
 # Two checks are off because they fire inside TOML++ 3.3 (Debian's), not in our code, on
