@@ -42,6 +42,11 @@ std::vector<std::string> CsvTable::texts(const std::string& name) const {
   return out;
 }
 
+std::string trimmed_cell(const std::string& cell) {
+  const auto b = cell.find_first_not_of(" \t\r"), e = cell.find_last_not_of(" \t\r");
+  return b == std::string::npos ? std::string() : cell.substr(b, e - b + 1);
+}
+
 CsvTable parse_csv(const std::string& text) {
   std::vector<std::vector<std::string>> records;
   std::vector<int> lines;  // file line where each record starts

@@ -21,6 +21,9 @@ struct CsvTable {
   std::vector<std::string> texts(const std::string& name) const;
 };
 
+/// The cell text without leading and trailing blanks (spaces, tabs, carriage returns).
+std::string trimmed_cell(const std::string& cell);
+
 /// Parses CSV text whose first line is the header.
 CsvTable parse_csv(const std::string& text);
 

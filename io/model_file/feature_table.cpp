@@ -10,15 +10,6 @@
 
 namespace aquiledger {
 
-namespace {
-
-std::string trimmed(const std::string& s) {
-  const auto b = s.find_first_not_of(" \t\r"), e = s.find_last_not_of(" \t\r");
-  return b == std::string::npos ? std::string() : s.substr(b, e - b + 1);
-}
-
-}  // namespace
-
 std::optional<std::vector<FeatureTableRow>> read_feature_table(
     ReaderContext& ctx, const toml::table& entry, const std::string& path,
     std::initializer_list<std::string_view> optional_columns, std::vector<std::string>& seen) {
@@ -40,7 +31,7 @@ std::optional<std::vector<FeatureTableRow>> read_feature_table(
     return std::nullopt;
   }
   std::vector<std::string> header;
-  for (const auto& h : table.header) header.push_back(trimmed(h));
+  for (const auto& h : table.header) header.push_back(trimmed_cell(h));
   auto column = [&](std::string_view wanted) -> std::optional<std::size_t> {
     auto it = std::find(header.begin(), header.end(), wanted);
     if (it == header.end()) return std::nullopt;
@@ -82,7 +73,7 @@ std::optional<std::vector<FeatureTableRow>> read_feature_table(
     row.at = {file, table.row_lines[r], 0};
     auto cell_of = [&](std::string_view col) {
       const auto c = column(col);
-      return c && *c < cells.size() ? trimmed(cells[*c]) : std::string();
+      return c && *c < cells.size() ? trimmed_cell(cells[*c]) : std::string();
     };
     auto fail = [&](std::string_view col, const std::string& why) {
       ctx.error(row.at, key, "column '" + std::string(col) + "': " + why);

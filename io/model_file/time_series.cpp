@@ -16,11 +16,6 @@ namespace aquiledger {
 
 namespace {
 
-std::string trimmed(const std::string& s) {
-  const auto b = s.find_first_not_of(" \t\r"), e = s.find_last_not_of(" \t\r");
-  return b == std::string::npos ? std::string() : s.substr(b, e - b + 1);
-}
-
 std::shared_ptr<const SeriesFile> read_series(ReaderContext& ctx, const std::filesystem::path& file,
                                               const SourceSpot& at, const std::string& key) {
   if (auto refusal = input_file_refusal(file, max_measured_file_bytes)) {
@@ -42,7 +37,7 @@ std::shared_ptr<const SeriesFile> read_series(ReaderContext& ctx, const std::fil
   }
   auto series = std::make_shared<SeriesFile>();
   series->file = file;
-  const std::string first = trimmed(table.header[0]);
+  const std::string first = trimmed_cell(table.header[0]);
   const bool dates = first == "date";
   if (!dates && first != "time") {
     ctx.error(head, key,
@@ -56,7 +51,7 @@ std::shared_ptr<const SeriesFile> read_series(ReaderContext& ctx, const std::fil
     return nullptr;
   }
   for (std::size_t c = 1; c < table.header.size(); ++c) {
-    std::string name = trimmed(table.header[c]);
+    std::string name = trimmed_cell(table.header[c]);
     if (name.empty() ||
         std::find(series->columns.begin(), series->columns.end(), name) != series->columns.end()) {
       ctx.error(head, key,
@@ -77,7 +72,7 @@ std::shared_ptr<const SeriesFile> read_series(ReaderContext& ctx, const std::fil
                     std::to_string(table.header.size()));
       continue;
     }
-    const std::string when = trimmed(row[0]);
+    const std::string when = trimmed_cell(row[0]);
     std::optional<double> t;
     if (dates) {
       if (auto seconds = parse_calendar_time(when)) t = ctx.clock->model_time(*seconds);
@@ -100,7 +95,7 @@ std::shared_ptr<const SeriesFile> read_series(ReaderContext& ctx, const std::fil
     series->time.push_back(*t);
     series->line.push_back(table.row_lines[r]);
     for (std::size_t c = 1; c < row.size(); ++c) {
-      const std::string cell = trimmed(row[c]);
+      const std::string cell = trimmed_cell(row[c]);
       double v = std::numeric_limits<double>::quiet_NaN();
       if (!cell.empty()) {
         auto parsed = parse_value(cell);

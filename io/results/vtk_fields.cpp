@@ -182,6 +182,39 @@ std::string xml_escaped(std::string_view text) {
   return out;
 }
 
+/// A cell array of the field files: its name and the CellFields member holding it (null for
+/// `state`, written as Int32 from its own member).
+struct FieldArray {
+  const char* name;
+  std::vector<double> CellFields::*values;
+};
+
+/// Every cell array of a field file of this model, in file order: the one list the pieces
+/// (.vtr) and the index of a distributed set (.pvtr) both follow.
+std::vector<FieldArray> field_arrays(const Model& model) {
+  std::vector<FieldArray> arrays = {{"head", &CellFields::head},
+                                    {"drawdown", &CellFields::drawdown},
+                                    {"saturated_thickness", &CellFields::saturated_thickness},
+                                    {"state", nullptr},
+                                    {"storage_rate", &CellFields::storage_rate},
+                                    {"storage_skeleton_rate", &CellFields::storage_skeleton_rate},
+                                    {"storage_water_rate", &CellFields::storage_water_rate},
+                                    {"storage_elastic_rate", &CellFields::storage_elastic_rate},
+                                    {"storage_drainage_rate", &CellFields::storage_drainage_rate},
+                                    {"compaction", &CellFields::compaction},
+                                    {"flow_east", &CellFields::flow_east},
+                                    {"flow_north", &CellFields::flow_north}};
+  if (!model.aquifer.land_surface.empty())
+    arrays.push_back({"depth_to_water", &CellFields::depth_to_water});
+  if (model.aquifer.interbeds)
+    arrays.insert(arrays.end(),
+                  {{"interbed_elastic_compaction", &CellFields::interbed_elastic_compaction},
+                   {"interbed_inelastic_compaction", &CellFields::interbed_inelastic_compaction},
+                   {"subsidence", &CellFields::subsidence},
+                   {"preconsolidation_head", &CellFields::preconsolidation_head}});
+  return arrays;
+}
+
 }  // namespace
 
 void write_fields_vtr(const std::filesystem::path& path, const Model& model,
@@ -193,27 +226,11 @@ void write_fields_vtr(const std::filesystem::path& path, const Model& model,
                       const CellFields& fields, double time, RowBand band) {
   const RectilinearGrid& grid = model.grid;
   auto vtk_grid = make_grid(grid, band);
-  add_cell_array(vtk_grid, grid, band, "head", fields.head);
-  add_cell_array(vtk_grid, grid, band, "drawdown", fields.drawdown);
-  add_cell_array(vtk_grid, grid, band, "saturated_thickness", fields.saturated_thickness);
-  add_state_array(vtk_grid, grid, band, fields.state);
-  add_cell_array(vtk_grid, grid, band, "storage_rate", fields.storage_rate);
-  add_cell_array(vtk_grid, grid, band, "storage_skeleton_rate", fields.storage_skeleton_rate);
-  add_cell_array(vtk_grid, grid, band, "storage_water_rate", fields.storage_water_rate);
-  add_cell_array(vtk_grid, grid, band, "storage_elastic_rate", fields.storage_elastic_rate);
-  add_cell_array(vtk_grid, grid, band, "storage_drainage_rate", fields.storage_drainage_rate);
-  add_cell_array(vtk_grid, grid, band, "compaction", fields.compaction);
-  add_cell_array(vtk_grid, grid, band, "flow_east", fields.flow_east);
-  add_cell_array(vtk_grid, grid, band, "flow_north", fields.flow_north);
-  if (!fields.depth_to_water.empty())
-    add_cell_array(vtk_grid, grid, band, "depth_to_water", fields.depth_to_water);
-  if (model.aquifer.interbeds) {
-    add_cell_array(vtk_grid, grid, band, "interbed_elastic_compaction",
-                   fields.interbed_elastic_compaction);
-    add_cell_array(vtk_grid, grid, band, "interbed_inelastic_compaction",
-                   fields.interbed_inelastic_compaction);
-    add_cell_array(vtk_grid, grid, band, "subsidence", fields.subsidence);
-    add_cell_array(vtk_grid, grid, band, "preconsolidation_head", fields.preconsolidation_head);
+  for (const FieldArray& a : field_arrays(model)) {
+    if (a.values)
+      add_cell_array(vtk_grid, grid, band, a.name, fields.*a.values);
+    else
+      add_state_array(vtk_grid, grid, band, fields.state);
   }
   vtk_grid->GetCellData()->SetActiveScalars("head");
 
@@ -278,26 +295,9 @@ void write_pvtr(const std::filesystem::path& path, const Model& model,
       "  <PRectilinearGrid WholeExtent=\"0 {} 0 {} 0 0\" GhostLevel=\"0\">\n"
       "    <PCellData Scalars=\"head\">\n",
       grid.n_cols(), grid.n_rows());
-  std::vector<const char*> names = {"head",
-                                    "drawdown",
-                                    "saturated_thickness",
-                                    "state",
-                                    "storage_rate",
-                                    "storage_skeleton_rate",
-                                    "storage_water_rate",
-                                    "storage_elastic_rate",
-                                    "storage_drainage_rate",
-                                    "compaction",
-                                    "flow_east",
-                                    "flow_north"};
-  if (model.aquifer.interbeds)
-    names.insert(names.end(), {"interbed_elastic_compaction", "interbed_inelastic_compaction",
-                               "subsidence", "preconsolidation_head"});
-  for (const char* name : names)
+  for (const FieldArray& a : field_arrays(model))
     fmt::format_to(std::back_inserter(text), "      <PDataArray type=\"{}\" Name=\"{}\"/>\n",
-                   std::string_view(name) == "state" ? "Int32" : "Float64", name);
-  if (!model.aquifer.land_surface.empty())
-    text += "      <PDataArray type=\"Float64\" Name=\"depth_to_water\"/>\n";
+                   a.values ? "Float64" : "Int32", a.name);
   fmt::format_to(std::back_inserter(text), "      <PDataArray type=\"UInt8\" Name=\"{}\"/>\n",
                  vtkDataSetAttributes::GhostArrayName());
   text +=
