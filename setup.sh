@@ -16,8 +16,9 @@ jobs=$(nproc 2>/dev/null || echo 2)
 # and the multigrid linear solver (hypre).
 petsc=OFF
 if [[ $what == test ]]; then petsc=ON; fi
+# A unity build (16 sources compiled as one): about 40 % less compiler time (DEVELOPERS.md).
 cmake -S . -B build -DCMAKE_BUILD_TYPE=Release -DAQUILEDGER_WITH_PETSC=$petsc \
-  -DAQUILEDGER_WITH_HYPRE=$petsc
+  -DAQUILEDGER_WITH_HYPRE=$petsc -DCMAKE_UNITY_BUILD=ON -DCMAKE_UNITY_BUILD_BATCH_SIZE=16
 cmake --build build -j "$jobs"
 case "$what" in
   demo)
