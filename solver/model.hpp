@@ -221,6 +221,11 @@ struct Model {
   std::vector<Evapotranspiration> evapotranspiration;
   std::optional<Leakage> leakage;
   std::vector<Observation> observations;
+  /// [[subsidence_point]]: points where the sinking of the ground is followed through the run
+  /// (as an extensometer or a levelled benchmark would; docs/subsidence.md). Placed as bores
+  /// are; their measured values are subsidence (L, positive = the ground has sunk since time
+  /// 0), held in MeasuredHead::head.
+  std::vector<Observation> subsidence_points;
   OutputSettings output;
   SolverSettings solver;
   std::vector<ZoneMap> zone_maps;     ///< aquifer properties given by zones (reports only)

@@ -30,7 +30,7 @@ void read_sections(ReaderContext& ctx, const toml::table& root, Model& model) {
   check_keys(ctx, root, "(top level)",
              {"model", "grid", "aquifer", "initial", "period", "well", "fixed_head", "recharge",
               "river", "drain", "external_head", "evapotranspiration", "leakage", "interbeds",
-              "observation", "output", "solver"});
+              "observation", "subsidence_point", "output", "solver"});
   read_model_section(ctx, root, model);
   // Without a usable grid nothing per cell is read; the other sections are still checked for
   // keys and scalar values.
@@ -48,6 +48,7 @@ void read_sections(ReaderContext& ctx, const toml::table& root, Model& model) {
   read_evapotranspiration(ctx, root, model);
   read_leakage(ctx, root, model);
   read_observations(ctx, root, model);
+  read_subsidence_points(ctx, root, model);
   read_output(ctx, root, model);
   read_solver(ctx, root, model);
 }
@@ -58,8 +59,9 @@ ReadResult read_parsed(ReaderContext& ctx, const toml::table& root) {
   read_sections(ctx, root, model);
   for (const auto& [file, source] : ctx.array_cache) model.input_files.push_back(file);
   for (const auto& [file, series] : ctx.series_cache) model.input_files.push_back(file);
-  for (const Observation& o : model.observations)
-    if (!o.measured_file.empty()) model.input_files.push_back(o.measured_file);
+  for (const auto* points : {&model.observations, &model.subsidence_points})
+    for (const Observation& o : *points)
+      if (!o.measured_file.empty()) model.input_files.push_back(o.measured_file);
   model.input_files.insert(model.input_files.end(), ctx.other_inputs.begin(),
                            ctx.other_inputs.end());
   std::sort(model.input_files.begin(), model.input_files.end());

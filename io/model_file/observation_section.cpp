@@ -1,4 +1,5 @@
-// [[observation]]: bores at (x, y) with optional measured heads (a CSV of time, head).
+// [[observation]]: bores at (x, y) with optional measured heads (a CSV of time, head);
+// [[subsidence_point]]: points placed the same way with optional measured subsidence.
 #include <algorithm>
 #include <cmath>
 #include <fstream>
@@ -17,19 +18,29 @@ namespace aquiledger {
 
 namespace {
 
-/// time,head rows; a first line that is not numbers is a header.
+/// What a measured file holds: heads at bores, or subsidence at subsidence points.
+struct MeasuredKind {
+  const char* value;  ///< the second column's name: "head" or "subsidence"
+  const char* file;   ///< in messages: "measured-head file"
+};
+constexpr MeasuredKind measured_heads{"head", "measured-head file"};
+constexpr MeasuredKind measured_subsidence{"subsidence", "measured-subsidence file"};
+
+/// time,value rows; a first line that is not numbers is a header.
 std::vector<MeasuredHead> read_measured(ReaderContext& ctx, const std::filesystem::path& file,
-                                        const SourceSpot& at, const std::string& key) {
+                                        const SourceSpot& at, const std::string& key,
+                                        const MeasuredKind& kind = measured_heads) {
   std::vector<MeasuredHead> rows;
+  const std::string value = kind.value;
   if (auto refusal = input_file_refusal(file, max_measured_file_bytes)) {
-    ctx.error(at, key, "measured-head file " + *refusal);
+    ctx.error(at, key, std::string(kind.file) + " " + *refusal);
     return rows;
   }
   std::ifstream in(file);
   if (!in) {
     ctx.error(at, key,
-              "cannot open measured-head file '" + file.string() +
-                  "' (expected a CSV with columns time,head)");
+              "cannot open " + std::string(kind.file) + " '" + file.string() +
+                  "' (expected a CSV with columns time," + value + ")");
     return rows;
   }
   std::string line;
@@ -61,16 +72,50 @@ std::vector<MeasuredHead> read_measured(ReaderContext& ctx, const std::filesyste
                     ? "'" + cells[0] +
                           "' is a date: give [model].start_date (the date of model time 0) to "
                           "measure times by dates"
-                    : "expected two numbers time,head (" + ctx.time_unit + ", " + ctx.length_unit +
-                          "; the time may be a date YYYY-MM-DD" +
+                    : "expected two numbers time," + value + " (" + ctx.time_unit + ", " +
+                          ctx.length_unit + "; the time may be a date YYYY-MM-DD" +
                           (ctx.clock ? "" : " with [model].start_date") + "), found '" + line +
                           "'");
       continue;
     }
     rows.push_back({*time, *head});
   }
-  if (rows.empty()) ctx.error(SourceSpot{file, 0, 0}, key, "no time,head rows found");
+  if (rows.empty()) ctx.error(SourceSpot{file, 0, 0}, key, "no time," + value + " rows found");
   return rows;
+}
+
+/// x, y (inside an active cell) and an optional measured file of one point; false when the
+/// point cannot be placed (the errors are reported).
+bool read_point(ReaderContext& ctx, const toml::table& t, const std::string& path,
+                const MeasuredKind& kind, Observation& o) {
+  auto x = read_number(ctx, t, "x", path, true);
+  auto y = read_number(ctx, t, "y", path, true);
+  auto measured = read_string(ctx, t, "measured", path, false);
+  if (!x || !y || !ctx.grid) return false;
+  o.x = *x;
+  o.y = *y;
+  const auto cell = ctx.grid->locate(*x, *y);
+  const std::string where = "point (" + show_number(*x) + ", " + show_number(*y) + ")";
+  if (!cell) {
+    ctx.error(*t.get("x"), path + ".x",
+              where + " lies outside the grid (x " + show_number(ctx.grid->x_min()) + ".." +
+                  show_number(ctx.grid->x_max()) + ", y " + show_number(ctx.grid->y_min()) + ".." +
+                  show_number(ctx.grid->y_max()) + " " + ctx.length_unit + ")");
+    return false;
+  }
+  if (!ctx.grid->is_active(*cell)) {
+    ctx.error(*t.get("x"), path + ".x",
+              where + " lies in an inactive cell (" +
+                  describe_cell(ctx.grid->n_cols(), cell->value) + ")");
+    return false;
+  }
+  o.cell = *cell;
+  if (measured) {
+    o.measured_file = ctx.resolve(*measured);
+    o.measured =
+        read_measured(ctx, o.measured_file, ctx.spot(*t.get("measured")), path + ".measured", kind);
+  }
+  return true;
 }
 
 }  // namespace
@@ -153,34 +198,24 @@ void read_observations(ReaderContext& ctx, const toml::table& root, Model& model
     o.name =
         read_string(ctx, t, "name", path, false).value_or("observation " + std::to_string(i + 1));
     check_unique_name(ctx, t, path, o.name, names);
-    auto x = read_number(ctx, t, "x", path, true);
-    auto y = read_number(ctx, t, "y", path, true);
-    auto measured = read_string(ctx, t, "measured", path, false);
-    if (!x || !y || !ctx.grid) continue;
-    o.x = *x;
-    o.y = *y;
-    const auto cell = ctx.grid->locate(*x, *y);
-    const std::string where = "point (" + show_number(*x) + ", " + show_number(*y) + ")";
-    if (!cell) {
-      ctx.error(*t.get("x"), path + ".x",
-                where + " lies outside the grid (x " + show_number(ctx.grid->x_min()) + ".." +
-                    show_number(ctx.grid->x_max()) + ", y " + show_number(ctx.grid->y_min()) +
-                    ".." + show_number(ctx.grid->y_max()) + " " + ctx.length_unit + ")");
-      continue;
-    }
-    if (!ctx.grid->is_active(*cell)) {
-      ctx.error(*t.get("x"), path + ".x",
-                where + " lies in an inactive cell (" +
-                    describe_cell(ctx.grid->n_cols(), cell->value) + ")");
-      continue;
-    }
-    o.cell = *cell;
-    if (measured) {
-      o.measured_file = ctx.resolve(*measured);
-      o.measured =
-          read_measured(ctx, o.measured_file, ctx.spot(*t.get("measured")), path + ".measured");
-    }
-    model.observations.push_back(std::move(o));
+    if (read_point(ctx, t, path, measured_heads, o)) model.observations.push_back(std::move(o));
+  }
+}
+
+void read_subsidence_points(ReaderContext& ctx, const toml::table& root, Model& model) {
+  const toml::array* points = section_tables(ctx, root, "subsidence_point");
+  if (!points) return;
+  std::vector<std::string> names;
+  for (std::size_t i = 0; i < points->size(); ++i) {
+    const toml::table& t = *(*points)[i].as_table();
+    const std::string path = feature_path("subsidence_point", t, i);
+    check_keys(ctx, t, path, {"name", "x", "y", "measured"});
+    Observation p;
+    p.name = read_string(ctx, t, "name", path, false)
+                 .value_or("subsidence point " + std::to_string(i + 1));
+    check_unique_name(ctx, t, path, p.name, names);
+    if (read_point(ctx, t, path, measured_subsidence, p))
+      model.subsidence_points.push_back(std::move(p));
   }
 }
 

@@ -141,18 +141,20 @@ std::vector<PlausibilityWarning> plausibility_warnings(const Model& model) {
   for (const Period& p : model.periods) end += p.length;
   char end_text[32];  // the run's end as the periods give it (1275, not 1.28e+03)
   std::snprintf(end_text, sizeof end_text, "%.10g", end);
-  for (const Observation& o : model.observations) {
-    if (o.measured.empty()) continue;
-    bool inside = false;
-    for (const MeasuredHead& m : o.measured) inside |= m.time >= 0.0 && m.time <= end;
-    if (!inside)
-      out.push_back({"[[observation]] " + o.name,
-                     "none of the " + std::to_string(o.measured.size()) + " measured heads of " +
-                         o.name + " (" + o.measured_file.string() +
-                         ") falls inside the run (time 0 to " + std::string(end_text) + " " +
-                         model.time_unit + "), so they cannot be compared with the model; " +
-                         "check their times against the periods"});
-  }
+  for (const bool bores : {true, false})
+    for (const Observation& o : bores ? model.observations : model.subsidence_points) {
+      if (o.measured.empty()) continue;
+      bool inside = false;
+      for (const MeasuredHead& m : o.measured) inside |= m.time >= 0.0 && m.time <= end;
+      if (!inside)
+        out.push_back({(bores ? "[[observation]] " : "[[subsidence_point]] ") + o.name,
+                       "none of the " + std::to_string(o.measured.size()) +
+                           (bores ? " measured heads of " : " measured subsidence values of ") +
+                           o.name + " (" + o.measured_file.string() +
+                           ") falls inside the run (time 0 to " + std::string(end_text) + " " +
+                           model.time_unit + "), so they cannot be compared with the model; " +
+                           "check their times against the periods"});
+    }
   return out;
 }
 

@@ -31,6 +31,7 @@ void read_evapotranspiration(ReaderContext& ctx, const toml::table& root, Model&
 void read_rivers(ReaderContext& ctx, const toml::table& root, Model& model);
 void read_leakage(ReaderContext& ctx, const toml::table& root, Model& model);
 void read_observations(ReaderContext& ctx, const toml::table& root, Model& model);
+void read_subsidence_points(ReaderContext& ctx, const toml::table& root, Model& model);
 void read_output(ReaderContext& ctx, const toml::table& root, Model& model);
 void read_solver(ReaderContext& ctx, const toml::table& root, Model& model);
 

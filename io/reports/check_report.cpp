@@ -257,6 +257,12 @@ void feature_part(Report& r, const Model& m) {
            cell_text(m.grid, o.cell) +
                (o.measured.empty() ? ""
                                    : "; " + std::to_string(o.measured.size()) + " measured heads"));
+  for (const Observation& o : m.subsidence_points)
+    r.item("subsidence point \"" + o.name + "\"",
+           cell_text(m.grid, o.cell) +
+               (o.measured.empty()
+                    ? ""
+                    : "; " + std::to_string(o.measured.size()) + " measured subsidence values"));
 }
 
 void settings_part(Report& r, const Model& m) {

@@ -11,6 +11,7 @@
 #include "io/files/output_error.hpp"
 #include "io/model_file/model_reader.hpp"
 #include "io/reports/html_report.hpp"
+#include "io/reports/subsidence_report.hpp"
 #include "io/reports/vega_charts.hpp"
 #include "io/reports/water_sources_report.hpp"
 #include "io/results/vtk_fields.hpp"
@@ -512,6 +513,8 @@ std::vector<MapFeature> map_features(const Model* model) {
     for (CellIndex c : d.cells) at_cell("drain cell", d.name, c);
   for (const Well& w : model->wells) f.push_back({"well", w.name, w.x, w.y});
   for (const Observation& o : model->observations) f.push_back({"bore", o.name, o.x, o.y});
+  for (const Observation& p : model->subsidence_points)
+    f.push_back({"subsidence point", p.name, p.x, p.y});
   return f;
 }
 
@@ -607,6 +610,21 @@ void add_maps(HtmlReport& page, const std::filesystem::path& folder, const Units
         fmt::format("Compaction (ground sinking) since the start at time {:g} {}", time, u.time),
         heatmap_spec(compaction.x_edges, compaction.y_edges, compaction.values,
                      fmt::format("compaction ({})", u.length), u.length, "purples", 560, features));
+    // Total subsidence: written only for models with interbeds.
+    if (model && !model->aquifer.interbeds) continue;
+    FieldMap subsidence;
+    try {
+      subsidence = read_field_vtr(f, "subsidence");
+    } catch (const OutputError&) {
+      continue;  // a model without interbeds (read --without-model), or older results
+    }
+    page.add_chart(
+        fmt::format(
+            "Subsidence (total lowering of the land surface: the aquifer's compaction "
+            "and the interbeds', recoverable and permanent) since the start at time {:g} {}",
+            time, u.time),
+        heatmap_spec(subsidence.x_edges, subsidence.y_edges, subsidence.values,
+                     fmt::format("subsidence ({})", u.length), u.length, "purples", 560, features));
   }
 }
 
@@ -682,6 +700,8 @@ ResultsReportSummary write_results_report(const ResultsReportOptions& options) {
                         period_rules(budget_periods, model ? &*model : nullptr));
   else
     page.add_paragraph("The model has no observation points, so there are no hydrographs.");
+  add_subsidence_section(page, folder, model ? &*model : nullptr, u.length, u.time,
+                         period_rules(budget_periods, model ? &*model : nullptr));
   add_maps(page, folder, u, model ? &*model : nullptr, options);
   add_water_sources_section(page, folder);
   page.write(options.output_file);

@@ -105,6 +105,14 @@ void put_recorder(BinaryWriter& w, const RecorderState& s) {
     w.put(row.head);
     w.put(row.drawdown);
   }
+  w.put_size(s.subsidence_rows.size());
+  for (const SubsidenceRow& row : s.subsidence_rows) {
+    w.put_size(row.point);
+    w.put_size(row.period);
+    w.put<std::int32_t>(row.step);
+    w.put(row.time);
+    w.put(row.subsidence);
+  }
   w.put_size(s.field_entries.size());
   for (const FieldFileEntry& e : s.field_entries) w.put(e.time), w.put_text(e.file);
   w.put_size(s.current_period);
@@ -152,6 +160,14 @@ RecorderState get_recorder(BinaryReader& r) {
     row.time = r.get<double>();
     row.head = r.get<double>();
     row.drawdown = r.get<double>();
+  }
+  s.subsidence_rows.resize(r.get_size());
+  for (SubsidenceRow& row : s.subsidence_rows) {
+    row.point = static_cast<std::size_t>(r.get<std::uint64_t>());
+    row.period = static_cast<std::size_t>(r.get<std::uint64_t>());
+    row.step = r.get<std::int32_t>();
+    row.time = r.get<double>();
+    row.subsidence = r.get<double>();
   }
   s.field_entries.resize(r.get_size());
   for (FieldFileEntry& e : s.field_entries) e.time = r.get<double>(), e.file = r.get_text();

@@ -33,6 +33,7 @@ ResultRecorder::ResultRecorder(const Model& model, std::filesystem::path folder)
       features_(list_features(model)),
       table_layout_(budget_table_layout(model)),
       sampler_(model.grid, model.observations),
+      point_sampler_(model.grid, model.subsidence_points),
       part_(GridPart::whole(model.grid)) {}
 
 ResultRecorder::ResultRecorder(const Model& model, std::filesystem::path folder,
@@ -73,6 +74,7 @@ void ResultRecorder::initial_state(std::span<const double> head) {
   reduce(initial_observed_);
   for (std::size_t k = 0; k < initial_observed_.size(); ++k)
     observation_rows_.push_back({k, 0, 0, 0.0, initial_observed_[k], 0.0});
+  record_subsidence(0, 0, 0.0);
   if (model_.output.fields != FieldCadence::none) {
     collectively([&] {
       if (writes_tables()) write_static_vtr(folder_ / "aquifer_properties.vtr", model_);
@@ -124,10 +126,13 @@ void ResultRecorder::step_done(const StepInfo& info, std::span<const double> hea
        info.cutbacks,
        CellStateCounts{std::lround(counts[0]), std::lround(counts[1]), std::lround(counts[2])}});
 
-  // Cell fields exist only for the field files; compaction accumulates inside them.
-  if (model_.output.fields != FieldCadence::none)
+  // Cell fields exist only for the field files and the subsidence points; compaction
+  // accumulates inside them.
+  if (keeps_fields()) {
     update_cell_fields(model_, layout_, part_, info.steady, info.dt, window(initial_head_),
                        window(head_old), window(head_new), window(info.preconsolidation), fields_);
+    record_subsidence(info.period + 1, info.step, info.time);
+  }
   std::vector<double> observed = sampler_.sample(window(head_new), part_);
   reduce(observed);
   for (std::size_t k = 0; k < observed.size(); ++k)
@@ -159,6 +164,17 @@ void ResultRecorder::period_done(std::size_t period) {
     write_head_arrays_at(time_, last_head_);
   flush();
   stats_.output_seconds += seconds_since(start);
+}
+
+void ResultRecorder::record_subsidence(std::size_t period, int step, double time) {
+  if (model_.subsidence_points.empty()) return;
+  // Without interbeds the ground sinks by the aquifer's own compaction alone.
+  const std::vector<double>& sunk =
+      fields_.subsidence.empty() ? fields_.compaction : fields_.subsidence;
+  std::vector<double> values = point_sampler_.sample(CellValues{sunk, part_.first_owned()}, part_);
+  reduce(values);
+  for (std::size_t k = 0; k < values.size(); ++k)
+    subsidence_rows_.push_back({k, period, step, time, values[k]});
 }
 
 void ResultRecorder::write_fields(double time) {
@@ -224,9 +240,19 @@ void ResultRecorder::write_head_arrays_at(double time, std::span<const double> h
 }
 
 RecorderState ResultRecorder::state() const {
-  return {
-      initial_head_,  initial_observed_, fields_,      step_rows_, period_rows_, observation_rows_,
-      field_entries_, current_period_,   period_open_, time_,      stats_,       head_arrays_done_};
+  return {initial_head_,
+          initial_observed_,
+          fields_,
+          step_rows_,
+          period_rows_,
+          observation_rows_,
+          subsidence_rows_,
+          field_entries_,
+          current_period_,
+          period_open_,
+          time_,
+          stats_,
+          head_arrays_done_};
 }
 
 void ResultRecorder::restore(RecorderState s) {
@@ -236,6 +262,7 @@ void ResultRecorder::restore(RecorderState s) {
   step_rows_ = std::move(s.step_rows);
   period_rows_ = std::move(s.period_rows);
   observation_rows_ = std::move(s.observation_rows);
+  subsidence_rows_ = std::move(s.subsidence_rows);
   field_entries_ = std::move(s.field_entries);
   current_period_ = s.current_period;
   period_open_ = s.period_open;
@@ -281,6 +308,9 @@ void ResultRecorder::flush() {
     if (!model_.observations.empty())
       write_observations_csv(folder_ / "observations.csv", model_.observations, observation_rows_,
                              table_layout_.clock);
+    if (!model_.subsidence_points.empty())
+      write_subsidence_csvs(folder_, model_.subsidence_points, subsidence_rows_,
+                            table_layout_.clock);
   });
 }
 

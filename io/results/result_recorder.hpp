@@ -39,6 +39,7 @@ struct RecorderState {
   std::vector<BudgetStepRow> step_rows;
   std::vector<BudgetPeriodRow> period_rows;
   std::vector<ObservationRow> observation_rows;
+  std::vector<SubsidenceRow> subsidence_rows;
   std::vector<FieldFileEntry> field_entries;
   std::size_t current_period = 0;
   bool period_open = false;
@@ -85,6 +86,12 @@ class ResultRecorder final : public SimulationObserver {
 
  private:
   void write_fields(double time);
+  /// Adds the subsidence at every subsidence point (from the fields) to the rows.
+  void record_subsidence(std::size_t period, int step, double time);
+  /// The fields are kept up to date: written, or sampled at subsidence points.
+  bool keeps_fields() const {
+    return model_.output.fields != FieldCadence::none || !model_.subsidence_points.empty();
+  }
   /// Writes the head arrays (io/results/head_arrays.hpp) of the heads at time; in a distributed run
   /// the heads are gathered and rank 0 writes.
   void write_head_arrays_at(double time, std::span<const double> head);
@@ -103,12 +110,14 @@ class ResultRecorder final : public SimulationObserver {
   std::vector<FeatureRef> features_;
   BudgetTableLayout table_layout_;
   ObservationSampler sampler_;
+  ObservationSampler point_sampler_;  ///< of the subsidence points
   std::vector<double> initial_head_;
   std::vector<double> initial_observed_;
   CellFields fields_;
   std::vector<BudgetStepRow> step_rows_;
   std::vector<BudgetPeriodRow> period_rows_;
   std::vector<ObservationRow> observation_rows_;
+  std::vector<SubsidenceRow> subsidence_rows_;
   std::vector<FieldFileEntry> field_entries_;
   std::size_t current_period_ = 0;
   bool period_open_ = false;

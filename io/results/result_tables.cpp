@@ -2,12 +2,14 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <iterator>
 #include <stdexcept>
 #include <string_view>
 
 #include "io/files/atomic_file.hpp"
 #include "io/files/text_encoding.hpp"
+#include "postproc/calibration_statistics.hpp"
 
 namespace aquiledger {
 namespace {
@@ -187,6 +189,44 @@ std::string observations_csv(const std::vector<Observation>& observations,
   return out;
 }
 
+std::string subsidence_points_csv(const std::vector<Observation>& points,
+                                  const std::vector<SubsidenceRow>& rows,
+                                  const std::optional<CalendarClock>& clock) {
+  std::string out = "point,period,step,time,subsidence" + date_header(clock, "date") + "\n";
+  for (const SubsidenceRow& row : rows) {
+    if (row.point >= points.size())
+      throw std::invalid_argument(
+          fmt::format("subsidence row refers to point {} of {}", row.point, points.size()));
+    fmt::format_to(std::back_inserter(out), "{},{},{}", csv_text(points[row.point].name),
+                   row.period, row.step);
+    append_number(out, row.time);
+    append_number(out, row.subsidence);
+    out += date_cell(clock, row.time) + '\n';
+  }
+  return out;
+}
+
+std::string subsidence_residuals_csv(const std::vector<Observation>& points,
+                                     const std::vector<SubsidenceRow>& rows,
+                                     const std::optional<CalendarClock>& clock) {
+  std::string out = "point,time,measured,simulated,residual" + date_header(clock, "date") + "\n";
+  for (std::size_t p = 0; p < points.size(); ++p) {
+    if (points[p].measured.empty()) continue;
+    std::vector<double> times, simulated;
+    for (const SubsidenceRow& row : rows)
+      if (row.point == p) times.push_back(row.time), simulated.push_back(row.subsidence);
+    for (const HeadPair& pair : pair_measured_heads(points[p].measured, times, simulated)) {
+      out += csv_text(points[p].name);
+      append_number(out, pair.time);
+      append_number(out, pair.measured);
+      append_number(out, pair.simulated);
+      append_number(out, pair.simulated - pair.measured);
+      out += date_cell(clock, pair.time) + '\n';
+    }
+  }
+  return out;
+}
+
 void write_budget_steps_csv(const std::filesystem::path& path, const BudgetTableLayout& layout,
                             const std::vector<BudgetStepRow>& rows) {
   write_file_atomically(path, budget_steps_csv(layout, rows));
@@ -222,6 +262,18 @@ void write_observations_csv(const std::filesystem::path& path,
                             const std::vector<ObservationRow>& rows,
                             const std::optional<CalendarClock>& clock) {
   write_file_atomically(path, observations_csv(observations, rows, clock));
+}
+
+void write_subsidence_csvs(const std::filesystem::path& folder,
+                           const std::vector<Observation>& points,
+                           const std::vector<SubsidenceRow>& rows,
+                           const std::optional<CalendarClock>& clock) {
+  write_file_atomically(folder / "subsidence_points.csv",
+                        subsidence_points_csv(points, rows, clock));
+  if (std::any_of(points.begin(), points.end(),
+                  [](const Observation& p) { return !p.measured.empty(); }))
+    write_file_atomically(folder / "subsidence_residuals.csv",
+                          subsidence_residuals_csv(points, rows, clock));
 }
 
 }  // namespace aquiledger

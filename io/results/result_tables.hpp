@@ -50,6 +50,15 @@ struct ObservationRow {
   double drawdown = 0.0;        ///< L, initial head minus head
 };
 
+/// Simulated subsidence at a subsidence point at one output time.
+struct SubsidenceRow {
+  std::size_t point = 0;    ///< 0-based index into the model's subsidence_points
+  std::size_t period = 0;   ///< 1-based; 0 for the time-0 row
+  int step = 0;             ///< 1-based; 0 for the time-0 row
+  double time = 0.0;        ///< T
+  double subsidence = 0.0;  ///< L, positive = the ground has sunk since time 0
+};
+
 /// Which components a model's budget tables list, and the units they are written in.
 struct BudgetTableLayout {
   /// In the contract's order; `total` follows them in every table.
@@ -90,6 +99,16 @@ std::string budget_features_csv(const std::vector<FeatureRef>& features,
 std::string observations_csv(const std::vector<Observation>& observations,
                              const std::vector<ObservationRow>& rows,
                              const std::optional<CalendarClock>& clock = std::nullopt);
+/// point,period,step,time,subsidence; the point column holds its name.
+std::string subsidence_points_csv(const std::vector<Observation>& points,
+                                  const std::vector<SubsidenceRow>& rows,
+                                  const std::optional<CalendarClock>& clock = std::nullopt);
+/// point,time,measured,simulated,residual: each measured value of a point inside the rows'
+/// times, paired with the simulated subsidence interpolated linearly in time
+/// (pair_measured_heads); residual = simulated - measured (L).
+std::string subsidence_residuals_csv(const std::vector<Observation>& points,
+                                     const std::vector<SubsidenceRow>& rows,
+                                     const std::optional<CalendarClock>& clock = std::nullopt);
 
 /// The same, written atomically to path; throw OutputError naming the path on failure.
 void write_budget_steps_csv(const std::filesystem::path& path, const BudgetTableLayout& layout,
@@ -111,5 +130,11 @@ void write_observations_csv(const std::filesystem::path& path,
                             const std::vector<Observation>& observations,
                             const std::vector<ObservationRow>& rows,
                             const std::optional<CalendarClock>& clock = std::nullopt);
+/// subsidence_points.csv and, when a point has measured values, subsidence_residuals.csv
+/// into folder.
+void write_subsidence_csvs(const std::filesystem::path& folder,
+                           const std::vector<Observation>& points,
+                           const std::vector<SubsidenceRow>& rows,
+                           const std::optional<CalendarClock>& clock = std::nullopt);
 
 }  // namespace aquiledger

@@ -46,6 +46,7 @@ Checkpoint sample() {
   c.recorder.step_rows = {step};
   c.recorder.period_rows = {{1, "pumping \"season\"", 0.0, 13.0217, step.rates}};
   c.recorder.observation_rows = {{1, 1, 3, 13.0217, 34.1, 0.4}};
+  c.recorder.subsidence_rows = {{0, 0, 0, 0.0, 0.0}, {1, 1, 3, 13.0217, 0.1}};
   c.recorder.field_entries = {{0.0, "fields_0000.vtr"}, {13.0217, "fields_0001.vtr"}};
   c.recorder.current_period = 0;
   c.recorder.period_open = true;
@@ -87,6 +88,12 @@ TEST_CASE("a checkpoint reads back bit for bit", "[io][checkpoint]") {
   CHECK(d.recorder.head_arrays_done == 2);
   CHECK(d.recorder.period_rows[0].name == "pumping \"season\"");
   CHECK(d.recorder.field_entries[1].file == "fields_0001.vtr");
+  REQUIRE(d.recorder.subsidence_rows.size() == 2);
+  CHECK(d.recorder.subsidence_rows[1].point == 1);
+  CHECK(d.recorder.subsidence_rows[1].period == 1);
+  CHECK(d.recorder.subsidence_rows[1].step == 3);
+  CHECK(d.recorder.subsidence_rows[1].time == 13.0217);
+  CHECK(d.recorder.subsidence_rows[1].subsidence == 0.1);
   CHECK(d.recorder.period_open);
   CHECK(d.recorder.stats.newton_iterations == std::vector<int>{4, 3, 5});
   // Encoding is deterministic: the same state gives the same bytes.

@@ -3,7 +3,7 @@
 # headless Chromium and check that every chart container holds a rendered SVG and that the
 # page's status marker (set after every Vega view has rendered; script errors are caught
 # into it by window.onerror) reads "ok". Also takes a screenshot. The same check runs on
-# the page `aquiledger verify` writes.
+# the page `aquiledger verify` writes, and on the subsidence case's page (cases/05).
 #   bash report_browser.sh <aquiledger> <source-dir>
 # Prints "SKIPPED: ..." and exits 0 only when Chromium is not installed.
 set -euo pipefail
@@ -49,6 +49,39 @@ if ((status != 64)) || [[ -e "$tmp/bad.html" ]]; then
   echo "FAILED: --maps-at 12x gave status $status (expected 64, no page)" >&2
   exit 1
 fi
+# Subsidence (cases/05, interbeds and an extensometer with measured readings): the series
+# chart with its residual table and the subsidence map at the end of the dry years (1460 d)
+# and of the run (2190 d) render; the demo above (no interbeds) has neither.
+for heading in "Subsidence at the subsidence points"; do
+  if grep -q "<h2>$heading" <<<"$dom"; then
+    echo "FAILED: section '$heading' on the page of a model without interbeds" >&2
+    exit 1
+  fi
+done
+if grep -q "Subsidence (total lowering" <<<"$dom"; then
+  echo "FAILED: a subsidence map on the page of a model without interbeds" >&2
+  exit 1
+fi
+"$exe" run "$src/cases/05-quillon-vale-subsidence/model.toml" --output "$tmp/sub" --quiet
+"$exe" report "$tmp/sub" --maps-at 1460,2190 --quiet
+check_page "$tmp/sub/report.html" 18
+sub_dom=$(browse "$tmp/sub/report.html" --dump-dom)
+check_visible_text "$sub_dom"
+for text in "<h2>Subsidence at the subsidence points" \
+  "Subsidence at Sallow Cross extensometer (60 measured values, 60 inside the run)" \
+  "Subsidence (total lowering of the land surface" "<th>measured values used</th>"; do
+  if ! grep -qF "$text" <<<"$sub_dom"; then
+    echo "FAILED: the subsidence page lacks '$text'" >&2
+    exit 1
+  fi
+done
+if (($(grep -o "Subsidence (total lowering of the land surface" <<<"$sub_dom" | wc -l) != 2)); then
+  echo "FAILED: expected a subsidence map at each of the 2 --maps-at times" >&2
+  exit 1
+fi
+browse "$tmp/sub/report.html" --window-size=1100,12000 --screenshot="$tmp/subsidence.png" >/dev/null
+if [[ -n "${REPORT_SCREENSHOT:-}" ]]; then cp "$tmp/subsidence.png" "${REPORT_SCREENSHOT%.png}-subsidence.png"; fi
+
 browse "$tmp/report.html" --window-size=1100,9000 --screenshot="$tmp/report.png" >/dev/null
 if [[ -n "${REPORT_SCREENSHOT:-}" ]]; then cp "$tmp/report.png" "$REPORT_SCREENSHOT"; fi
 if [[ ! -s "$tmp/report.png" ]]; then

@@ -10,7 +10,7 @@ src=${2:?usage: subsidence_case.sh <aquiledger> <source-dir>}
 out=$(mktemp -d)
 trap 'rm -rf "$out"' EXIT
 "$exe" run "$src/cases/05-quillon-vale-subsidence/model.toml" -o "$out/r" -q >/dev/null
-python3 - "$out/r" <<'PY'
+python3 - "$out/r" "$src/cases/05-quillon-vale-subsidence/extensometer.csv" <<'PY'
 import csv, sys
 folder = sys.argv[1]
 rows = list(csv.DictReader(open(f"{folder}/budget_periods.csv")))
@@ -38,5 +38,30 @@ for r in csv.DictReader(open(f"{folder}/observations.csv")):
 end_dry = max(k for k in heads if k[0] == 4)
 end_run = max(heads)
 assert heads[end_run] > heads[end_dry] + 1.0, (heads[end_dry], heads[end_run])
+# The extensometer (docs/results.md, subsidence_points.csv): a row per step plus time 0,
+# dates from the start date, zero at time 0, sinking through the dry years.
+points = list(csv.DictReader(open(f"{folder}/subsidence_points.csv")))
+n_steps = sum(1 for _ in csv.DictReader(open(f"{folder}/balance_steps.csv")))
+assert len(points) == 1 + n_steps, (len(points), n_steps)
+assert all(r["point"] == "Sallow Cross extensometer" for r in points)
+assert points[0]["date"] == "2018-01-01" and float(points[0]["subsidence"]) == 0.0
+series = [(float(r["time"]), float(r["subsidence"]), int(r["period"])) for r in points]
+dry = [s for t, s, p in series if 2 <= p <= 4]
+assert all(b >= a for a, b in zip(dry, dry[1:])) and dry[-1] > 0.0, dry
+# Residuals: simulated interpolated linearly in time minus measured, for every reading
+# inside the run (the readings are invented: only the arithmetic is checked).
+measured = [l.split(",") for l in open(sys.argv[2]) if l[:1].isdigit()]
+residuals = list(csv.DictReader(open(f"{folder}/subsidence_residuals.csv")))
+assert len(residuals) == len(measured) == 60, (len(residuals), len(measured))
+def simulated(t):
+    for (t0, s0, _), (t1, s1, _) in zip(series, series[1:]):
+        if t0 < t <= t1:
+            return s0 + (t - t0) / (t1 - t0) * (s1 - s0)
+    raise AssertionError(t)
+for r, (date, value) in zip(residuals, measured):
+    assert r["date"] == date, (r, date)
+    assert float(r["measured"]) == float(value)
+    assert abs(float(r["simulated"]) - simulated(float(r["time"]))) < 1e-12
+    assert abs(float(r["residual"]) - (float(r["simulated"]) - float(value))) < 1e-15
 PY
 echo "subsidence case: all checks passed"
