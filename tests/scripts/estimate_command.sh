@@ -3,7 +3,9 @@
 # computed at test time from the Theis solution (scipy.special.exp1, estimate_theis.py) with
 # T = 350 m2/d and S = 2e-4; the numerical model on a telescoping grid, fitted for K and S,
 # must give them back within 1 % (noise-free), inside the reported 95 % intervals, and S in
-# the confined range 1e-5..1e-3 (common practice). The output files have the columns of
+# the confined range 1e-5..1e-3 (common practice). The same test in a 50 m thick water-table
+# aquifer with Sy = 0.1 (Theis with S = Sy, the late-time limit of Neuman, 1975) gives Sy back
+# within 1 % and in the water-table range 0.01..0.3 (common practice). The output files have the columns of
 # docs/results.md. A bad set-up is refused with exit status 1 naming file, line and key, and
 # nothing is written.
 #   bash estimate_command.sh <aquiledger> <source-dir>
@@ -46,6 +48,17 @@ h = est["objective_history"]
 assert all(h[i + 1] <= h[i] for i in range(len(h) - 1)), h
 corr = list(csv.DictReader(open(os.path.join(d, "parameter_correlation.csv"))))
 assert abs(float(corr[0]["k"]) - 1.0) < 1e-12
+PY
+
+mkdir "$out/wt"
+/usr/bin/python3 "$src/tests/scripts/estimate_theis.py" "$out/wt" 350 0.1 water_table
+"$exe" estimate "$out/wt/setup.toml" -o "$out/wt/fit" -q
+/usr/bin/python3 - "$out/wt/fit" <<'PY'
+import csv, os, sys
+rows = {r["parameter"]: r for r in csv.DictReader(open(os.path.join(sys.argv[1], "estimated_parameters.csv")))}
+sy = float(rows["specific_yield"]["value"])
+assert abs(sy / 0.1 - 1) < 0.01, sy
+assert 0.01 <= sy <= 0.3, sy  # water-table specific yield range (common practice)
 PY
 
 # A bad set-up: file, line and key, exit status 1, nothing written.

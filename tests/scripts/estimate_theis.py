@@ -1,15 +1,21 @@
 """Writes a Theis (1935) pumping test as an aquiledger model and estimation set-up: a confined
 aquifer on a telescoping grid, one well, drawdowns at bores on cell centres computed here from
 the Theis solution s = Q / (4 pi T) E1(r^2 S / (4 T t)) with scipy.special.exp1.
-    /usr/bin/python3 estimate_theis.py FOLDER T S
-Writes FOLDER/model.toml and FOLDER/setup.toml (fitting K and storativity as values)."""
+    /usr/bin/python3 estimate_theis.py FOLDER T S [water_table]
+Writes FOLDER/model.toml and FOLDER/setup.toml (fitting K and storativity as values). With
+water_table, the aquifer is a 50 m thick water-table one and S stands for the specific yield:
+the drawdowns (under 1 m) stay a small part of the saturated thickness, where the Theis
+solution with S = Sy describes the late response of an unconfined aquifer (Neuman, 1975,
+Water Resour. Res. 11(2) 329-342, late-time limit)."""
 import math
 import sys
 
 from scipy.special import exp1
 
 folder, T, S = sys.argv[1], float(sys.argv[2]), float(sys.argv[3])
-b, Q = 10.0, 1000.0  # aquifer thickness (m) and pumping (m3/d)
+water_table = len(sys.argv) > 4 and sys.argv[4] == "water_table"
+b, Q = (50.0 if water_table else 10.0), 1000.0  # aquifer thickness (m) and pumping (m3/d)
+prop = "specific_yield" if water_table else "storativity"
 # Telescoping widths: 2 m at the well, growing by 1.2 to 6 km either side (the Theis drawdown
 # there stays below 1e-3 of that at the nearest bore over the 2 days).
 half, w, total = [], 2.0, 1.0
@@ -41,11 +47,11 @@ dx = [{", ".join(map(fmt, widths))}]
 dy = [{", ".join(map(fmt, widths))}]
 origin = [{x0}, {x0}]
 [aquifer]
-top = 0.0
+{'' if water_table else 'top = 0.0'}
 bottom = {-b}
 k = 5.0
-condition = "confined"
-storativity = 1.0e-3
+condition = "{'water_table' if water_table else 'confined'}"
+{prop} = {0.05 if water_table else 1.0e-3}
 [initial]
 head = 0.0
 [[period]]
@@ -61,7 +67,7 @@ pumping_rate = {Q}
     for i, r in enumerate(bores):
         f.write(f'[[observation]]\nname = "bore {i + 1}"\nx = {r!r}\ny = 0.0\n')
 with open(f"{folder}/setup.toml", "w") as f:
-    f.write("""[estimate]
+    f.write(f"""[estimate]
 model = "model.toml"
 [[parameter]]
 name = "k"
@@ -71,8 +77,8 @@ start = 5.0
 lower = 0.01
 upper = 1000.0
 [[parameter]]
-name = "storativity"
-property = "storativity"
+name = "{prop}"
+property = "{prop}"
 form = "value"
 start = 1.0e-3
 lower = 1.0e-7
