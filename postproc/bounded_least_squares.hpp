@@ -12,15 +12,29 @@ namespace aquiledger {
 /// Model values (same units as the observations) for the given positive parameters.
 using ModelFunction = std::function<Eigen::VectorXd(const Eigen::VectorXd& parameters)>;
 
+/// Model values for the given positive parameters and, when jacobian is not null, their
+/// exact derivatives with respect to ln p (one column per parameter), e.g. from forward
+/// sensitivities. Throws to mark parameters where the model cannot be evaluated.
+using ModelWithJacobian =
+    std::function<Eigen::VectorXd(const Eigen::VectorXd& parameters, Eigen::MatrixXd* jacobian)>;
+
 /// A fit to solve: observations, their weights (1 / variance, or relative weights), the start
 /// and the bounds of each parameter (all strictly positive, lower <= start <= upper).
 struct BoundedFitProblem {
-  ModelFunction model;
+  ModelFunction model;  ///< used (with forward differences) when model_with_jacobian is empty
+  ModelWithJacobian model_with_jacobian;
   Eigen::VectorXd observed;
   Eigen::VectorXd weights;
   Eigen::VectorXd start;
   Eigen::VectorXd lower;
   Eigen::VectorXd upper;
+  /// Per parameter: fitted as p itself instead of ln p (empty: every parameter in ln p).
+  std::vector<bool> linear;
+  /// Tikhonov regularisation: per parameter a prior value (as start) and the weight of the
+  /// prior equation w (x_prior - x) = 0, x = ln p or p (1 / variance of x; 0: no prior).
+  /// Empty: no priors. The prior equations count as observations in the statistics.
+  Eigen::VectorXd prior;
+  Eigen::VectorXd prior_weights;
 };
 
 struct BoundedFitSettings {
@@ -38,10 +52,17 @@ struct BoundedFitResult {
   Eigen::VectorXd parameters;
   Eigen::VectorXd lower_95;
   Eigen::VectorXd upper_95;
-  Eigen::MatrixXd log_covariance;  ///< covariance of ln p
-  Eigen::MatrixXd correlation;     ///< correlation of ln p
+  Eigen::MatrixXd log_covariance;  ///< covariance of ln p (of p for a linear parameter)
+  Eigen::MatrixXd correlation;     ///< correlation of ln p (of p for a linear parameter)
   Eigen::VectorXd residuals;       ///< observed - model
-  std::vector<bool> at_bound;      ///< the parameter ended on one of its bounds
+  Eigen::VectorXd simulated;       ///< model at the parameters
+  /// d model / d ln p at the parameters (the last Jacobian), one column per parameter.
+  Eigen::MatrixXd jacobian;
+  /// The objective (weighted sum of squares with the prior terms) at the start and after
+  /// each accepted step.
+  std::vector<double> cost_history;
+  double error_variance = 0.0;  ///< s^2, the objective over (n + priors - k)
+  std::vector<bool> at_bound;   ///< the parameter ended on one of its bounds
   double weighted_sum_of_squares = 0.0;
   int n_iterations = 0;
   bool converged = false;

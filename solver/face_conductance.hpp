@@ -13,6 +13,21 @@ inline double harmonic_face_factor(double w, double ki, double di, double kj, do
   return denom > 0.0 ? 2.0 * w * ki * kj / denom : 0.0;
 }
 
+/// The elasticities of harmonic_face_factor F with respect to ki and kj (-):
+/// d ln F / d ln ki = kj di / (ki dj + kj di), and symmetrically; they add up to 1 (F is
+/// homogeneous of degree one in the two conductivities). A face flow is F times a function
+/// of the heads, so d q / d ln ki = q times the elasticity (parameter sensitivities).
+struct FaceElasticity {
+  double i = 0.0;  ///< -, d ln F / d ln ki
+  double j = 0.0;  ///< -, d ln F / d ln kj
+};
+inline FaceElasticity harmonic_face_factor_elasticities(double ki, double di, double kj,
+                                                        double dj) {
+  const double denom = ki * dj + kj * di;
+  if (!(denom > 0.0)) return {};
+  return {kj * di / denom, ki * dj / denom};
+}
+
 /// Flow into cell i across the face (L3/T) and its derivatives (L2/T) with respect to hi, hj.
 struct FaceFlow {
   double q = 0.0;

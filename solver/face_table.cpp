@@ -6,12 +6,13 @@ namespace aquiledger {
 
 namespace {
 std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
-}  // namespace
 
-double face_factor(const Model& model, CellIndex i, CellIndex j, bool east_west) {
-  // The same bits seen from either side: the face flows of neighbours then cancel exactly
-  // in the sum of the residuals, and the confined Jacobian is exactly symmetric.
-  if (j < i) std::swap(i, j);
+/// The arguments of harmonic_face_factor for the face between i and j (i before j).
+struct FaceArguments {
+  double w, ki, di, kj, dj;
+};
+
+FaceArguments face_arguments(const Model& model, CellIndex i, CellIndex j, bool east_west) {
   const RectilinearGrid& g = model.grid;
   const Aquifer& aq = model.aquifer;
   const RowCol a = g.row_col(i);
@@ -27,7 +28,26 @@ double face_factor(const Model& model, CellIndex i, CellIndex j, bool east_west)
     ki *= aq.top[ii] - aq.bottom[ii];
     kj *= aq.top[jj] - aq.bottom[jj];
   }
-  return harmonic_face_factor(w, ki, di, kj, dj);
+  return {w, ki, di, kj, dj};
+}
+
+}  // namespace
+
+double face_factor(const Model& model, CellIndex i, CellIndex j, bool east_west) {
+  // The same bits seen from either side: the face flows of neighbours then cancel exactly
+  // in the sum of the residuals, and the confined Jacobian is exactly symmetric.
+  if (j < i) std::swap(i, j);
+  const FaceArguments f = face_arguments(model, i, j, east_west);
+  return harmonic_face_factor(f.w, f.ki, f.di, f.kj, f.dj);
+}
+
+FaceElasticity face_factor_elasticities(const Model& model, CellIndex i, CellIndex j,
+                                        bool east_west) {
+  const bool swapped = j < i;
+  if (swapped) std::swap(i, j);
+  const FaceArguments f = face_arguments(model, i, j, east_west);
+  const FaceElasticity e = harmonic_face_factor_elasticities(f.ki, f.di, f.kj, f.dj);
+  return swapped ? FaceElasticity{e.j, e.i} : e;
 }
 
 FaceFlow face_flow(const Model& model, const SystemLayout& layout, CellIndex i, CellIndex j,

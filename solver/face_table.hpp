@@ -22,6 +22,12 @@ struct Face {
 /// Conductance factor of the face between i and its east (east_west) or south neighbour j.
 double face_factor(const Model& model, CellIndex i, CellIndex j, bool east_west);
 
+/// The elasticities of face_factor(model, i, j, east_west) with respect to the conductivity
+/// of i and of j (harmonic_face_factor_elasticities; a confined cell's transmissivity is its
+/// conductivity times a fixed thickness, so the same elasticities hold).
+FaceElasticity face_factor_elasticities(const Model& model, CellIndex i, CellIndex j,
+                                        bool east_west);
+
 /// Flow into i from j across a face with the given factor (L3/T) and its derivatives.
 FaceFlow face_flow(const Model& model, const SystemLayout& layout, CellIndex i, CellIndex j,
                    double factor, double hi, double hj);

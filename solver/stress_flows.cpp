@@ -181,6 +181,17 @@ std::vector<std::uint8_t> recharges_with_distinct_cells(const Model& model) {
   return flags;
 }
 
+std::vector<CellStressFlow> feature_cell_flows(const Model& model, const SystemLayout& layout,
+                                               std::size_t period, std::span<const double> head,
+                                               std::size_t feature) {
+  std::vector<CellStressFlow> cells;
+  visit_stress_flows(model, layout, period, head, GridPart::whole(model.grid),
+                     [&](std::size_t k, CellIndex c, const StressFlow& flow) {
+                       if (k == feature) cells.push_back({c, flow.q});
+                     });
+  return cells;
+}
+
 void stress_flows_by_feature(const Model& model, const SystemLayout& layout, std::size_t period,
                              std::span<const double> head, std::span<FeatureFlow> flows) {
   stress_flows_by_feature(model, layout, period, GridPart::whole(model.grid), head, flows);

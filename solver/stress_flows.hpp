@@ -68,6 +68,17 @@ void add_stress_flows(const Model& model, const SystemLayout& layout, std::size_
 /// concurrently), else 0.
 std::vector<std::uint8_t> recharges_with_distinct_cells(const Model& model);
 
+/// The flow of one feature into one cell (L3/T) and its head derivative (L2/T).
+struct CellStressFlow {
+  CellIndex cell;
+  ValueSlope q;
+};
+/// The cells of entry `feature` of list_features(model) that carry its stress, with their
+/// flows at head (per grid cell); empty for a fixed head.
+std::vector<CellStressFlow> feature_cell_flows(const Model& model, const SystemLayout& layout,
+                                               std::size_t period, std::span<const double> head,
+                                               std::size_t feature);
+
 /// Fills flows[k] for every entry k of list_features(model) that is not a fixed head
 /// (fixed-head entries are left untouched).
 void stress_flows_by_feature(const Model& model, const SystemLayout& layout, std::size_t period,

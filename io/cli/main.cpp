@@ -9,6 +9,7 @@
 #include "aquiledger_version.hpp"
 #include "io/cli/commands.hpp"
 #include "io/cli/drawdown_fit_command.hpp"
+#include "io/cli/estimate_command.hpp"
 #include "io/cli/sources_command.hpp"
 
 namespace {
@@ -127,6 +128,9 @@ int main(int argc, char** argv) {
   DrawdownFitOptions drawdown_fit_options;
   auto* drawdown_fit = add_drawdown_fit_subcommand(app, drawdown_fit_options);
 
+  EstimateOptions estimate_options;
+  auto* estimate = add_estimate_subcommand(app, estimate_options);
+
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
@@ -137,5 +141,6 @@ int main(int argc, char** argv) {
   if (*report) return run_report_command(report_options);
   if (*sources) return run_sources_command(sources_options);
   if (*drawdown_fit) return run_drawdown_fit_command(drawdown_fit_options);
+  if (*estimate) return run_estimate_command(estimate_options);
   return run_run_command(run_options);
 }

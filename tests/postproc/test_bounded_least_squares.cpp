@@ -134,3 +134,38 @@ TEST_CASE("AICc prefers the generating model", "[bounded_least_squares]") {
   CHECK(akaike_criterion(1.0, 10, 2) == Approx(10.0 * std::log(0.1) + 4.0));
   CHECK(corrected_akaike_criterion(1.0, 10, 2) == Approx(10.0 * std::log(0.1) + 4.0 + 12.0 / 7.0));
 }
+
+TEST_CASE("linear parameters, exact Jacobians and priors", "[bounded_least_squares]") {
+  // A straight line y = a t + b through exact points: linear least squares has the unique
+  // solution (a, b) that made them (Gauss-Markov; any statistics text), so the fit in p
+  // itself, given d y / d ln p exactly, must return it.
+  BoundedFitProblem problem;
+  const Eigen::VectorXd t = Eigen::VectorXd::LinSpaced(6, 1.0, 6.0);
+  problem.model_with_jacobian = [&](const Eigen::VectorXd& p, Eigen::MatrixXd* jac) {
+    if (jac) {
+      jac->resize(t.size(), 2);
+      jac->col(0) = p[0] * t;                                   // d y / d ln a
+      jac->col(1) = Eigen::VectorXd::Constant(t.size(), p[1]);  // d y / d ln b
+    }
+    return Eigen::VectorXd((p[0] * t.array() + p[1]).matrix());
+  };
+  problem.observed = (2.5 * t.array() + 4.0).matrix();
+  problem.weights = Eigen::VectorXd::Ones(t.size());
+  problem.start = Eigen::Vector2d(1.0, 1.0);
+  problem.lower = Eigen::Vector2d(0.1, 0.1);
+  problem.upper = Eigen::Vector2d(10.0, 10.0);
+  problem.linear = {true, false};
+  const BoundedFitResult free = fit_bounded_least_squares(problem);
+  CHECK(free.parameters[0] == Approx(2.5).epsilon(1e-8));
+  CHECK(free.parameters[1] == Approx(4.0).epsilon(1e-8));
+  for (std::size_t i = 1; i < free.cost_history.size(); ++i)
+    CHECK(free.cost_history[i] <= free.cost_history[i - 1]);
+  // A prior on b with a weight 1e12 times the data's holds b at the prior; a then takes the
+  // least-squares slope through the points with b fixed: sum t (y - b) / sum t^2.
+  problem.prior = Eigen::Vector2d(1.0, 3.0);
+  problem.prior_weights = Eigen::Vector2d(0.0, 1e12);
+  const BoundedFitResult held = fit_bounded_least_squares(problem);
+  const double a = (t.array() * (problem.observed.array() - 3.0)).sum() / t.squaredNorm();
+  CHECK(held.parameters[1] == Approx(3.0).epsilon(1e-6));
+  CHECK(held.parameters[0] == Approx(a).epsilon(1e-6));
+}

@@ -1,0 +1,87 @@
+// `estimate`: fits model parameters to measurements (docs/estimation.md): reads the set-up
+// file and its model, fits with exact sensitivities, writes estimate.json and the CSV files.
+#include "io/cli/estimate_command.hpp"
+
+#include <fmt/format.h>
+
+#include <CLI/CLI.hpp>
+#include <cstdio>
+#include <stdexcept>
+
+#include "aquiledger_version.hpp"
+#include "io/cli/commands.hpp"
+#include "io/files/atomic_file.hpp"
+#include "io/files/output_lock.hpp"
+#include "io/model_file/estimation_reader.hpp"
+#include "io/results/estimation_files.hpp"
+
+namespace aquiledger {
+
+CLI::App* add_estimate_subcommand(CLI::App& app, EstimateOptions& o) {
+  auto* cmd = app.add_subcommand(
+      "estimate",
+      "Estimate model parameters from measured heads, drawdowns and flows (a set-up file naming "
+      "the model, the parameters and the targets) and write the estimates with their 95 % "
+      "intervals, correlations, sensitivities and residuals.");
+  cmd->add_option("SETUP", o.setup_file, "Estimation set-up file (TOML)")->required();
+  cmd->add_option("-o,--output", o.output_folder,
+                  "Folder for the results (default: estimate beside the set-up file)");
+  cmd->add_flag("-q,--quiet", o.quiet, "Print only errors");
+  cmd->footer(
+      "Exit status: 0 the estimates were written; 1 invalid set-up or model file (every error "
+      "printed with file, line and key); 2 a model run did not converge; 3 the results could "
+      "not be written; 64 the command line was wrong.");
+  return cmd;
+}
+
+int run_estimate_command(const EstimateOptions& o) {
+  const EstimationReadResult read = read_estimation_file(o.setup_file);
+  int n_errors = 0;
+  for (const Diagnostic& d : read.diagnostics) {
+    std::fprintf(stderr, "%s\n", d.to_string().c_str());
+    if (d.severity == Severity::error) ++n_errors;
+  }
+  if (!read.setup || !read.model) {
+    std::fprintf(stderr, "%d error(s); nothing estimated\n", n_errors);
+    return exit_invalid_model;
+  }
+  const EstimationSetup& setup = *read.setup;
+  EstimationResult result;
+  try {
+    result = estimate_parameters(*read.model, setup);
+  } catch (const std::runtime_error& e) {
+    std::fprintf(stderr, "error: %s\n", e.what());
+    return exit_not_converged;
+  }
+  const std::filesystem::path folder =
+      o.output_folder ? *o.output_folder
+                      : std::filesystem::absolute(o.setup_file).parent_path() / "estimate";
+  try {
+    const OutputFolderLock lock(folder);
+    write_estimation_files(folder, setup, result, std::filesystem::absolute(o.setup_file).string(),
+                           version_string);
+  } catch (const OutputError& e) {
+    std::fprintf(stderr, "error: %s\n", e.what());
+    return exit_output_failure;
+  }
+  if (o.quiet) return exit_success;
+  std::string out = fmt::format(
+      "{} measurement(s), {} parameter(s): {} after {} iteration(s), {} run(s); objective {:.4g} "
+      "-> {:.4g}\n",
+      setup.n_measurements(), setup.parameters.size(),
+      result.fit.converged ? "converged" : "NOT converged", result.fit.n_iterations,
+      result.n_model_runs, result.fit.cost_history.front(), result.fit.weighted_sum_of_squares);
+  for (std::size_t j = 0; j < setup.parameters.size(); ++j) {
+    const auto i = static_cast<Eigen::Index>(j);
+    out += fmt::format("  {:<20} {:.4g} (95 %: {:.4g} .. {:.4g})  css {:.3g}{}\n",
+                       setup.parameters[j].parameter.name, result.fit.parameters[i],
+                       result.fit.lower_95[i], result.fit.upper_95[i], result.css[i],
+                       result.fit.at_bound[j] ? "  at a bound" : "");
+  }
+  for (const std::string& w : result.warnings) out += "  warning: " + w + "\n";
+  out += fmt::format("Results in {}\n", folder.string());
+  std::fputs(out.c_str(), stdout);
+  return exit_success;
+}
+
+}  // namespace aquiledger

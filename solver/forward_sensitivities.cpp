@@ -1,0 +1,168 @@
+#include "solver/forward_sensitivities.hpp"
+
+#include <cmath>
+#include <stdexcept>
+
+#include "solver/face_table.hpp"
+#include "solver/flow_system.hpp"
+#include "solver/linear_solver.hpp"
+#include "solver/storage_function.hpp"
+#include "solver/stress_flows.hpp"
+
+namespace aquiledger {
+namespace {
+
+std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
+
+/// 1 per grid cell a cell parameter sets.
+std::vector<std::uint8_t> cell_mask(const Model& model, const ModelParameter& p) {
+  std::vector<std::uint8_t> mask(static_cast<std::size_t>(model.grid.n_cells()), 0);
+  for (int c : p.cells) mask[static_cast<std::size_t>(c)] = 1;
+  return mask;
+}
+
+FeatureKind feature_kind(ParameterProperty property) {
+  switch (property) {
+    case ParameterProperty::recharge:
+      return FeatureKind::recharge;
+    case ParameterProperty::river_conductance:
+      return FeatureKind::river;
+    case ParameterProperty::drain_conductance:
+      return FeatureKind::drain;
+    default:
+      return FeatureKind::external_head;
+  }
+}
+
+/// Follows the run: after each accepted step, the sensitivity system of that step.
+class SensitivityTracker : public SimulationObserver {
+ public:
+  SensitivityTracker(const Model& model, std::span<const ModelParameter> parameters,
+                     SensitivityObserver& observer)
+      : model_(model),
+        parameters_(parameters),
+        observer_(observer),
+        layout_(make_system_layout(model)),
+        system_(model, layout_),
+        linear_(system_.symmetric() ? make_cholmod_solver() : make_umfpack_solver()) {
+    const auto n = static_cast<std::size_t>(model.grid.n_cells());
+    s_.assign(parameters.size(), std::vector<double>(n, 0.0));
+    for (auto& s : s_)
+      for (std::size_t i = 0; i < n; ++i)
+        if (!model.grid.is_active(CellIndex{static_cast<std::int32_t>(i)})) s[i] = std::nan("");
+    x_.setZero(system_.n_unknowns());
+  }
+
+  void initial_state(std::span<const double> head) override {
+    if (model_.initial.steady) solve_step(0, true, 1.0, head, head);
+    observer_.state(nullptr, head, s_);
+  }
+  void step_done(const StepInfo& info, std::span<const double> head_old,
+                 std::span<const double> head_new) override {
+    solve_step(info.period, info.steady, info.dt, head_old, head_new);
+    observer_.state(&info, head_new, s_);
+  }
+  void period_done(std::size_t) override {}
+
+  long solves() const { return solves_; }
+  long factorizations() const { return linear_->factorizations(); }
+
+ private:
+  void solve_step(std::size_t period, bool steady, double dt, std::span<const double> h_old,
+                  std::span<const double> h) {
+    system_.set_step(period, steady, dt, h_old);
+    system_.assemble(h);
+    const int n = system_.n_unknowns();
+    for (std::size_t k = 0; k < parameters_.size(); ++k) {
+      residual_log_slope(model_, layout_, parameters_[k], period, steady, dt, h_old, h, b_);
+      std::vector<double>& s = s_[k];
+      if (!steady)  // dR/dh_old s_old: the storage release's dependence on the start heads
+        for (int u = 0; u < n; ++u) {
+          const CellIndex c = layout_.cell_of_unknown[static_cast<std::size_t>(u)];
+          const double slope = stored_water_slope(cell_storage(model_, c), h_old[at(c)]);
+          b_[u] += layout_.area[at(c)] * slope / dt * s[at(c)];
+        }
+      if (!linear_->solve(system_.matrix(), b_, x_))
+        throw std::runtime_error("sensitivities: the linear solver failed");
+      ++solves_;
+      for (int u = 0; u < n; ++u)
+        s[at(layout_.cell_of_unknown[static_cast<std::size_t>(u)])] = x_[u];
+    }
+  }
+
+  const Model& model_;
+  std::span<const ModelParameter> parameters_;
+  SensitivityObserver& observer_;
+  SystemLayout layout_;
+  FlowSystem system_;
+  std::unique_ptr<LinearSolver> linear_;
+  HeadSensitivities s_;
+  Eigen::VectorXd b_, x_;
+  long solves_ = 0;
+};
+
+}  // namespace
+
+std::size_t feature_position(const Model& model, ParameterProperty property, std::size_t f) {
+  const FeatureKind kind = feature_kind(property);
+  const std::vector<FeatureRef> features = list_features(model);
+  for (std::size_t k = 0; k < features.size(); ++k)
+    if (features[k].kind == kind && features[k].index == f) return k;
+  throw std::invalid_argument("feature_position: no such feature");
+}
+
+void residual_log_slope(const Model& model, const SystemLayout& layout, const ModelParameter& p,
+                        std::size_t period, bool steady, double dt, std::span<const double> h_old,
+                        std::span<const double> h, Eigen::VectorXd& out) {
+  const int n = layout.n_unknowns();
+  out.setZero(n);
+  const RectilinearGrid& g = model.grid;
+  if (!is_cell_property(p.property)) {
+    for (std::size_t f : p.features)
+      for (const CellStressFlow& q :
+           feature_cell_flows(model, layout, period, h, feature_position(model, p.property, f))) {
+        const int u = layout.unknown_of_cell[at(q.cell)];
+        if (u >= 0) out[u] += q.q.value;  // every feature law is linear in its rate or conductance
+      }
+    return;
+  }
+  const std::vector<std::uint8_t> in = cell_mask(model, p);
+  if (p.property == ParameterProperty::conductivity) {
+    for (int u = 0; u < n; ++u) {
+      const CellIndex c = layout.cell_of_unknown[static_cast<std::size_t>(u)];
+      const int row = g.row_col(c).row;
+      for_each_active_neighbour(model, c, [&](CellIndex nb, double factor) {
+        if (!in[at(c)] && !in[at(nb)]) return;
+        const bool east_west = g.row_col(nb).row == row;
+        const FaceElasticity e = face_factor_elasticities(model, c, nb, east_west);
+        const double q = face_flow(model, layout, c, nb, factor, h[at(c)], h[at(nb)]).q;
+        out[u] += q * (in[at(c)] * e.i + in[at(nb)] * e.j);
+      });
+    }
+    return;
+  }
+  if (steady) return;  // storage parameters act only through the storage term
+  const bool yield = p.property == ParameterProperty::specific_yield;
+  for (int u = 0; u < n; ++u) {
+    const CellIndex c = layout.cell_of_unknown[static_cast<std::size_t>(u)];
+    if (!in[at(c)]) continue;
+    // The release -A dW/dt is linear in S (elastic part) and in Sy (drainage part).
+    const StoredWater d = stored_water_change(cell_storage(model, c), h_old[at(c)], h[at(c)]);
+    out[u] -= layout.area[at(c)] * (yield ? d.drainage : d.elastic) / dt;
+  }
+}
+
+SensitivityRun run_with_sensitivities(const Model& model,
+                                      std::span<const ModelParameter> parameters,
+                                      SensitivityObserver& observer) {
+  if (model.aquifer.interbeds)
+    throw std::invalid_argument("sensitivities: models with interbeds are not supported");
+  SensitivityTracker tracker(model, parameters, observer);
+  SensitivityRun result;
+  result.run = run_simulation(model, tracker);
+  result.sensitivity_solves = tracker.solves();
+  result.sensitivity_factorizations = tracker.factorizations();
+  return result;
+}
+
+}  // namespace aquiledger
