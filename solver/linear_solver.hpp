@@ -109,6 +109,11 @@ std::unique_ptr<LinearSolver> make_multigrid_solver(const StructuredUnknowns& gr
 /// last solve's Krylov iterations and the relative residual it reached: the rule both engines'
 /// multigrid paths keep a preconditioner by (solver/multigrid_solver.cpp, where it is measured).
 bool multigrid_rebuild_pays(int iterations, double reached);
+/// The most Krylov iterations worth spending with a kept multigrid preconditioner for a solve
+/// to the relative tolerance: twice what a fresh one needs (beyond that a new set-up pays, by
+/// the same measurement as multigrid_rebuild_pays); a kept one that has not converged by then
+/// is set up anew and the solve restarted.
+int multigrid_kept_iteration_limit(double tolerance);
 
 /// One multigrid V-cycle (hypre PFMG, set as in make_multigrid_solver) over a structured grid
 /// of n_cols columns whose rows are split in bands over the ranks of an MPI communicator: the
