@@ -3,6 +3,9 @@
 // multigrid set-ups and reuses, and the peak memory of every rank.
 //
 //   mpirun -np N distributed_benchmark [--cells 1e6] [--steps 30] [--variant confined|switching]
+//                                      [--linear auto|multigrid|gamg]
+// --linear: the model's linear choice (auto: the engine's own; multigrid: hypre PFMG; gamg:
+// PETSc's GAMG, which the engine takes for every choice other than auto and multigrid).
 // --steps is per period (two periods). One size per run, so that each rank's peak memory is
 // that case's. benchmarks/distributed_benchmark.sh runs the serial engine beside it.
 #include <fmt/format.h>
@@ -46,6 +49,7 @@ int main(int argc, char** argv) {
   double cells = 1e6;
   int steps = 30;
   std::string variant = "confined";
+  LinearChoice linear = LinearChoice::automatic;
   for (int i = 1; i + 1 < argc; i += 2) {
     const std::string key = argv[i], value = argv[i + 1];
     if (key == "--cells")
@@ -54,6 +58,10 @@ int main(int argc, char** argv) {
       steps = std::stoi(value);
     else if (key == "--variant")
       variant = value;
+    else if (key == "--linear" && (value == "auto" || value == "multigrid" || value == "gamg"))
+      linear = value == "auto"        ? LinearChoice::automatic
+               : value == "multigrid" ? LinearChoice::multigrid
+                                      : LinearChoice::direct;
     else {
       std::fprintf(stderr, "unknown option %s\n", key.c_str());
       return 64;
@@ -63,7 +71,8 @@ int main(int argc, char** argv) {
   spec.n_rows = spec.n_cols = static_cast<int>(std::lround(std::sqrt(cells)));
   spec.switching = variant == "switching";
   spec.steps_per_period = steps;
-  const Model model = bench::make_basin(spec);
+  Model model = bench::make_basin(spec);
+  model.solver.linear = linear;
   const auto setup_start = Clock::now();
   DistributedEngine engine(model);
   const double setup = bench::seconds_since(setup_start);

@@ -2,6 +2,7 @@
 
 #include <Eigen/IterativeLinearSolvers>
 #include <algorithm>
+#include <cmath>
 #include <cstdio>
 #include <stdexcept>
 
@@ -71,21 +72,43 @@ std::unique_ptr<LinearSolver> make_bicgstab_solver() {
   return std::make_unique<IterativeSolver<Bicgstab>>("bicgstab");
 }
 
+/// Average reduction of the relative residual per Krylov iteration above which the next solve
+/// first rebuilds the multigrid preconditioner. Measured on the 1e6-cell switching basin
+/// (benchmarks/multigrid_candidates, docs/performance.md): a fresh PFMG reduces by about 0.03
+/// per BiCGSTAB iteration; one set-up costs about as much as two iterations, so rebuilding
+/// pays once a kept one needs about twice the iterations (0.03^(1/2) ~ 0.17; we take 0.1, a
+/// choice of ours).
+constexpr double rebuild_above_rate = 0.1;
+/// Reduction of the relative residual per Krylov iteration with a fresh PFMG (same
+/// measurement: about 0.03 per BiCGSTAB iteration at 1e6 switching cells).
+constexpr double fresh_rate = 0.03;
+
+int multigrid_kept_iteration_limit(double tolerance) {
+  const double fresh =
+      std::ceil(std::log(std::clamp(tolerance, 1e-300, 0.5)) / std::log(fresh_rate));
+  return 2 * std::max(1, static_cast<int>(fresh));
+}
+
+bool multigrid_rebuild_pays(int iterations, double reached) {
+  // Rate per iteration; none when the start already met the tolerance.
+  return iterations > 0 &&
+         std::pow(std::max(reached, 1e-300), 1.0 / iterations) > rebuild_above_rate;
+}
+
 #ifndef AQUILEDGER_HAVE_MULTIGRID
 std::unique_ptr<LinearSolver> make_multigrid_solver(const StructuredUnknowns&, bool) {
   throw std::runtime_error(
       "linear = \"multigrid\": this program was built without the multigrid backend "
       "(-DAQUILEDGER_WITH_HYPRE=ON)");
 }
+std::unique_ptr<BandMultigrid> make_band_multigrid(int, int, int, int) {
+  throw std::runtime_error(
+      "the distributed engine's multigrid: this program was built without the multigrid "
+      "backend (-DAQUILEDGER_WITH_HYPRE=ON)");
+}
 #endif
 
 namespace {
-
-/// Under linear = "auto", non-symmetric systems from this many unknowns go to the multigrid
-/// backend when it is built: the smallest size measured faster than LU (1e4 switching cells,
-/// 0.099 against 0.389 s/step in one session, docs/performance.md). Below, LU is exact and
-/// the process starts no MPI.
-constexpr int multigrid_auto_from = 10'000;
 
 std::string gib(double bytes) {
   char text[32];

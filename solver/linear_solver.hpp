@@ -5,6 +5,7 @@
 #include <Eigen/SparseCore>
 #include <cstdint>
 #include <memory>
+#include <span>
 #include <string>
 #include <vector>
 
@@ -68,7 +69,9 @@ inline constexpr int umfpack_auto_limit = 300'000;
 /// Under linear = "auto", non-symmetric systems from 1e4 unknowns go to the multigrid backend
 /// when it is built (linear_solver.cpp, multigrid_auto_from): measured faster per step than
 /// LU at 1e4 and 1e5 switching cells and than the kept-Cholesky BiCGSTAB at 1e6
-/// (docs/performance.md).
+/// (docs/performance.md). Below, LU is exact and the process starts no MPI. The distributed
+/// engine takes the same size for its own multigrid choice.
+inline constexpr int multigrid_auto_from = 10'000;
 
 std::unique_ptr<LinearSolver> make_cholmod_solver();
 /// Fill-reducing ordering of the Cholesky factorisation: CHOLMOD's own choice, or forced.
@@ -101,6 +104,41 @@ constexpr bool multigrid_available() {
 /// structured-grid multigrid (solver/multigrid_solver.cpp); the preconditioner is kept across
 /// solves while it converges fast. Throws std::runtime_error when not built.
 std::unique_ptr<LinearSolver> make_multigrid_solver(const StructuredUnknowns& grid, bool symmetric);
+
+/// Whether the next solve should first set up its multigrid preconditioner anew, given the
+/// last solve's Krylov iterations and the relative residual it reached: the rule both engines'
+/// multigrid paths keep a preconditioner by (solver/multigrid_solver.cpp, where it is measured).
+bool multigrid_rebuild_pays(int iterations, double reached);
+/// The most Krylov iterations worth spending with a kept multigrid preconditioner for a solve
+/// to the relative tolerance: twice what a fresh one needs (beyond that a new set-up pays, by
+/// the same measurement as multigrid_rebuild_pays); a kept one that has not converged by then
+/// is set up anew and the solve restarted.
+int multigrid_kept_iteration_limit(double tolerance);
+
+/// One multigrid V-cycle (hypre PFMG, set as in make_multigrid_solver) over a structured grid
+/// of n_cols columns whose rows are split in bands over the ranks of an MPI communicator: the
+/// distributed engine's preconditioner. Each rank gives the 5-point stencil of its band's
+/// cells (identity rows for cells without an unknown). The communicator is passed by its
+/// Fortran handle (MPI_Comm_c2f), so that this header needs no MPI. Every call but values()
+/// is collective. Throws std::runtime_error when the multigrid backend is not built.
+class BandMultigrid {
+ public:
+  /// Stencil entries per cell, in this order: the cell, its west, east, north and south
+  /// neighbours (rows counted from the north, as in RectilinearGrid).
+  static constexpr int stencil_size = 5;
+  virtual ~BandMultigrid() = default;
+  /// The band's stencil values, stencil_size per cell in raster order, to be written by the
+  /// caller before load_values().
+  virtual std::span<double> values() = 0;
+  /// Hands the values to the V-cycle: a kept set-up smooths with them on the finest grid.
+  virtual void load_values() = 0;
+  /// Builds the coarse grids and operators for the loaded values.
+  virtual void set_up() = 0;
+  /// z = one V-cycle from zero applied to r, both over the band's cells in raster order.
+  virtual void apply(const double* r, double* z) = 0;
+};
+std::unique_ptr<BandMultigrid> make_band_multigrid(int comm_handle, int n_cols, int first_row,
+                                                   int n_rows);
 
 struct LinearSolverChoice {
   std::unique_ptr<LinearSolver> solver;
