@@ -34,7 +34,7 @@ inline Model make_basin(const BasinSpec& spec) {
   a.condition = spec.switching ? Condition::switching : Condition::confined;
   a.top.assign(n, 40.0);
   a.bottom.assign(n, 0.0);
-  a.kx.resize(n);
+  a.kx.assign(n, 0.0);
   const double lx = spec.n_cols * cell, ly = spec.n_rows * cell;
   for (int r = 0; r < spec.n_rows; ++r)
     for (int c = 0; c < spec.n_cols; ++c) {

@@ -33,7 +33,7 @@ KernelTimes time_kernels(const bench::BasinSpec& spec, int threads, int repeats)
   const SystemLayout layout = make_system_layout(model);
   FlowSystem system(model, layout);
   // A head field that is not uniform, part below the top in the switching variant.
-  std::vector<double> head_old(model.initial.head), head(model.initial.head);
+  std::vector<double> head_old(model.initial.head.values()), head(model.initial.head.values());
   for (std::size_t i = 0; i < head.size(); ++i)
     head[i] -= 1.0 * std::sin(0.001 * static_cast<double>(i));
   system.set_step(0, false, 12.0, head_old);

@@ -9,6 +9,7 @@
 #include <cstdint>
 #include <span>
 #include <type_traits>
+#include <utility>
 #include <vector>
 
 #include "mesh/rectilinear_grid.hpp"
@@ -67,5 +68,52 @@ class CellWindow {
 
 /// Heads (or any per-cell value) read by the kernels' callers.
 using CellValues = CellWindow<const double>;
+
+/// A per-cell array that owns the values of a contiguous run of grid cells and is indexed by
+/// grid cell: the model's per-cell inputs. The serial engine holds every cell (first 0); a
+/// distributed rank reads and holds only its window of rows (its band and ghost rows).
+template <class T>
+class CellArray {
+ public:
+  CellArray() = default;
+  CellArray(std::vector<T> values, std::int32_t first = 0)
+      : values_(std::move(values)), first_(first) {}
+  /// A whole-grid array (from cell 0).
+  CellArray& operator=(std::vector<T> values) {
+    values_ = std::move(values);
+    first_ = 0;
+    return *this;
+  }
+  /// n values from cell 0 (a whole grid of n cells).
+  void assign(std::size_t n, const T& value) {
+    values_.assign(n, value);
+    first_ = 0;
+  }
+
+  T& operator[](std::size_t cell) {
+    assert(holds(cell));
+    return values_[cell - static_cast<std::size_t>(first_)];
+  }
+  const T& operator[](std::size_t cell) const {
+    assert(holds(cell));
+    return values_[cell - static_cast<std::size_t>(first_)];
+  }
+  bool holds(std::size_t cell) const {
+    return cell >= static_cast<std::size_t>(first_) && cell - first_ < values_.size();
+  }
+  bool empty() const { return values_.empty(); }
+  /// Number of cells held (the grid's cell count when whole).
+  std::size_t size() const { return values_.size(); }
+  std::int32_t first() const { return first_; }  ///< grid cell of the first value
+  std::int32_t end() const { return first_ + static_cast<std::int32_t>(values_.size()); }
+  const std::vector<T>& values() const { return values_; }
+  std::vector<T>& values() { return values_; }
+  CellWindow<const T> cells() const { return {std::span<const T>(values_), first_}; }
+  CellWindow<T> cells() { return {std::span<T>(values_), first_}; }
+
+ private:
+  std::vector<T> values_;
+  std::int32_t first_ = 0;
+};
 
 }  // namespace aquiledger

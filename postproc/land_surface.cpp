@@ -8,7 +8,7 @@ namespace aquiledger {
 HeadsAboveSurface heads_above_land_surface(const Model& model, const GridPart& part,
                                            CellValues head, std::size_t n_worst) {
   HeadsAboveSurface out;
-  const std::vector<double>& ground = model.aquifer.land_surface;
+  const CellArray<double>& ground = model.aquifer.land_surface;
   if (ground.empty()) return out;
   for (std::int32_t i = part.first_owned(); i < part.end_owned(); ++i) {
     const CellIndex c{i};
@@ -24,7 +24,7 @@ HeadsAboveSurface heads_above_land_surface(const Model& model, const GridPart& p
 }
 
 std::vector<double> depth_to_water(const Model& model, const GridPart& part, CellValues head) {
-  const std::vector<double>& ground = model.aquifer.land_surface;
+  const CellArray<double>& ground = model.aquifer.land_surface;
   if (ground.empty()) return {};
   std::vector<double> depth(part.n_owned(), std::nan(""));
   for (std::size_t k = 0; k < depth.size(); ++k) {

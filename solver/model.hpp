@@ -6,6 +6,7 @@
 #include <string>
 #include <vector>
 
+#include "mesh/grid_part.hpp"
 #include "mesh/rectilinear_grid.hpp"
 #include "solver/face_conductance.hpp"
 #include "solver/period_values.hpp"
@@ -41,15 +42,15 @@ inline double skeleton_share_of_storage(const Compressibility& c, double alpha, 
 }
 
 /// Fine-grained interbeds within the aquifer that equilibrate with the cell's head within a
-/// step (no delay). Per-cell arrays have n_cells entries; docs/subsidence.md.
+/// step (no delay). Per-cell arrays as Aquifer's; docs/subsidence.md.
 struct Interbeds {
-  std::vector<double> thickness;          ///< L, total thickness of the beds in the cell
-  std::vector<double> elastic_storage;    ///< 1/L, Ske, elastic skeletal specific storage
-  std::vector<double> inelastic_storage;  ///< 1/L, Skv, inelastic skeletal specific storage
+  CellArray<double> thickness;          ///< L, total thickness of the beds in the cell
+  CellArray<double> elastic_storage;    ///< 1/L, Ske, elastic skeletal specific storage
+  CellArray<double> inelastic_storage;  ///< 1/L, Skv, inelastic skeletal specific storage
   /// L, the initial preconsolidation head per cell; empty when given as an offset below the
   /// initial head instead. A value above the initial head is lowered to it (the beds have
   /// already been at that head).
-  std::vector<double> preconsolidation;
+  CellArray<double> preconsolidation;
   double preconsolidation_offset = 0.0;  ///< L, >= 0, used when preconsolidation is empty
 };
 
@@ -62,27 +63,28 @@ inline double initial_preconsolidation(const Interbeds& ib, std::size_t i, doubl
 
 struct Aquifer {
   Condition condition = Condition::confined;
-  /// All per-cell arrays have n_cells entries in raster order (inactive cells included).
-  std::vector<double> top;               ///< L; NaN where absent (water_table without top)
-  std::vector<double> bottom;            ///< L
-  std::vector<double> kx;                ///< L/T, hydraulic conductivity along x
-  std::vector<double> ky;                ///< L/T, kx * k_ratio
-  std::vector<double> specific_yield;    ///< -, empty when confined
-  std::vector<double> specific_storage;  ///< 1/L, total elastic storage, every route
+  /// Per-cell arrays in raster order (inactive cells included), indexed by grid cell: every
+  /// cell of the grid, or (a distributed rank) the rows of its window only (CellArray).
+  CellArray<double> top;               ///< L; NaN where absent (water_table without top)
+  CellArray<double> bottom;            ///< L
+  CellArray<double> kx;                ///< L/T, hydraulic conductivity along x
+  CellArray<double> ky;                ///< L/T, kx * k_ratio
+  CellArray<double> specific_yield;    ///< -, empty when confined
+  CellArray<double> specific_storage;  ///< 1/L, total elastic storage, every route
   /// Share of the elastic storage from skeleton compression, alpha / (alpha + n beta);
   /// filled only on the compressibility route (then the budget splits skeleton and water).
-  std::vector<double> skeleton_share;
+  CellArray<double> skeleton_share;
   /// L; ground elevation, empty when the model gives none (reports and warnings only:
   /// heads above it mean flooding or flowing artesian conditions).
-  std::vector<double> land_surface;
+  CellArray<double> land_surface;
   std::optional<Compressibility> compressibility;  ///< set on the compressibility route
   std::optional<Interbeds> interbeds;              ///< set when the model has interbeds
   bool elastic_split() const { return !skeleton_share.empty(); }
 };
 
 struct Initial {
-  bool steady = false;       ///< start from the steady state of period 1's stresses
-  std::vector<double> head;  ///< L, n_cells (empty when steady)
+  bool steady = false;     ///< start from the steady state of period 1's stresses
+  CellArray<double> head;  ///< L, per cell as Aquifer's arrays (empty when steady)
 };
 
 struct Period {
@@ -228,6 +230,10 @@ struct Model {
   std::vector<Observation> subsidence_points;
   OutputSettings output;
   SolverSettings solver;
+  /// Set when the reader kept one band of rows of the per-cell inputs (a distributed rank):
+  /// the rank's rows (owned) and the rows its per-cell arrays hold (window: with the ghost
+  /// rows). Unset: every array holds the whole grid.
+  std::optional<GridPart> band;
   std::vector<ZoneMap> zone_maps;     ///< aquifer properties given by zones (reports only)
   std::vector<std::string> warnings;  ///< from the reader's plausibility checks
   /// Every other file the model was read from (array, zone and measured-head files), sorted;

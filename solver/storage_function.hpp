@@ -150,7 +150,7 @@ inline CellStorage cell_storage(const Model& model, CellIndex c, double preconso
   CellStorage s;
   s.condition = aq.condition;
   s.bottom = aq.bottom[i];
-  s.top = i < aq.top.size() ? aq.top[i] : 0.0;
+  s.top = aq.top.empty() ? 0.0 : aq.top[i];
   if (aq.condition != Condition::water_table)
     s.storativity = aq.specific_storage[i] * (s.top - s.bottom);
   if (aq.condition != Condition::confined) s.specific_yield = aq.specific_yield[i];

@@ -17,20 +17,28 @@ SystemLayout make_system_layout(const Model& model) {
       if (grid.is_active(c)) layout.fixed[static_cast<std::size_t>(c.value)] = 1;
 
   layout.unknown_of_cell.assign(n, -1);
-  layout.area.assign(n, 0.0);
-  layout.full_thickness.assign(n, std::nan(""));
-  layout.smoothing_length.assign(n, 0.0);
-  layout.reduction_length.assign(n, 0.0);
+  const GridPart held = model.band ? *model.band : GridPart::whole(grid);
+  const auto first = held.first_held();
+  auto held_array = [&](double value) {
+    return CellArray<double>(std::vector<double>(held.n_held(), value), first);
+  };
+  layout.area = held_array(0.0);
+  layout.full_thickness = held_array(std::nan(""));
+  layout.smoothing_length = held_array(0.0);
+  layout.reduction_length = held_array(0.0);
   const Aquifer& aq = model.aquifer;
-  for (std::size_t i = 0; i < n; ++i) {
+  for (auto i = static_cast<std::size_t>(first); i < first + held.n_held(); ++i) {
     const CellIndex c{static_cast<std::int32_t>(i)};
     layout.area[i] = grid.area(c);
-    const bool has_top = i < aq.top.size() && std::isfinite(aq.top[i]);
+    const bool has_top = aq.top.holds(i) && std::isfinite(aq.top[i]);
     if (has_top) layout.full_thickness[i] = aq.top[i] - aq.bottom[i];
     // A water-table cell without a top has no natural thickness scale: use a fixed one.
     const double scale = has_top ? layout.full_thickness[i] : reference_thickness_without_top;
     layout.smoothing_length[i] = smoothing_fraction * scale;
     layout.reduction_length[i] = reduction_fraction * scale;
+  }
+  for (std::size_t i = 0; i < n; ++i) {
+    const CellIndex c{static_cast<std::int32_t>(i)};
     if (!grid.is_active(c) || layout.fixed[i]) continue;
     layout.unknown_of_cell[i] = static_cast<std::int32_t>(layout.cell_of_unknown.size());
     layout.cell_of_unknown.push_back(c);

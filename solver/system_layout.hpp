@@ -14,13 +14,15 @@ struct SystemLayout {
   std::vector<std::uint8_t> fixed;            ///< per grid cell: 1 when held by a fixed_head
   std::vector<std::int32_t> unknown_of_cell;  ///< per grid cell: equation number, -1 if none
   std::vector<CellIndex> cell_of_unknown;     ///< per equation: its grid cell
-  std::vector<double> area;                   ///< L2 per grid cell
-  /// L per grid cell: full saturated thickness top - bottom (NaN when there is no top).
-  std::vector<double> full_thickness;
-  /// L per grid cell: width of the smoothing of saturated thickness near the base and top.
-  std::vector<double> smoothing_length;
-  /// L per grid cell: saturated thickness below which withdrawals are reduced smoothly.
-  std::vector<double> reduction_length;
+  // The arrays below hold the cells whose aquifer arrays the model holds (every cell, or a
+  // distributed rank's window of rows: Model::band); the numbering above is the whole grid's.
+  CellArray<double> area;  ///< L2 per cell
+  /// L per cell: full saturated thickness top - bottom (NaN when there is no top).
+  CellArray<double> full_thickness;
+  /// L per cell: width of the smoothing of saturated thickness near the base and top.
+  CellArray<double> smoothing_length;
+  /// L per cell: saturated thickness below which withdrawals are reduced smoothly.
+  CellArray<double> reduction_length;
   int n_unknowns() const { return static_cast<int>(cell_of_unknown.size()); }
 };
 

@@ -3,6 +3,7 @@
 
 #include <cstdio>
 #include <string>
+#include <vector>
 
 #include "solver/distributed/petsc_engine.hpp"
 
@@ -14,6 +15,14 @@ class PetscRunEngine final : public RunEngine {
  public:
   PetscRunEngine() : runtime_(nullptr, nullptr) {}
   bool root() const override { return runtime_.rank() == 0; }
+  BandOfGrid band_of() const override {
+    // More ranks than rows is refused once the model is read (unsupported); until then the
+    // rank reads every row.
+    return [ranks = runtime_.n_ranks(), rank = runtime_.rank()](int n_rows, int n_cols) {
+      return ranks <= n_rows ? rank_part(n_rows, n_cols, ranks, rank)
+                             : GridPart{n_cols, {0, n_rows}, {0, n_rows}};
+    };
+  }
   const char* name() const override { return "petsc"; }
   std::string unsupported(const Model& model) const override {
     if (model.output.geotiff)
@@ -35,6 +44,14 @@ class PetscRunEngine final : public RunEngine {
   int rank() const override { return runtime_.rank(); }
   int n_ranks() const override { return runtime_.n_ranks(); }
   bool any(bool flag) override { return runtime_.reduction().any(flag); }
+  int lowest_rank_with(bool flag) override {
+    std::vector<double> flags(static_cast<std::size_t>(runtime_.n_ranks()), 0.0);
+    flags[static_cast<std::size_t>(runtime_.rank())] = flag ? 1.0 : 0.0;
+    runtime_.reduction().sum(flags);
+    for (std::size_t r = 0; r < flags.size(); ++r)
+      if (flags[r] > 0.0) return static_cast<int>(r);
+    return -1;
+  }
   std::string process_label() const override {
     return "rank " + std::to_string(runtime_.rank()) + " of " + std::to_string(runtime_.n_ranks()) +
            ": ";

@@ -7,6 +7,7 @@
 #include <optional>
 #include <string>
 
+#include "io/model_file/model_reader.hpp"
 #include "io/results/result_recorder.hpp"
 #include "solver/simulation.hpp"
 
@@ -19,6 +20,8 @@ class RunEngine {
   virtual bool root() const { return true; }
   /// A name for the summary ("serial", "petsc").
   virtual const char* name() const { return "serial"; }
+  /// The rows of the per-cell inputs this process reads and holds (empty: every row).
+  virtual BandOfGrid band_of() const { return {}; }
   /// Why this engine cannot run the model (empty when it can).
   virtual std::string unsupported(const Model&) const { return {}; }
   /// Collective in a distributed run: splits the grid and makes this process's recorder.
@@ -32,6 +35,8 @@ class RunEngine {
   }
   /// True on every process when flag is true on any (a distributed run decides together).
   virtual bool any(bool flag) { return flag; }
+  /// The lowest rank on which flag is true, -1 when none (collective).
+  virtual int lowest_rank_with(bool flag) { return flag ? 0 : -1; }
   /// This process's rank and the number of processes of the run (0 and 1 when serial).
   virtual int rank() const { return 0; }
   virtual int n_ranks() const { return 1; }

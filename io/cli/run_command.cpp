@@ -258,11 +258,17 @@ int run_run_command(const RunOptions& options) {
   const auto start = Clock::now();
   std::unique_ptr<RunEngine> engine = choose_engine(options);
   if (!engine) return exit_usage;
-  // In a distributed run every rank reads the whole model; rank 0 alone prints and writes
-  // the tables and the summary.
+  // In a distributed run every rank reads the model's settings and features and its own band
+  // of the per-cell inputs; rank 0 alone prints and writes the tables and the summary.
   const bool root = engine->root();
-  ReadResult result = read_model_file(options.model_file);
-  if (!print_model_diagnostics(result, root)) return exit_invalid_model;
+  ReadResult result = read_model_file(options.model_file, engine->band_of());
+  // A rank finds the errors of its own rows: the ranks decide together, and the lowest rank
+  // with errors prints its diagnostics (those of every rank when the error is not in a band).
+  const int printer = engine->lowest_rank_with(!result.ok());
+  if (printer >= 0) {
+    print_model_diagnostics(result, engine->rank() == printer);
+    return exit_invalid_model;
+  }
   Model& model = *result.model;
   if (options.threads) model.solver.threads = *options.threads;
   if (const std::string why = engine->unsupported(model); !why.empty()) {

@@ -17,11 +17,14 @@ bool any_transient(const Model& model) {
   return model.periods.empty();
 }
 
-double active_mean(const ReaderContext& ctx, const std::vector<double>& v) {
+/// The mean over the active cells the field holds (a band's only, when reading a band).
+double active_mean(const ReaderContext& ctx, const CellField& f) {
   double sum = 0.0;
   int n = 0;
-  for (std::size_t c = 0; c < v.size(); ++c)
-    if (ctx.grid->is_active(CellIndex{static_cast<std::int32_t>(c)})) sum += v[c], ++n;
+  const auto first = static_cast<std::size_t>(f.first);
+  for (std::size_t k = 0; k < f.values.size(); ++k)
+    if (ctx.grid->is_active(CellIndex{static_cast<std::int32_t>(first + k)}))
+      sum += f.values[k], ++n;
   return n > 0 ? sum / n : 0.0;
 }
 
@@ -64,16 +67,16 @@ void read_compressibility(ReaderContext& ctx, const toml::node& node, Model& mod
   if (!ok || !ctx.grid) return;
   const double metres_per_unit = metres_per_length_unit(model.length_unit);  // 1/m -> 1/L
   Aquifer& a = model.aquifer;
-  const std::size_t n_cells = alpha->values.size();
-  a.specific_storage.resize(n_cells);
-  a.skeleton_share.resize(n_cells);
-  for (std::size_t i = 0; i < n_cells; ++i) {
-    a.specific_storage[i] =
-        specific_storage_per_metre(c, alpha->values[i], n->values[i]) * metres_per_unit;
-    a.skeleton_share[i] = skeleton_share_of_storage(c, alpha->values[i], n->values[i]);
+  const std::size_t n_held = alpha->values.size();
+  std::vector<double> ss(n_held), share(n_held);
+  for (std::size_t k = 0; k < n_held; ++k) {
+    ss[k] = specific_storage_per_metre(c, alpha->values[k], n->values[k]) * metres_per_unit;
+    share[k] = skeleton_share_of_storage(c, alpha->values[k], n->values[k]);
   }
-  c.skeleton = active_mean(ctx, alpha->values);
-  c.porosity = active_mean(ctx, n->values);
+  a.specific_storage = CellArray<double>(std::move(ss), alpha->first);
+  a.skeleton_share = CellArray<double>(std::move(share), alpha->first);
+  c.skeleton = active_mean(ctx, *alpha);
+  c.porosity = active_mean(ctx, *n);
   a.compressibility = c;
 }
 
@@ -233,8 +236,9 @@ void read_aquifer(ReaderContext& ctx, const toml::table& root, Model& model) {
 
   // Everything checked: the per-cell arrays of the model.
   const std::size_t n = g.k->values.size();
-  a.kx = g.k->values;
-  a.ky = g.k->values;
+  const std::int32_t first = g.k->first;  // every field of the section holds the same rows
+  a.kx = CellArray<double>(g.k->values, first);
+  a.ky = CellArray<double>(g.k->values, first);
   for (const auto* f : {&g.k, &sy, &ss})
     if (*f && !(*f)->zone.empty())
       model.zone_maps.push_back({f == &g.k  ? "k"
@@ -242,13 +246,14 @@ void read_aquifer(ReaderContext& ctx, const toml::table& root, Model& model) {
                                             : "specific_storage",
                                  (*f)->zone});
   if (g.ratio)
-    for (std::size_t c = 0; c < n; ++c) a.ky[c] *= g.ratio->values[c];
-  a.bottom = std::move(g.bottom->values);
-  a.top = g.top ? std::move(g.top->values) : std::vector<double>(n, std::nan(""));
-  if (sy && needs_sy) a.specific_yield = std::move(sy->values);
-  if (ss) a.specific_storage = std::move(ss->values);
-  if (a.specific_storage.empty()) a.specific_storage.assign(n, 0.0);
-  if (land) a.land_surface = std::move(land->values);
+    for (std::size_t k = 0; k < n; ++k) a.ky.values()[k] *= g.ratio->values[k];
+  a.bottom = g.bottom->take();
+  a.top = g.top ? g.top->take() : CellArray<double>(std::vector<double>(n, std::nan("")), first);
+  if (sy && needs_sy) a.specific_yield = sy->take();
+  if (ss) a.specific_storage = ss->take();
+  if (a.specific_storage.empty())
+    a.specific_storage = CellArray<double>(std::vector<double>(n), first);
+  if (land) a.land_surface = land->take();
 }
 
 }  // namespace aquiledger

@@ -12,6 +12,15 @@ namespace aquiledger {
 const ArraySource* load_cached(ReaderContext& ctx, const std::filesystem::path& file,
                                const SourceSpot& at, const std::string& key) {
   auto it = ctx.array_cache.find(file);
+  // A file read for other rows than those wanted now (the active mask and the features take
+  // whole grids, the per-cell sections a band) is read again for these.
+  const auto rows = [](const std::optional<RowBand>& b) {
+    return b ? std::pair{b->first, b->count} : std::pair{-1, -1};
+  };
+  if (it != ctx.array_cache.end() && rows(it->second.band) != rows(ctx.band)) {
+    ctx.array_cache.erase(it);
+    it = ctx.array_cache.end();
+  }
   if (it == ctx.array_cache.end()) {
     // No array can need more values than the grid has cells.
     // (dx and dy files are read before the grid is known: at most 10 million values.)

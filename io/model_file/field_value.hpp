@@ -23,6 +23,8 @@ struct CellField {
   std::vector<int> zone;       ///< zone number per value when given by zones (0 = none)
   /// The values indexed by grid cell.
   CellWindow<const double> cells() const { return {std::span<const double>(values), first}; }
+  /// Moves the values out as a per-cell array of the model (from grid cell `first`).
+  CellArray<double> take() { return {std::move(values), first}; }
 };
 
 /// Reads a field value; needs ctx.shape. Returns nullopt (after reporting) when invalid.

@@ -74,8 +74,12 @@ bool read_grid_shape(ReaderContext& ctx, const toml::table& root) {
         "nrow x ncol = " + show_number(n_cells) + " cells; at most 2147483647 cells are supported");
     return false;
   }
+  // A process that keeps one band of rows needs the memory of its rows only.
+  if (ctx.band_of) ctx.part = ctx.band_of(static_cast<int>(*nrow), static_cast<int>(*ncol));
+  const double n_held =
+      ctx.part ? static_cast<double>(ctx.part->n_held()) : static_cast<double>(n_cells);
   if (auto memory = usable_memory_bytes()) {
-    if (auto refusal = memory_refusal(n_cells, *memory)) {
+    if (auto refusal = memory_refusal(n_held, *memory, ctx.part.has_value())) {
       ctx.error(*t->get("nrow"), path + ".nrow", *refusal);
       return false;
     }

@@ -41,7 +41,7 @@ void read_initial(ReaderContext& ctx, const toml::table& root, Model& model) {
           "a head; " + show_number(head_array_no_value) +
               " marks a cell that was inactive in the run that wrote the head array"))
     return;
-  if (!ctx.diagnostics.has_errors()) model.initial.head = std::move(head->values);
+  if (!ctx.diagnostics.has_errors()) model.initial.head = head->take();
 }
 
 }  // namespace aquiledger

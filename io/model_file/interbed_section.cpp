@@ -39,12 +39,13 @@ void read_interbeds(ReaderContext& ctx, const toml::table& root, Model& model) {
   // Thickness within the aquifer where it has a top.
   if (b && ok && model.aquifer.top.size() == b->values.size() &&
       model.aquifer.bottom.size() == b->values.size())
-    for (std::size_t i = 0; i < b->values.size(); ++i) {
+    for (std::size_t k = 0; k < b->values.size(); ++k) {
+      const std::size_t i = k + static_cast<std::size_t>(b->first);  // grid cell
       const double full = model.aquifer.top[i] - model.aquifer.bottom[i];
       if (ctx.grid && ctx.grid->is_active(CellIndex{static_cast<std::int32_t>(i)}) &&
-          std::isfinite(full) && b->values[i] > full) {
+          std::isfinite(full) && b->values[k] > full) {
         ctx.error(field_cell_spot(*b, ctx.grid->n_cols(), static_cast<int>(i)), path + ".thickness",
-                  "value " + show_number(b->values[i]) + " in row " +
+                  "value " + show_number(b->values[k]) + " in row " +
                       std::to_string(i / static_cast<std::size_t>(ctx.grid->n_cols()) + 1) +
                       ", col " +
                       std::to_string(i % static_cast<std::size_t>(ctx.grid->n_cols()) + 1) +
@@ -70,7 +71,7 @@ void read_interbeds(ReaderContext& ctx, const toml::table& root, Model& model) {
         pc && check_field(
                   ctx, *pc, path + ".preconsolidation_head",
                   [](double v) { return std::isfinite(v); }, "an elevation in " + ctx.length_unit);
-    if (pc) ib.preconsolidation = std::move(pc->values);
+    if (pc) ib.preconsolidation = pc->take();
   } else {
     const auto offset = read_number(ctx, *t, "preconsolidation_below_initial", path, true);
     if (offset && !(*offset >= 0.0)) {
@@ -82,9 +83,9 @@ void read_interbeds(ReaderContext& ctx, const toml::table& root, Model& model) {
     if (offset) ib.preconsolidation_offset = *offset;
   }
   if (!ok || ctx.diagnostics.has_errors()) return;
-  ib.thickness = std::move(b->values);
-  ib.elastic_storage = std::move(ske->values);
-  ib.inelastic_storage = std::move(skv->values);
+  ib.thickness = b->take();
+  ib.elastic_storage = ske->take();
+  ib.inelastic_storage = skv->take();
   model.aquifer.interbeds = std::move(ib);
 }
 

@@ -48,16 +48,16 @@ std::optional<std::string> work_refusal(double n_cells, double n_steps) {
   return std::string(text);
 }
 
-std::optional<std::string> memory_refusal(double n_cells, double available_bytes) {
+std::optional<std::string> memory_refusal(double n_cells, double available_bytes, bool band) {
   const double needed = n_cells * bytes_per_cell_estimate;
   if (needed <= available_bytes) return std::nullopt;
-  char text[256];
-  std::snprintf(
-      text, sizeof text,
-      "a grid of %.0f cells needs about %.1f GiB (about 1 KiB per cell), but only %.1f GiB "
-      "of memory is usable here (the least of the physical memory, the control-group "
-      "limit and AQUILEDGER_MEMORY_LIMIT_MB)",
-      n_cells, needed / 1073741824.0, available_bytes / 1073741824.0);
+  char text[320];
+  std::snprintf(text, sizeof text,
+                "%s %.0f cells needs about %.1f GiB (about 1 KiB per cell), but only %.1f GiB "
+                "of memory is usable here (the least of the physical memory, the control-group "
+                "limit and AQUILEDGER_MEMORY_LIMIT_MB)",
+                band ? "this process's band of rows of" : "a grid of", n_cells,
+                needed / 1073741824.0, available_bytes / 1073741824.0);
   return std::string(text);
 }
 

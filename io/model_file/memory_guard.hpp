@@ -26,6 +26,8 @@ inline constexpr double max_cell_steps = 1.0e12;
 std::optional<std::string> work_refusal(double n_cells, double n_steps);
 
 /// An explanation when n_cells need more memory than `available` bytes, else nullopt.
-std::optional<std::string> memory_refusal(double n_cells, double available_bytes);
+/// `band`: the cells are one process's band of rows of a distributed run.
+std::optional<std::string> memory_refusal(double n_cells, double available_bytes,
+                                          bool band = false);
 
 }  // namespace aquiledger

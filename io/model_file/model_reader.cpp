@@ -36,9 +36,13 @@ void read_sections(ReaderContext& ctx, const toml::table& root, Model& model) {
   // keys and scalar values.
   if (read_grid_shape(ctx, root)) read_active_mask(ctx, root, model);
   read_periods(ctx, root, model);
+  // The per-cell sections keep the band's window of rows (every row when no band is given).
+  if (ctx.part) ctx.band = ctx.part->window;
   read_aquifer(ctx, root, model);
   read_interbeds(ctx, root, model);
   read_initial(ctx, root, model);
+  ctx.band.reset();
+  model.band = ctx.part;
   read_fixed_heads(ctx, root, model);
   read_wells(ctx, root, model);
   read_recharges(ctx, root, model);
@@ -88,8 +92,10 @@ ReadResult read_parsed(ReaderContext& ctx, const toml::table& root) {
 
 }  // namespace
 
-ReadResult read_model_text(std::string_view toml_text, const std::filesystem::path& as_if_path) {
+ReadResult read_model_text(std::string_view toml_text, const std::filesystem::path& as_if_path,
+                           const BandOfGrid& band_of) {
   ReaderContext ctx;
+  ctx.band_of = band_of;
   ctx.model_file = as_if_path;
   ctx.base_dir = as_if_path.parent_path();
   if (ctx.base_dir.empty()) ctx.base_dir = ".";
@@ -104,7 +110,7 @@ ReadResult read_model_text(std::string_view toml_text, const std::filesystem::pa
   }
 }
 
-ReadResult read_model_file(const std::filesystem::path& path) {
+ReadResult read_model_file(const std::filesystem::path& path, const BandOfGrid& band_of) {
   if (auto refusal = input_file_refusal(path, max_model_file_bytes)) {
     ReadResult result;
     result.diagnostics.push_back({Severity::error, path, 0, 0, "", "model file " + *refusal});
@@ -118,7 +124,7 @@ ReadResult read_model_file(const std::filesystem::path& path) {
   }
   std::ostringstream text;
   text << in.rdbuf();
-  return read_model_text(text.str(), std::filesystem::absolute(path).lexically_normal());
+  return read_model_text(text.str(), std::filesystem::absolute(path).lexically_normal(), band_of);
 }
 
 }  // namespace aquiledger

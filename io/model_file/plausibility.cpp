@@ -10,12 +10,13 @@
 namespace aquiledger {
 
 std::pair<double, double> active_range(const RectilinearGrid& grid,
-                                       const std::vector<double>& values) {
+                                       const CellArray<double>& values) {
   double lo = std::numeric_limits<double>::infinity(), hi = -lo;
-  for (int c = 0; c < grid.n_cells() && std::size_t(c) < values.size(); ++c) {
-    if (!grid.is_active(CellIndex{c}) || std::isnan(values[std::size_t(c)])) continue;
-    lo = std::min(lo, values[std::size_t(c)]);
-    hi = std::max(hi, values[std::size_t(c)]);
+  for (int c = values.first(); c < grid.n_cells() && c < values.end(); ++c) {
+    const double v = values[std::size_t(c)];
+    if (!grid.is_active(CellIndex{c}) || std::isnan(v)) continue;
+    lo = std::min(lo, v);
+    hi = std::max(hi, v);
   }
   if (lo > hi) return {std::nan(""), std::nan("")};
   return {lo, hi};
@@ -62,11 +63,14 @@ std::vector<PlausibilityWarning> plausibility_warnings(const Model& model) {
   std::vector<PlausibilityWarning> out;
   const RectilinearGrid& g = model.grid;
   const Aquifer& a = model.aquifer;
+  // Over the rows this process read: every row, or a distributed rank's own band (the ranges
+  // and counts of the other bands are checked by their ranks).
+  const GridPart part = model.band ? *model.band : GridPart::whole(g);
   // Ranges of common practice (from memory; typical values in groundwater hydrology texts):
   // confined storativity 1e-5 to 1e-3, specific yield 0.01 to 0.35, K 1e-4 to 1e4 m/d.
   if (a.condition != Condition::water_table && !a.top.empty()) {
-    std::vector<double> s(a.specific_storage.size());
-    for (std::size_t c = 0; c < s.size(); ++c)
+    CellArray<double> s(std::vector<double>(a.specific_storage.size()), a.specific_storage.first());
+    for (auto c = std::size_t(s.first()); c < std::size_t(s.end()); ++c)
       s[c] = a.specific_storage[c] * (a.top[c] - a.bottom[c]);
     auto r = active_range(g, s);
     if (!(r.first == 0.0 && r.second == 0.0))
@@ -89,7 +93,7 @@ std::vector<PlausibilityWarning> plausibility_warnings(const Model& model) {
   if (!a.land_surface.empty()) {
     if (!model.initial.head.empty()) {
       const HeadsAboveSurface above =
-          heads_above_land_surface(model, GridPart::whole(g), model.initial.head);
+          heads_above_land_surface(model, part, model.initial.head.cells());
       if (above.cells > 0)
         out.push_back({"[initial].head",
                        "initial heads stand above the land surface " +
@@ -98,7 +102,7 @@ std::vector<PlausibilityWarning> plausibility_warnings(const Model& model) {
                            "and the land surface"});
     }
     if (!a.top.empty()) {
-      HeadsAboveSurface high = heads_above_land_surface(model, GridPart::whole(g), a.top);
+      HeadsAboveSurface high = heads_above_land_surface(model, part, a.top.cells());
       if (high.cells > 0)
         out.push_back(
             {"[aquifer].land_surface", "the aquifer top stands above the land surface " +
@@ -122,7 +126,7 @@ std::vector<PlausibilityWarning> plausibility_warnings(const Model& model) {
                 active_range(g, ib.inelastic_storage), 1.0e-5 * per_metre_in_model,
                 1.0e-2 * per_metre_in_model, per);
     int smaller = 0;
-    for (int c = 0; c < g.n_cells(); ++c) {
+    for (int c = part.first_owned(); c < part.end_owned(); ++c) {
       const auto i = static_cast<std::size_t>(c);
       if (g.is_active(CellIndex{c}) && ib.thickness[i] > 0.0 &&
           ib.inelastic_storage[i] < ib.elastic_storage[i])

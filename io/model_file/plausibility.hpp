@@ -25,8 +25,8 @@ std::vector<PlausibilityWarning> plausibility_warnings(const Model& model);
 std::string describe_heads_above(const HeadsAboveSurface& above, const RectilinearGrid& grid,
                                  const std::string& length_unit);
 
-/// Minimum and maximum over the active cells (NaN, NaN when there are none).
+/// Minimum and maximum over the active cells the array holds (NaN, NaN when there are none).
 std::pair<double, double> active_range(const RectilinearGrid& grid,
-                                       const std::vector<double>& values);
+                                       const CellArray<double>& values);
 
 }  // namespace aquiledger

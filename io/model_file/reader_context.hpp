@@ -3,6 +3,7 @@
 #include <toml++/toml.h>
 
 #include <filesystem>
+#include <functional>
 #include <map>
 #include <memory>
 #include <optional>
@@ -53,6 +54,11 @@ struct ReaderContext {
   /// Rows whose per-cell field values are kept (read_field); every row when unset. Array
   /// files are still read and checked to the end, so every band finds the same errors.
   std::optional<RowBand> band;
+  /// The rows this process keeps of the aquifer, interbed and initial-head fields: unset for
+  /// the whole grid; otherwise read into `band` while those sections are read (window rows).
+  std::optional<GridPart> part;
+  /// Gives `part` from the grid's rows and columns (read_model_file's band_of); may be empty.
+  std::function<GridPart(int, int)> band_of;
 
   SourceSpot spot(const toml::node& node) const;
   SourceSpot spot(const toml::source_region& region) const;

@@ -133,9 +133,9 @@ void zone_part(Report& r, const Model& m) {
   const RectilinearGrid& g = m.grid;
   const Aquifer& a = m.aquifer;
   for (const ZoneMap& zm : m.zone_maps) {
-    const std::vector<double>* values = zm.key == "k"                ? &a.kx
-                                        : zm.key == "specific_yield" ? &a.specific_yield
-                                                                     : &a.specific_storage;
+    const CellArray<double>* values = zm.key == "k"                ? &a.kx
+                                      : zm.key == "specific_yield" ? &a.specific_yield
+                                                                   : &a.specific_storage;
     if (values->empty()) continue;
     std::map<int, std::vector<std::size_t>> cells;
     for (std::size_t c = 0; c < zm.zone.size(); ++c)

@@ -481,7 +481,7 @@ int add_hydrographs(HtmlReport& page, const CsvTable& obs, const Model* model, c
                              bores.back().pairs.size());
     }
     std::vector<ChartRule> r = rules;
-    if (o && o->cell.valid() && std::size_t(o->cell.value) < model->aquifer.top.size() &&
+    if (o && o->cell.valid() && model->aquifer.top.holds(std::size_t(o->cell.value)) &&
         std::isfinite(model->aquifer.top[std::size_t(o->cell.value)]))
       r.push_back({"aquifer top", 0.0, 0.0, model->aquifer.top[std::size_t(o->cell.value)], false});
     page.add_chart(caption, line_chart_spec(s, {fmt::format("time ({})", u.time)},

@@ -76,9 +76,7 @@ void ResultRecorder::initial_state(std::span<const double> head) {
     observation_rows_.push_back({k, 0, 0, 0.0, initial_observed_[k], 0.0});
   record_subsidence(0, 0, 0.0);
   if (model_.output.fields != FieldCadence::none) {
-    collectively([&] {
-      if (writes_tables()) write_static_vtr(folder_ / "aquifer_properties.vtr", model_);
-    });
+    write_properties();
     write_fields(0.0);
   }
   const std::vector<double>& times = model_.output.head_array_times;
@@ -177,6 +175,34 @@ void ResultRecorder::record_subsidence(std::size_t period, int step, double time
     subsidence_rows_.push_back({k, period, step, time, values[k]});
 }
 
+template <class PieceName>
+std::vector<FieldPiece> ResultRecorder::rank_pieces(PieceName&& piece_name) {
+  // Each rank's rows, known on every rank from the row counts.
+  std::vector<double> rows(static_cast<std::size_t>(2 * reduction_->n_ranks()), 0.0);
+  rows[static_cast<std::size_t>(2 * reduction_->rank())] = part_.owned.first;
+  rows[static_cast<std::size_t>(2 * reduction_->rank() + 1)] = part_.owned.count;
+  reduction_->sum(rows);
+  std::vector<FieldPiece> pieces;
+  for (int r = 0; r < reduction_->n_ranks(); ++r)
+    pieces.push_back({RowBand{static_cast<int>(rows[static_cast<std::size_t>(2 * r)]),
+                              static_cast<int>(rows[static_cast<std::size_t>(2 * r + 1)])},
+                      piece_name(r)});
+  return pieces;
+}
+
+void ResultRecorder::write_properties() {
+  if (reduction_ == nullptr) return write_static_vtr(folder_ / "aquifer_properties.vtr", model_);
+  // A distributed rank holds its own rows of the properties: a piece each and rank 0's index,
+  // as for the field files.
+  auto piece_name = [](int rank) { return fmt::format("aquifer_properties_p{:04d}.vtr", rank); };
+  collectively(
+      [&] { write_static_vtr(folder_ / piece_name(reduction_->rank()), model_, part_.owned); });
+  const std::vector<FieldPiece> pieces = rank_pieces(piece_name);
+  collectively([&] {
+    if (writes_tables()) write_static_pvtr(folder_ / "aquifer_properties.pvtr", model_, pieces);
+  });
+}
+
 void ResultRecorder::write_fields(double time) {
   if (reduction_ == nullptr) {
     const std::string name = fmt::format("fields_{:04d}.vtr", field_entries_.size());
@@ -201,20 +227,11 @@ void ResultRecorder::write_fields(double time) {
   collectively([&] {
     write_fields_vtr(folder_ / piece_name(reduction_->rank()), model_, fields_, time, part_.owned);
   });
-  // Each rank's rows, known on every rank from the row counts.
-  std::vector<double> rows(static_cast<std::size_t>(2 * reduction_->n_ranks()), 0.0);
-  rows[static_cast<std::size_t>(2 * reduction_->rank())] = part_.owned.first;
-  rows[static_cast<std::size_t>(2 * reduction_->rank() + 1)] = part_.owned.count;
-  reduction_->sum(rows);
+  const std::vector<FieldPiece> pieces = rank_pieces(piece_name);
   const std::string name = fmt::format("fields_{:04d}.pvtr", n);
   field_entries_.push_back({time, name});
   collectively([&] {
     if (!writes_tables()) return;
-    std::vector<FieldPiece> pieces;
-    for (int r = 0; r < reduction_->n_ranks(); ++r)
-      pieces.push_back({RowBand{static_cast<int>(rows[static_cast<std::size_t>(2 * r)]),
-                                static_cast<int>(rows[static_cast<std::size_t>(2 * r + 1)])},
-                        piece_name(r)});
     write_pvtr(folder_ / name, model_, pieces);
     write_pvd(folder_ / "fields.pvd", field_entries_);
   });

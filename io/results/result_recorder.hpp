@@ -92,6 +92,11 @@ class ResultRecorder final : public SimulationObserver {
   bool keeps_fields() const {
     return model_.output.fields != FieldCadence::none || !model_.subsidence_points.empty();
   }
+  /// aquifer_properties.vtr, or (distributed) each rank's piece and rank 0's .pvtr index.
+  void write_properties();
+  /// Every rank's owned rows with its piece's file name (collective).
+  template <class PieceName>
+  std::vector<FieldPiece> rank_pieces(PieceName&& piece_name);
   /// Writes the head arrays (io/results/head_arrays.hpp) of the heads at time; in a distributed run
   /// the heads are gathered and rank 0 writes.
   void write_head_arrays_at(double time, std::span<const double> head);

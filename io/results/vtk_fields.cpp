@@ -65,8 +65,34 @@ vtkNew<vtkRectilinearGrid> make_grid(const RectilinearGrid& grid, RowBand band) 
   return vtk_grid;
 }
 
-/// Adds a per-cell array given in raster order; inactive cells get NaN whatever they hold.
-/// values: per cell of the band's rows in raster order.
+/// Adds a per-cell array over the band's rows; inactive cells get NaN whatever they hold.
+/// values: indexed by grid cell, holding at least the band's cells.
+void add_cell_array(vtkRectilinearGrid* vtk_grid, const RectilinearGrid& grid, RowBand band,
+                    std::string_view name, CellValues values) {
+  const std::size_t n_cells = static_cast<std::size_t>(band.count) * grid.n_cols();
+  const auto first = static_cast<std::size_t>(band.first) * grid.n_cols();
+  if (first < static_cast<std::size_t>(values.first()) ||
+      first + n_cells > values.first() + values.values().size()) {
+    throw std::invalid_argument(fmt::format(
+        "cell array '{}' holds cells {} to {}, the rows written cells {} to {}", name,
+        values.first(), values.first() + values.values().size(), first, first + n_cells));
+  }
+  vtkNew<vtkDoubleArray> array;
+  array->SetName(std::string(name).c_str());
+  array->SetNumberOfValues(static_cast<vtkIdType>(n_cells));
+  const int n_rows = band.count, n_cols = grid.n_cols();
+  for (int j = 0; j < n_rows; ++j) {
+    const int row = band.end() - 1 - j;
+    for (int i = 0; i < n_cols; ++i) {
+      const CellIndex c = grid.cell(row, i);
+      const double v = grid.is_active(c) ? values[static_cast<std::size_t>(c.value)] : nan_value;
+      array->SetValue(static_cast<vtkIdType>(j) * n_cols + i, v);
+    }
+  }
+  vtk_grid->GetCellData()->AddArray(array);
+}
+
+/// A field of the band's cells in raster order (values[0] is the band's first cell).
 void add_cell_array(vtkRectilinearGrid* vtk_grid, const RectilinearGrid& grid, RowBand band,
                     std::string_view name, const std::vector<double>& values) {
   const std::size_t n_cells = static_cast<std::size_t>(band.count) * grid.n_cols();
@@ -74,21 +100,8 @@ void add_cell_array(vtkRectilinearGrid* vtk_grid, const RectilinearGrid& grid, R
     throw std::invalid_argument(fmt::format("cell array '{}' has {} values, the grid {} cells",
                                             name, values.size(), n_cells));
   }
-  vtkNew<vtkDoubleArray> array;
-  array->SetName(std::string(name).c_str());
-  array->SetNumberOfValues(static_cast<vtkIdType>(n_cells));
-  const int n_rows = band.count, n_cols = grid.n_cols();
-  const auto first = static_cast<std::size_t>(band.first) * n_cols;
-  for (int j = 0; j < n_rows; ++j) {
-    const int row = band.end() - 1 - j;
-    for (int i = 0; i < n_cols; ++i) {
-      const CellIndex c = grid.cell(row, i);
-      const double v =
-          grid.is_active(c) ? values[static_cast<std::size_t>(c.value) - first] : nan_value;
-      array->SetValue(static_cast<vtkIdType>(j) * n_cols + i, v);
-    }
-  }
-  vtk_grid->GetCellData()->AddArray(array);
+  add_cell_array(vtk_grid, grid, band, name,
+                 CellValues(std::span<const double>(values), band.first * grid.n_cols()));
 }
 
 /// The cell state as an integer array (0 dry, 1 water table, 2 confined). An integer has no
@@ -215,6 +228,58 @@ std::vector<FieldArray> field_arrays(const Model& model) {
   return arrays;
 }
 
+/// The cell arrays of the aquifer properties file, in file order (`active` follows them).
+struct PropertyArray {
+  const char* name;
+  const CellArray<double>* values;
+};
+
+std::vector<PropertyArray> property_arrays(const Model& model) {
+  const Aquifer& a = model.aquifer;
+  std::vector<PropertyArray> arrays = {{"kx", &a.kx}, {"ky", &a.ky}};
+  if (!a.top.empty()) arrays.push_back({"top", &a.top});
+  arrays.push_back({"bottom", &a.bottom});
+  arrays.push_back({"specific_storage", &a.specific_storage});
+  if (!a.specific_yield.empty()) arrays.push_back({"specific_yield", &a.specific_yield});
+  if (!a.land_surface.empty()) arrays.push_back({"land_surface", &a.land_surface});
+  return arrays;
+}
+
+/// The .pvtr index of a parallel set: the cell arrays (type, name), the ghost array, and
+/// one piece per band.
+void write_pvtr_index(const std::filesystem::path& path, const RectilinearGrid& grid,
+                      const char* scalars,
+                      const std::vector<std::pair<const char*, const char*>>& arrays,
+                      const std::vector<FieldPiece>& pieces) {
+  std::string text = fmt::format(
+      "<?xml version=\"1.0\"?>\n"
+      "<VTKFile type=\"PRectilinearGrid\" version=\"1.0\" byte_order=\"LittleEndian\" "
+      "header_type=\"UInt64\">\n"
+      "  <PRectilinearGrid WholeExtent=\"0 {} 0 {} 0 0\" GhostLevel=\"0\">\n"
+      "    <PCellData Scalars=\"{}\">\n",
+      grid.n_cols(), grid.n_rows(), scalars);
+  for (const auto& [type, name] : arrays)
+    fmt::format_to(std::back_inserter(text), "      <PDataArray type=\"{}\" Name=\"{}\"/>\n", type,
+                   name);
+  fmt::format_to(std::back_inserter(text), "      <PDataArray type=\"UInt8\" Name=\"{}\"/>\n",
+                 vtkDataSetAttributes::GhostArrayName());
+  text +=
+      "    </PCellData>\n"
+      "    <PCoordinates>\n"
+      "      <PDataArray type=\"Float64\" Name=\"x\"/>\n"
+      "      <PDataArray type=\"Float64\" Name=\"y\"/>\n"
+      "      <PDataArray type=\"Float64\" Name=\"z\"/>\n"
+      "    </PCoordinates>\n";
+  for (const FieldPiece& piece : pieces) {
+    const int j0 = grid.n_rows() - piece.rows.end();
+    fmt::format_to(std::back_inserter(text),
+                   "    <Piece Extent=\"0 {} {} {} 0 0\" Source=\"{}\"/>\n", grid.n_cols(), j0,
+                   j0 + piece.rows.count, xml_escaped(piece.file));
+  }
+  text += "  </PRectilinearGrid>\n</VTKFile>\n";
+  write_file_atomically(path, text);
+}
+
 }  // namespace
 
 void write_fields_vtr(const std::filesystem::path& path, const Model& model,
@@ -243,28 +308,23 @@ void write_fields_vtr(const std::filesystem::path& path, const Model& model,
 }
 
 void write_static_vtr(const std::filesystem::path& path, const Model& model) {
+  write_static_vtr(path, model, RowBand{0, model.grid.n_rows()});
+}
+
+void write_static_vtr(const std::filesystem::path& path, const Model& model, RowBand band) {
   const RectilinearGrid& grid = model.grid;
-  const Aquifer& aquifer = model.aquifer;
-  const RowBand band{0, grid.n_rows()};
   auto vtk_grid = make_grid(grid, band);
-  add_cell_array(vtk_grid, grid, band, "kx", aquifer.kx);
-  add_cell_array(vtk_grid, grid, band, "ky", aquifer.ky);
-  if (!aquifer.top.empty()) add_cell_array(vtk_grid, grid, band, "top", aquifer.top);
-  add_cell_array(vtk_grid, grid, band, "bottom", aquifer.bottom);
-  add_cell_array(vtk_grid, grid, band, "specific_storage", aquifer.specific_storage);
-  if (!aquifer.specific_yield.empty())
-    add_cell_array(vtk_grid, grid, band, "specific_yield", aquifer.specific_yield);
-  if (!aquifer.land_surface.empty())
-    add_cell_array(vtk_grid, grid, band, "land_surface", aquifer.land_surface);
+  for (const PropertyArray& a : property_arrays(model))
+    add_cell_array(vtk_grid, grid, band, a.name, a.values->cells());
 
   vtkNew<vtkUnsignedCharArray> active;
   active->SetName("active");
-  active->SetNumberOfValues(grid.n_cells());
-  const int n_rows = grid.n_rows(), n_cols = grid.n_cols();
+  const int n_rows = band.count, n_cols = grid.n_cols();
+  active->SetNumberOfValues(static_cast<vtkIdType>(n_rows) * n_cols);
   for (int j = 0; j < n_rows; ++j)
     for (int i = 0; i < n_cols; ++i)
       active->SetValue(static_cast<vtkIdType>(j) * n_cols + i,
-                       grid.is_active(grid.cell(n_rows - 1 - j, i)) ? 1 : 0);
+                       grid.is_active(grid.cell(band.end() - 1 - j, i)) ? 1 : 0);
   vtk_grid->GetCellData()->AddArray(active);
   vtk_grid->GetCellData()->SetActiveScalars("kx");
   add_model_field_data(vtk_grid, model);
@@ -287,34 +347,18 @@ void write_pvd(const std::filesystem::path& path, const std::vector<FieldFileEnt
 
 void write_pvtr(const std::filesystem::path& path, const Model& model,
                 const std::vector<FieldPiece>& pieces) {
-  const RectilinearGrid& grid = model.grid;
-  std::string text = fmt::format(
-      "<?xml version=\"1.0\"?>\n"
-      "<VTKFile type=\"PRectilinearGrid\" version=\"1.0\" byte_order=\"LittleEndian\" "
-      "header_type=\"UInt64\">\n"
-      "  <PRectilinearGrid WholeExtent=\"0 {} 0 {} 0 0\" GhostLevel=\"0\">\n"
-      "    <PCellData Scalars=\"head\">\n",
-      grid.n_cols(), grid.n_rows());
+  std::vector<std::pair<const char*, const char*>> arrays;
   for (const FieldArray& a : field_arrays(model))
-    fmt::format_to(std::back_inserter(text), "      <PDataArray type=\"{}\" Name=\"{}\"/>\n",
-                   a.values ? "Float64" : "Int32", a.name);
-  fmt::format_to(std::back_inserter(text), "      <PDataArray type=\"UInt8\" Name=\"{}\"/>\n",
-                 vtkDataSetAttributes::GhostArrayName());
-  text +=
-      "    </PCellData>\n"
-      "    <PCoordinates>\n"
-      "      <PDataArray type=\"Float64\" Name=\"x\"/>\n"
-      "      <PDataArray type=\"Float64\" Name=\"y\"/>\n"
-      "      <PDataArray type=\"Float64\" Name=\"z\"/>\n"
-      "    </PCoordinates>\n";
-  for (const FieldPiece& piece : pieces) {
-    const int j0 = grid.n_rows() - piece.rows.end();
-    fmt::format_to(std::back_inserter(text),
-                   "    <Piece Extent=\"0 {} {} {} 0 0\" Source=\"{}\"/>\n", grid.n_cols(), j0,
-                   j0 + piece.rows.count, xml_escaped(piece.file));
-  }
-  text += "  </PRectilinearGrid>\n</VTKFile>\n";
-  write_file_atomically(path, text);
+    arrays.emplace_back(a.values ? "Float64" : "Int32", a.name);
+  write_pvtr_index(path, model.grid, "head", arrays, pieces);
+}
+
+void write_static_pvtr(const std::filesystem::path& path, const Model& model,
+                       const std::vector<FieldPiece>& pieces) {
+  std::vector<std::pair<const char*, const char*>> arrays;
+  for (const PropertyArray& a : property_arrays(model)) arrays.emplace_back("Float64", a.name);
+  arrays.emplace_back("UInt8", "active");
+  write_pvtr_index(path, model.grid, "kx", arrays, pieces);
 }
 
 std::string field_file_name(std::size_t n) { return fmt::format("fields_{:04d}.vtr", n); }

@@ -49,6 +49,14 @@ void write_pvtr(const std::filesystem::path& path, const Model& model,
 /// blanking and field data as write_fields_vtr (without TIME).
 void write_static_vtr(const std::filesystem::path& path, const Model& model);
 
+/// As above for a band of rows (whose cells the model's arrays hold): one piece of the
+/// parallel set of a distributed run.
+void write_static_vtr(const std::filesystem::path& path, const Model& model, RowBand band);
+
+/// The .pvtr index of the parallel set of aquifer property pieces. Atomically.
+void write_static_pvtr(const std::filesystem::path& path, const Model& model,
+                       const std::vector<FieldPiece>& pieces);
+
 /// Writes the collection file by hand (VTK 9.1 has no writer for it), atomically.
 void write_pvd(const std::filesystem::path& path, const std::vector<FieldFileEntry>& entries);
 

@@ -36,6 +36,13 @@ std::vector<RowBand> row_split(int n_rows, int n_ranks) {
   return bands;
 }
 
+GridPart rank_part(int n_rows, int n_cols, int n_ranks, int rank) {
+  const RowBand owned = row_split(n_rows, n_ranks)[static_cast<std::size_t>(rank)];
+  const int first = std::max(owned.first - 1, 0);
+  const int end = std::min(owned.end() + 1, n_rows);
+  return {n_cols, owned, {first, end - first}};
+}
+
 namespace {
 
 std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
@@ -142,6 +149,11 @@ struct DistributedEngine::Impl {
     part.n_cols = g.n_cols();
     part.owned = {static_cast<int>(ys), static_cast<int>(ym)};
     part.window = {static_cast<int>(gys), static_cast<int>(gym)};
+    // A model read by band must hold this rank's rows (and no fewer than its ghost rows).
+    if (m.band &&
+        (m.band->owned.first != part.owned.first || m.band->owned.count != part.owned.count ||
+         m.band->window.first > part.window.first || m.band->window.end() < part.window.end()))
+      throw std::runtime_error("the model was read for other rows than this rank's band");
 
     check(DMCreateGlobalVector(da, &head), "DMCreateGlobalVector");
     check(DMCreateLocalVector(da, &head_local), "DMCreateLocalVector");

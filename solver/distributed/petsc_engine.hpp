@@ -41,6 +41,11 @@ class PetscRuntime {
 /// of the inputs (ReaderContext::band) and PETSc cannot disagree. Needs 1 <= n_ranks <= n_rows.
 std::vector<RowBand> row_split(int n_rows, int n_ranks);
 
+/// The part of rank `rank`: its band of row_split (owned) and the rows it holds (window: one
+/// ghost row more on each side, within the grid), as the engine's DMDA gives them. The rows
+/// whose per-cell inputs the rank reads (read_model_file's band_of).
+GridPart rank_part(int n_rows, int n_cols, int n_ranks, int rank);
+
 class DistributedEngine {
  public:
   /// Collective: every rank passes the same model. Splits the grid and builds the matrix.

@@ -226,7 +226,7 @@ TEST_CASE("water table: initial steady state with recharge between fixed heads",
   a.specific_yield = 0.2;
   Model m = test::make_model(std::vector<double>(12, 100.0), std::vector<double>(7, 100.0), a);
   m.initial.steady = true;
-  m.initial.head.clear();
+  m.initial.head = std::vector<double>{};
   test::add_period(m, 30.0, 6, 1.2);
   test::add_fixed_head(m, test::column_cells(m, 0), 10.0);
   test::add_fixed_head(m, test::column_cells(m, 11), 12.0);

@@ -24,12 +24,12 @@ inline Model small_model() {
   const int n = m.grid.n_cells();
   m.aquifer.condition = Condition::switching;
   for (int c = 0; c < n; ++c) {
-    m.aquifer.kx.push_back(1.0 / (c + 3.0));  // not representable in short decimals
-    m.aquifer.ky.push_back(0.1 * (c + 1));
-    m.aquifer.top.push_back(40.0 + c / 7.0);
-    m.aquifer.bottom.push_back(-c / 3.0);
-    m.aquifer.specific_storage.push_back(1.0e-6 * std::sqrt(c + 2.0));
-    m.aquifer.specific_yield.push_back(0.1 + c / 97.0);
+    m.aquifer.kx.values().push_back(1.0 / (c + 3.0));  // not representable in short decimals
+    m.aquifer.ky.values().push_back(0.1 * (c + 1));
+    m.aquifer.top.values().push_back(40.0 + c / 7.0);
+    m.aquifer.bottom.values().push_back(-c / 3.0);
+    m.aquifer.specific_storage.values().push_back(1.0e-6 * std::sqrt(c + 2.0));
+    m.aquifer.specific_yield.values().push_back(0.1 + c / 97.0);
   }
   return m;
 }

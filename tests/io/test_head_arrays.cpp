@@ -47,7 +47,8 @@ TEST_CASE("a head array reads back bit for bit as the initial head", "[io][head_
     for (const auto& d : r.diagnostics) INFO(d.to_string());
     REQUIRE(r.ok());
     REQUIRE(r.model->initial.head.size() == h.size());
-    CHECK(std::memcmp(r.model->initial.head.data(), h.data(), h.size() * sizeof(double)) == 0);
+    CHECK(std::memcmp(r.model->initial.head.values().data(), h.data(), h.size() * sizeof(double)) ==
+          0);
   }
   // The raster header is the grid's (ESRI ASCII grid: ncols, nrows, lower-left corner,
   // cellsize, NODATA_value).

@@ -13,6 +13,7 @@
 #include <fstream>
 
 #include "io/model_file/field_value.hpp"
+#include "io/model_file/model_reader.hpp"
 
 using namespace aquiledger;
 
@@ -160,4 +161,83 @@ TEST_CASE("a value check on a band names the grid cell and the line of its row",
   CHECK(d.file == dir / "k.txt");
   CHECK(d.message.find("row 4, column 3") != std::string::npos);
   CHECK(d.message.find("4 active cells fail") != std::string::npos);
+}
+
+// The whole model read for a band (read_model_text's band_of, as a distributed rank reads
+// it): the aquifer, interbed and initial-head arrays hold the window's rows from its first
+// cell, equal bit for bit to the whole read's; the features are read whole; the same file
+// and the same model with a bad value outside the band read cleanly, inside it not.
+
+TEST_CASE("a model read for a band holds the window's rows of the per-cell inputs", "[bands]") {
+  const auto dir = scratch("model");
+  write(dir / "k.txt", "1 2 3\n4 5 6\n7 8 9\n10 11 12\n13 14 15\n");
+  write(dir / "h.txt", "20 21 22\n23 24 25\n26 27 28\n29 30 31\n32 33 34\n");
+  const std::string text = R"(
+[grid]
+nrow = 5
+ncol = 3
+dx = 10.0
+dy = 10.0
+[aquifer]
+top = 50.0
+bottom = { file = "k.txt" }
+k = { file = "k.txt" }
+condition = "switching"
+specific_yield = 0.1
+specific_storage = 1.0e-5
+[interbeds]
+thickness = 0.5
+elastic_storage = 1.0e-5
+inelastic_storage = 1.0e-3
+preconsolidation_below_initial = 1.0
+[initial]
+head = { file = "h.txt" }
+[[period]]
+length = 1.0
+[[fixed_head]]
+name = "side"
+head = { file = "h.txt" }
+edge = "west"
+)";
+  const ReadResult whole = read_model_text(text, dir / "scenario.toml");
+  REQUIRE(whole.ok());
+  // Rank 1 of 2 in row_split's manner: rows 3-4 (0-based) owned, rows 2-4 held.
+  const GridPart part{n_cols, {3, 2}, {2, 3}};
+  const ReadResult band =
+      read_model_text(text, dir / "scenario.toml", [&](int, int) { return part; });
+  REQUIRE(band.ok());
+  const Model& b = *band.model;
+  REQUIRE(b.band);
+  CHECK(b.band->owned.first == 3);
+  CHECK(b.band->window.first == 2);
+  const Aquifer& wa = whole.model->aquifer;
+  using Member = CellArray<double> Aquifer::*;
+  for (const Member member : {&Aquifer::kx, &Aquifer::ky, &Aquifer::top, &Aquifer::bottom,
+                              &Aquifer::specific_yield, &Aquifer::specific_storage}) {
+    const CellArray<double>& held = b.aquifer.*member;
+    CHECK(held.first() == 2 * n_cols);
+    CHECK(held.size() == 3u * n_cols);
+    for (std::size_t c = 6; c < 15; ++c) CHECK(same_bits(held[c], (wa.*member)[c]));
+  }
+  REQUIRE(b.aquifer.interbeds);
+  CHECK(b.aquifer.interbeds->thickness.first() == 2 * n_cols);
+  CHECK(b.initial.head.first() == 2 * n_cols);
+  for (std::size_t c = 6; c < 15; ++c) CHECK(b.initial.head[c] == whole.model->initial.head[c]);
+  // The fixed head (a feature, shared by every rank) is read whole from the same file.
+  REQUIRE(b.fixed_heads.size() == 1);
+  CHECK(b.fixed_heads[0].cells.size() == whole.model->fixed_heads[0].cells.size());
+  CHECK(b.fixed_heads[0].head.at(0, 0) == 20.0);
+
+  // A conductivity of 0 in row 1 (rank 0's rows): this band reads cleanly, the whole read not.
+  write(dir / "k.txt", "1 2 3\n4 0 6\n7 8 9\n10 11 12\n13 14 15\n");
+  CHECK_FALSE(read_model_text(text, dir / "scenario.toml").ok());
+  CHECK(read_model_text(text, dir / "scenario.toml", [&](int, int) { return part; }).ok());
+  // In row 4 (this band's): both fail, naming the same file, line and key.
+  write(dir / "k.txt", "1 2 3\n4 5 6\n7 8 9\n10 11 12\n13 0 15\n");
+  const ReadResult bad_whole = read_model_text(text, dir / "scenario.toml");
+  const ReadResult bad_band =
+      read_model_text(text, dir / "scenario.toml", [&](int, int) { return part; });
+  REQUIRE_FALSE(bad_band.ok());
+  REQUIRE(bad_whole.diagnostics.size() >= 1);
+  CHECK(bad_band.diagnostics.front().to_string() == bad_whole.diagnostics.front().to_string());
 }

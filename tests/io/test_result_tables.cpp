@@ -205,7 +205,7 @@ TEST_CASE("a model's budget layout lists storage always and only the stresses it
           "[io][csv]") {
   Model m = aquiledger::testing::small_model();
   m.aquifer.condition = Condition::confined;
-  m.aquifer.skeleton_share.clear();
+  m.aquifer.skeleton_share = std::vector<double>{};
   m.wells.clear(), m.fixed_heads.clear(), m.recharges.clear(), m.rivers.clear();
   m.drains.clear(), m.external_heads.clear(), m.evapotranspiration.clear();
   m.leakage.reset();

@@ -186,12 +186,12 @@ TEST_CASE("static file holds the model's properties", "[io][vtk]") {
   write_static_vtr(folder / "model.vtr", m);
   auto g = read_vtr(folder / "model.vtr");
   check_geometry_and_blanking(g, m);
-  check_cell_array(g, m, "kx", m.aquifer.kx);
-  check_cell_array(g, m, "ky", m.aquifer.ky);
-  check_cell_array(g, m, "top", m.aquifer.top);
-  check_cell_array(g, m, "bottom", m.aquifer.bottom);
-  check_cell_array(g, m, "specific_storage", m.aquifer.specific_storage);
-  check_cell_array(g, m, "specific_yield", m.aquifer.specific_yield);
+  check_cell_array(g, m, "kx", m.aquifer.kx.values());
+  check_cell_array(g, m, "ky", m.aquifer.ky.values());
+  check_cell_array(g, m, "top", m.aquifer.top.values());
+  check_cell_array(g, m, "bottom", m.aquifer.bottom.values());
+  check_cell_array(g, m, "specific_storage", m.aquifer.specific_storage.values());
+  check_cell_array(g, m, "specific_yield", m.aquifer.specific_yield.values());
   vtkDataArray* active = g->GetCellData()->GetArray("active");
   REQUIRE(active != nullptr);
   for (vtkIdType id = 0; id < 6; ++id) CHECK(active->GetComponent(id, 0) == (id == 5 ? 0.0 : 1.0));

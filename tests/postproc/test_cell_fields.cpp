@@ -27,8 +27,9 @@ TEST_CASE("face flows follow Darcy's law; inactive cells are blanked", "[cell_fi
   test::BudgetObserver obs(m);
   REQUIRE(run_simulation(m, obs).converged);
   const SystemLayout layout = make_system_layout(m);
-  CellFields f = initial_cell_fields(m, layout, m.initial.head);
-  update_cell_fields(m, layout, true, 1.0, m.initial.head, m.initial.head, obs.last_head, f);
+  CellFields f = initial_cell_fields(m, layout, m.initial.head.values());
+  update_cell_fields(m, layout, true, 1.0, m.initial.head.values(), m.initial.head.values(),
+                     obs.last_head, f);
   const std::size_t inactive = 1 * 2 + 1;
   CHECK(std::isnan(f.head[inactive]));
   CHECK(std::isnan(f.flow_east[inactive]));
@@ -69,11 +70,12 @@ TEST_CASE("storage rates by mechanism, states and compaction over a draining swi
   test::BudgetObserver obs(m);
   const SystemLayout layout = make_system_layout(m);
   REQUIRE(run_simulation(m, obs).converged);
-  CellFields f = initial_cell_fields(m, layout, m.initial.head);
+  CellFields f = initial_cell_fields(m, layout, m.initial.head.values());
   CHECK(f.state[0] == 2.0);
-  std::vector<double> old = m.initial.head;
+  std::vector<double> old = m.initial.head.values();
   for (std::size_t k = 0; k < obs.heads.size(); ++k) {
-    update_cell_fields(m, layout, false, obs.steps[k].dt, m.initial.head, old, obs.heads[k], f);
+    update_cell_fields(m, layout, false, obs.steps[k].dt, m.initial.head.values(), old,
+                       obs.heads[k], f);
     // Storage supplies exactly the withdrawal 0.01 * 100 m3/d in every step.
     CHECK(f.storage_rate[0] == Approx(1.0).epsilon(1e-6));
     CHECK(f.storage_elastic_rate[0] + f.storage_drainage_rate[0] == Approx(f.storage_rate[0]));

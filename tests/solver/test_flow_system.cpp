@@ -77,10 +77,10 @@ Model switching_model(Condition condition) {
 double jacobian_error(const Model& m, bool steady) {
   const SystemLayout layout = make_system_layout(m);
   FlowSystem sys(m, layout);
-  std::vector<double> head_old = m.initial.head;
+  std::vector<double> head_old = m.initial.head.values();
   for (std::size_t i = 0; i < head_old.size(); ++i) head_old[i] += 0.37;  // storage in every regime
   sys.set_step(0, steady, 0.25, head_old);
-  std::vector<double> head = m.initial.head;
+  std::vector<double> head = m.initial.head.values();
   head[static_cast<std::size_t>(m.grid.cell(3, 0).value)] = 8.0;
   if (m.aquifer.interbeds) {
     // Interbeds: every other cell below its preconsolidation head (inelastic), the others
@@ -135,8 +135,8 @@ TEST_CASE("confined Jacobian is symmetric", "[flow_system]") {
   const Model m = switching_model(Condition::confined);
   const SystemLayout layout = make_system_layout(m);
   FlowSystem sys(m, layout);
-  sys.set_step(0, false, 0.5, m.initial.head);
-  sys.assemble(m.initial.head);
+  sys.set_step(0, false, 0.5, m.initial.head.values());
+  sys.assemble(m.initial.head.values());
   const Eigen::MatrixXd a(sys.matrix());
   CHECK((a - a.transpose()).cwiseAbs().maxCoeff() == 0.0);
   CHECK(sys.symmetric());

@@ -127,7 +127,7 @@ TEST_CASE("multigrid backend: one Jacobian solved to the relative residual asked
   const Model m = grid_model(Condition::switching);
   const SystemLayout layout = make_system_layout(m);
   FlowSystem sys(m, layout);
-  std::vector<double> old_head(m.initial.head), head(m.initial.head);
+  std::vector<double> old_head(m.initial.head.values()), head(m.initial.head.values());
   for (std::size_t i = 0; i < head.size(); ++i) head[i] -= 0.001 * static_cast<double>(i % 40);
   sys.set_step(0, false, 10.0, old_head);
   sys.assemble(head);

@@ -143,7 +143,7 @@ TEST_CASE("initial steady state is reported as the initial heads and persists", 
   widths.front() = widths.back() = 1e-3;
   Model m = test::make_model(widths, {1.0}, a);
   m.initial.steady = true;
-  m.initial.head.clear();
+  m.initial.head = std::vector<double>{};
   const int last = m.grid.n_cols() - 1;
   test::add_fixed_head(m, {m.grid.cell(0, 0)}, h1);
   test::add_fixed_head(m, {m.grid.cell(0, last)}, h2);

@@ -161,12 +161,12 @@ TEST_CASE("linear backends agree on the same system", "[linear]") {
   for (Condition c : {Condition::confined, Condition::water_table}) {
     Model m = drying_model();
     m.aquifer.condition = c;
-    if (c == Condition::confined) m.aquifer.specific_yield.clear();
+    if (c == Condition::confined) m.aquifer.specific_yield = std::vector<double>{};
     const SystemLayout layout = make_system_layout(m);
     FlowSystem sys(m, layout);
-    std::vector<double> head_old = m.initial.head;
+    std::vector<double> head_old = m.initial.head.values();
     sys.set_step(0, false, 0.5, head_old);
-    std::vector<double> head = m.initial.head;
+    std::vector<double> head = m.initial.head.values();
     head[7] -= 0.3;  // a non-uniform state, so upstream choices differ across faces
     sys.assemble(head);
     const Eigen::VectorXd b = sys.residual();
@@ -375,7 +375,7 @@ TEST_CASE("Newton with the fixed-thickness preconditioned BiCGSTAB reaches the L
   settings.flow_tolerance = 1e-10;
   auto lu = make_umfpack_solver();
   auto krylov = make_picard_krylov_solver();
-  std::vector<double> head = m.initial.head;
+  std::vector<double> head = m.initial.head.values();
   const std::vector<double> ends = step_end_times(m.periods[0], 0.0);
   int below_top = 0;
   for (std::size_t step = 0; step < ends.size(); ++step) {
