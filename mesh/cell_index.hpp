@@ -1,4 +1,5 @@
 #pragma once
+#include <cstddef>
 #include <cstdint>
 #include <functional>
 
@@ -11,6 +12,9 @@ struct CellIndex {
   friend constexpr bool operator==(CellIndex, CellIndex) = default;
   friend constexpr auto operator<=>(CellIndex, CellIndex) = default;
 };
+
+/// The cell's position in a per-cell array (raster order).
+constexpr std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
 
 /// Row and column of a cell, 0-based; row 0 is the northern edge, column 0 the western edge.
 struct RowCol {

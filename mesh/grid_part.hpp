@@ -102,6 +102,11 @@ class CellArray {
     return cell >= static_cast<std::size_t>(first_) && cell - first_ < values_.size();
   }
   bool empty() const { return values_.empty(); }
+  /// Holds no cells (a field the model does not have).
+  void clear() {
+    values_.clear();
+    first_ = 0;
+  }
   /// Number of cells held (the grid's cell count when whole).
   std::size_t size() const { return values_.size(); }
   std::int32_t first() const { return first_; }  ///< grid cell of the first value

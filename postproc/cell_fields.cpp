@@ -10,8 +10,6 @@ namespace aquiledger {
 
 namespace {
 
-std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
-
 void fill_heads(const Model& model, const SystemLayout& layout, const GridPart& part,
                 CellValues initial_head, CellValues head, CellFields& f) {
   const double nan = std::nan("");

@@ -10,8 +10,6 @@ namespace aquiledger {
 
 namespace {
 
-std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
-
 void add_signed(InOut& io, double q) {
   if (q > 0.0)
     io.in += q;

@@ -5,7 +5,6 @@
 namespace aquiledger {
 
 namespace {
-std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
 
 /// The arguments of harmonic_face_factor for the face between i and j (i before j).
 struct FaceArguments {

@@ -10,8 +10,6 @@ namespace aquiledger {
 
 namespace {
 
-std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
-
 /// Position of entry (row, col) in the values of a compressed column-major matrix.
 int value_position(const SparseMatrix& m, int row, int col) {
   for (int p = m.outerIndexPtr()[col]; p < m.outerIndexPtr()[col + 1]; ++p)

@@ -12,8 +12,6 @@
 namespace aquiledger {
 namespace {
 
-std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
-
 /// 1 per grid cell a cell parameter sets.
 std::vector<std::uint8_t> cell_mask(const Model& model, const ModelParameter& p) {
   std::vector<std::uint8_t> mask(static_cast<std::size_t>(model.grid.n_cells()), 0);

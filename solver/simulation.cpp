@@ -19,8 +19,6 @@ namespace aquiledger {
 
 namespace {
 
-std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
-
 /// The serial stepper: heads per grid cell, one FlowSystem and one linear solver.
 class SerialStepper {
  public:

@@ -10,8 +10,6 @@ namespace aquiledger {
 
 namespace {
 
-std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
-
 /// Calls visit(k, cell, flow) for every cell of every stress feature, k being the feature's
 /// position in list_features(model). Inactive and fixed-head cells carry no stress.
 /// Recharges flagged in parallel_recharge (cells known distinct, and visit safe to call

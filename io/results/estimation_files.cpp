@@ -34,12 +34,17 @@ std::string estimated_parameters_csv(const EstimationSetup& setup, const Estimat
 
 std::string parameter_correlation_csv(const EstimationSetup& setup, const EstimationResult& r) {
   std::string out = "parameter";
-  for (const EstimatedParameter& e : setup.parameters) out += "," + csv_text(e.parameter.name);
+  for (const EstimatedParameter& e : setup.parameters) {
+    out += ',';  // in two steps: GCC 12's -Wrestrict misreads "," + std::string&&
+    out += csv_text(e.parameter.name);
+  }
   out += "\n";
   for (std::size_t i = 0; i < setup.parameters.size(); ++i) {
     out += csv_text(setup.parameters[i].parameter.name);
-    for (std::size_t j = 0; j < setup.parameters.size(); ++j)
-      out += "," + number(r.fit.correlation(Eigen::Index(i), Eigen::Index(j)));
+    for (std::size_t j = 0; j < setup.parameters.size(); ++j) {
+      out += ',';
+      out += number(r.fit.correlation(Eigen::Index(i), Eigen::Index(j)));
+    }
     out += "\n";
   }
   return out;

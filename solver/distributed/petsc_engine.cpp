@@ -45,8 +45,6 @@ GridPart rank_part(int n_rows, int n_cols, int n_ranks, int rank) {
 
 namespace {
 
-std::size_t at(CellIndex c) { return static_cast<std::size_t>(c.value); }
-
 /// PETSc reports errors by code; an engine that cannot set up or solve throws.
 void check(PetscErrorCode code, const char* what) {
   if (code != 0) throw std::runtime_error(std::string("PETSc failed: ") + what);
