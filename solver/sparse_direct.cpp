@@ -32,15 +32,37 @@ void set_blas_threads(int n) {
 /// once at 1e6, and factorises in 2.7 s against 3.0 s.
 constexpr int metis_ordering_from = 500'000;
 
+/// Below this many unknowns the Cholesky factor is simplicial (column by column: no BLAS, no
+/// OpenMP) instead of supernodal. CHOLMOD 3.0's supernodal factorisation opens an OpenMP
+/// parallel region for every supernode, and on a 2D grid of a few thousand cells those
+/// regions, not the arithmetic, set its time: about a million futex calls in a 200-step run
+/// of 5041 cells, a third of its CPU time in the kernel. Factorise and solve, median, 5-point
+/// matrix (benchmarks/cholesky_kinds, 2 cores, load about 8): 2,500 cells 8.6 against 0.6 ms;
+/// 10,000 cells 25 against 9 ms; 48,400 cells 209 against 122 ms; 99,856 cells 532 against
+/// 510 ms; 490,000 cells 2.8 s supernodal against 8.9 s simplicial.
+constexpr int simplicial_below = 100'000;
+
+void use_simplicial(cholmod_common& c) {
+  // As Eigen's CholmodSimplicialLLT: an LL' factor, so an indefinite matrix fails as the
+  // supernodal factorisation does.
+  c.supernodal = CHOLMOD_SIMPLICIAL;
+  c.final_asis = 0;
+  c.final_super = 0;
+  c.final_ll = 1;
+  c.final_pack = 1;
+  c.final_monotonic = 1;
+  c.final_resymbol = 1;
+}
+
 void use_metis(cholmod_common& c) {
   c.nmethods = 1;
   c.method[0].ordering = CHOLMOD_METIS;
   c.postorder = 1;
 }
 
-/// CHOLMOD's supernodal Cholesky whose solves keep their result and workspace between calls
-/// (cholmod_solve2): a repeated solve allocates nothing, where cholmod_solve allocates and
-/// frees three dense blocks each time (benchmarks/step_allocations).
+/// CHOLMOD's Cholesky (supernodal, or simplicial below simplicial_below) whose solves keep their
+/// result and workspace between calls (cholmod_solve2): a repeated solve allocates nothing, where
+/// cholmod_solve allocates and frees three dense blocks each time (benchmarks/step_allocations).
 class KeptCholesky : public Eigen::CholmodSupernodalLLT<SparseMatrix, Eigen::Lower> {
  public:
   KeptCholesky() = default;
@@ -82,6 +104,7 @@ void configure(Factorization&, CholmodOrdering, Eigen::Index) {}
 
 template <>
 void configure(KeptCholesky& f, CholmodOrdering ordering, Eigen::Index n) {
+  if (n < simplicial_below) use_simplicial(f.cholmod());
   if (ordering == CholmodOrdering::automatic && n < metis_ordering_from) return;
   use_metis(f.cholmod());
   if (ordering == CholmodOrdering::amd) f.cholmod().method[0].ordering = CHOLMOD_AMD;

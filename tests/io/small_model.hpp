@@ -5,8 +5,10 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdlib>
 #include <filesystem>
 #include <string>
+#include <system_error>
 #include <vector>
 
 #include "solver/model.hpp"
@@ -34,12 +36,33 @@ inline Model small_model() {
   return m;
 }
 
-/// A fresh empty folder for one test's files.
+/// The folders scratch_folder made in this process.
+inline std::vector<std::filesystem::path>& scratch_folders_made() {
+  static std::vector<std::filesystem::path> made;
+  return made;
+}
+
+/// Removes every folder scratch_folder made; runs when the test program exits, passed or
+/// failed (registered after the list exists, so it runs before the list is destroyed).
+inline void remove_scratch_folders() {
+  for (const auto& folder : scratch_folders_made()) {
+    std::error_code ignored;
+    std::filesystem::remove_all(folder, ignored);
+  }
+}
+
+/// A fresh empty folder for one test's files, removed when the test program exits.
 inline std::filesystem::path scratch_folder(const std::string& name) {
+  static const bool cleanup_registered = [] {
+    scratch_folders_made();
+    return std::atexit(remove_scratch_folders) == 0;
+  }();
+  (void)cleanup_registered;
   const auto folder = std::filesystem::temp_directory_path() /
                       ("aquiledger-test-" + name + "-" + std::to_string(::getpid()));
   std::filesystem::remove_all(folder);
   std::filesystem::create_directories(folder);
+  scratch_folders_made().push_back(folder);
   return folder;
 }
 
