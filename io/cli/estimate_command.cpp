@@ -13,6 +13,7 @@
 #include "io/files/atomic_file.hpp"
 #include "io/files/output_lock.hpp"
 #include "io/model_file/estimation_reader.hpp"
+#include "io/model_file/fitted_model_writer.hpp"
 #include "io/results/estimation_files.hpp"
 
 namespace aquiledger {
@@ -56,14 +57,40 @@ int run_estimate_command(const EstimateOptions& o) {
   const std::filesystem::path folder =
       o.output_folder ? *o.output_folder
                       : std::filesystem::absolute(o.setup_file).parent_path() / "estimate";
+  const std::string setup_path =
+      std::filesystem::absolute(o.setup_file).lexically_normal().string();
+  std::string fitted_model_note;
   try {
     const OutputFolderLock lock(folder);
-    write_estimation_files(folder, setup, result, std::filesystem::absolute(o.setup_file).string(),
-                           version_string);
+    write_estimation_files(folder, setup, result, setup_path, version_string);
+    std::vector<std::string> header = {
+        fmt::format("Fitted model written by aquiledger {} estimate", version_string),
+        "from the set-up " + setup_path, "calibrating the model " + read.model_file.string(),
+        fmt::format("({} after {} iteration(s)). Fitted values (estimated_parameters.csv):",
+                    result.fit.converged ? "converged" : "NOT converged", result.fit.n_iterations)};
+    for (std::size_t j = 0; j < setup.parameters.size(); ++j) {
+      const EstimatedParameter& e = setup.parameters[j];
+      header.push_back(fmt::format(
+          "  {}: {} {} = {:.6g}", e.parameter.name, parameter_property_label(e.parameter.property),
+          e.parameter.form == ParameterForm::multiplier ? "multiplier" : "value",
+          result.fit.parameters[static_cast<Eigen::Index>(j)]));
+    }
+    header.push_back("The values below are the fitted ones (not multipliers); paths are relative");
+    header.push_back("to this file; its own runs write into results/ beside it.");
+    try {
+      const std::vector<double> values(result.fit.parameters.data(),
+                                       result.fit.parameters.data() + result.fit.parameters.size());
+      write_fitted_model(
+          folder, fitted_model_files(read.model_file, *read.model, setup, values, folder, header));
+      fitted_model_note = "fitted model: " + (folder / "fitted_model.toml").string() + "\n";
+    } catch (const FittedModelUnsupported& e) {
+      fitted_model_note = std::string("warning: no fitted model written: ") + e.what() + "\n";
+    }
   } catch (const OutputError& e) {
     std::fprintf(stderr, "error: %s\n", e.what());
     return exit_output_failure;
   }
+  if (fitted_model_note.starts_with("warning")) std::fputs(fitted_model_note.c_str(), stderr);
   if (o.quiet) return exit_success;
   std::string out = fmt::format(
       "{} measurement(s), {} parameter(s): {} after {} iteration(s), {} run(s); objective {:.4g} "
@@ -79,6 +106,7 @@ int run_estimate_command(const EstimateOptions& o) {
                        result.fit.at_bound[j] ? "  at a bound" : "");
   }
   for (const std::string& w : result.warnings) out += "  warning: " + w + "\n";
+  if (!fitted_model_note.starts_with("warning")) out += fitted_model_note;
   out += fmt::format("Results in {}\n", folder.string());
   std::fputs(out.c_str(), stdout);
   return exit_success;

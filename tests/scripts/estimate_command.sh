@@ -6,7 +6,8 @@
 # the confined range 1e-5..1e-3 (common practice). The same test in a 50 m thick water-table
 # aquifer with Sy = 0.1 (Theis with S = Sy, the late-time limit of Neuman, 1975) gives Sy back
 # within 1 % and in the water-table range 0.01..0.3 (common practice). The output files have the columns of
-# docs/results.md. A bad set-up is refused with exit status 1 naming file, line and key, and
+# docs/results.md; the fitted model written back (fitted_model.toml) runs and gives the fit's
+# simulated drawdowns again (estimate_rerun.py). A bad set-up is refused with exit status 1 naming file, line and key, and
 # nothing is written.
 #   bash estimate_command.sh <aquiledger> <source-dir>
 set -euo pipefail
@@ -49,6 +50,10 @@ assert all(h[i + 1] <= h[i] for i in range(len(h) - 1)), h
 corr = list(csv.DictReader(open(os.path.join(d, "parameter_correlation.csv"))))
 assert abs(float(corr[0]["k"]) - 1.0) < 1e-12
 PY
+# The fitted model written back runs and reproduces the fit's simulated values to rounding.
+grep -q '^# Fitted model written by aquiledger' "$out/fit/fitted_model.toml" || fail "no header"
+"$exe" run "$out/fit/fitted_model.toml" > "$out/fit/run.log" || fail "the fitted model did not run"
+/usr/bin/python3 "$src/tests/scripts/estimate_rerun.py" "$out/setup.toml" "$out/fit" 1e-9
 
 mkdir "$out/wt"
 /usr/bin/python3 "$src/tests/scripts/estimate_theis.py" "$out/wt" 350 0.1 water_table
