@@ -12,8 +12,10 @@
 #include "io/cli/commands.hpp"
 #include "io/files/atomic_file.hpp"
 #include "io/files/output_lock.hpp"
+#include "io/files/read_error.hpp"
 #include "io/model_file/estimation_reader.hpp"
 #include "io/model_file/fitted_model_writer.hpp"
+#include "io/reports/estimation_report.hpp"
 #include "io/results/estimation_files.hpp"
 
 namespace aquiledger {
@@ -23,7 +25,8 @@ CLI::App* add_estimate_subcommand(CLI::App& app, EstimateOptions& o) {
       "estimate",
       "Estimate model parameters from measured heads, drawdowns and flows (a set-up file naming "
       "the model, the parameters and the targets) and write the estimates with their 95 % "
-      "intervals, correlations, sensitivities and residuals.");
+      "intervals, correlations, sensitivities and residuals (CSV, JSON and estimate.html), and "
+      "the fitted model (fitted_model.toml).");
   cmd->add_option("SETUP", o.setup_file, "Estimation set-up file (TOML)")->required();
   cmd->add_option("-o,--output", o.output_folder,
                   "Folder for the results (default: estimate beside the set-up file)");
@@ -60,9 +63,19 @@ int run_estimate_command(const EstimateOptions& o) {
   const std::string setup_path =
       std::filesystem::absolute(o.setup_file).lexically_normal().string();
   std::string fitted_model_note;
+  // The page needs Debian's libjs-vega; without it the tables and the fitted model are still
+  // written (a calibration is too costly to throw away for a page).
+  std::string html, page_note;
+  try {
+    html = estimation_page(*read.model, setup, result, setup_path, read.model_file.string())
+               .render(load_vega_library());
+  } catch (const ReadError& e) {
+    page_note = std::string("warning: no estimate.html written: ") + e.what() + "\n";
+  }
   try {
     const OutputFolderLock lock(folder);
     write_estimation_files(folder, setup, result, setup_path, version_string);
+    if (!html.empty()) write_file_atomically(folder / "estimate.html", html);
     std::vector<std::string> header = {
         fmt::format("Fitted model written by aquiledger {} estimate", version_string),
         "from the set-up " + setup_path, "calibrating the model " + read.model_file.string(),
@@ -91,6 +104,7 @@ int run_estimate_command(const EstimateOptions& o) {
     return exit_output_failure;
   }
   if (fitted_model_note.starts_with("warning")) std::fputs(fitted_model_note.c_str(), stderr);
+  if (!page_note.empty()) std::fputs(page_note.c_str(), stderr);
   if (o.quiet) return exit_success;
   std::string out = fmt::format(
       "{} measurement(s), {} parameter(s): {} after {} iteration(s), {} run(s); objective {:.4g} "
