@@ -6,7 +6,9 @@
 
 #include <CLI/CLI.hpp>
 #include <cstdio>
+#include <filesystem>
 #include <stdexcept>
+#include <system_error>
 
 #include "aquiledger_version.hpp"
 #include "io/cli/commands.hpp"
@@ -90,14 +92,20 @@ int run_estimate_command(const EstimateOptions& o) {
     }
     header.push_back("The values below are the fitted ones (not multipliers); paths are relative");
     header.push_back("to this file; its own runs write into results/ beside it.");
+    std::vector<FittedModelFile> files;
     try {
       const std::vector<double> values(result.fit.parameters.data(),
                                        result.fit.parameters.data() + result.fit.parameters.size());
-      write_fitted_model(
-          folder, fitted_model_files(read.model_file, *read.model, setup, values, folder, header));
-      fitted_model_note = "fitted model: " + (folder / "fitted_model.toml").string() + "\n";
-    } catch (const FittedModelUnsupported& e) {
+      files = fitted_model_files(read.model_file, *read.model, setup, values, folder, header);
+    } catch (const std::exception& e) {  // a value form it cannot scale, or the model file gone
       fitted_model_note = std::string("warning: no fitted model written: ") + e.what() + "\n";
+    }
+    std::error_code ignored;  // an older run's page or fitted model must not pass for this one's
+    if (html.empty()) std::filesystem::remove(folder / "estimate.html", ignored);
+    if (files.empty()) std::filesystem::remove(folder / "fitted_model.toml", ignored);
+    if (!files.empty()) {
+      write_fitted_model(folder, files);
+      fitted_model_note = "fitted model: " + (folder / "fitted_model.toml").string() + "\n";
     }
   } catch (const OutputError& e) {
     std::fprintf(stderr, "error: %s\n", e.what());
