@@ -445,6 +445,7 @@ EstimationReadResult read_estimation_text(std::string_view toml_text,
     std::optional<std::filesystem::path> model_file;
     read_estimate_section(ctx, root, setup, model_file);
     if (model_file) {
+      result.model_file = std::filesystem::absolute(*model_file).lexically_normal();
       ReadResult read = read_model_file(*model_file);
       for (Diagnostic& d : read.diagnostics) result.diagnostics.push_back(std::move(d));
       if (read.model) {

@@ -16,6 +16,7 @@ namespace aquiledger {
 
 struct EstimationReadResult {
   std::optional<Model> model;            ///< the model the set-up names, when it read
+  std::filesystem::path model_file;      ///< that model's file (absolute), when named
   std::optional<EstimationSetup> setup;  ///< set when neither file had errors
   std::vector<Diagnostic> diagnostics;   ///< of the set-up file and of the model file
 };

@@ -132,7 +132,8 @@ std::string line_chart_spec(const std::vector<ChartSeries>& series, const AxisOp
 }
 
 std::string stacked_bar_spec(const std::vector<BarValue>& values, const std::string& x_title,
-                             const std::string& y_title, int width, int height) {
+                             const std::string& y_title, int width, int height,
+                             const std::string& legend_title) {
   std::string rows = "[", categories = "[";
   std::vector<std::string> seen;
   for (const BarValue& v : values) {
@@ -155,14 +156,18 @@ std::string stacked_bar_spec(const std::vector<BarValue>& values, const std::str
       R"J({{"name":"colour","type":"ordinal","domain":{{"data":"bars","field":"g","sort":true}},"range":{palette}}}],)J"
       R"J("axes":[{{"orient":"bottom","scale":"x","title":{xt},"labelAngle":-30,"labelAlign":"right"}},)J"
       R"J({{"orient":"left","scale":"y","title":{yt},"grid":true,"gridOpacity":0.25}}],)J"
-      R"J("legends":[{{"fill":"colour","orient":"right","title":"water"}}],)J"
+      R"J({legends})J"
       R"J("marks":[{{"type":"rect","from":{{"data":"bars"}},"encode":{{"enter":{{"x":{{"scale":"x","field":"c"}},)J"
       R"J("width":{{"scale":"x","band":1}},"y":{{"scale":"y","field":"y0"}},"y2":{{"scale":"y","field":"y1"}},)J"
       R"J("fill":{{"scale":"colour","field":"g"}},"tooltip":{{"signal":"datum.g + ': ' + format(datum.v, '.4~s')"}}}}}}}},)J"
       R"J({{"type":"rule","encode":{{"enter":{{"x":{{"value":0}},"x2":{{"signal":"width"}},"y":{{"scale":"y","value":0}},"stroke":{{"value":"#222"}}}}}}}}]}})J",
       fmt::arg("w", width), fmt::arg("h", height), fmt::arg("rows", rows),
       fmt::arg("cats", categories), fmt::arg("palette", palette),
-      fmt::arg("xt", vega_json_string(x_title)), fmt::arg("yt", vega_json_string(y_title)));
+      fmt::arg("xt", vega_json_string(x_title)), fmt::arg("yt", vega_json_string(y_title)),
+      fmt::arg("legends", legend_title.empty()
+                              ? std::string()
+                              : R"("legends":[{"fill":"colour","orient":"right","title":)" +
+                                    vega_json_string(legend_title) + "}],"));
 }
 
 namespace {

@@ -45,9 +45,11 @@ struct BarValue {
   double value = 0.0;    ///< signed: positive stacks up, negative down
 };
 
-/// Bars stacked by segment for each category (negative values stack below zero).
+/// Bars stacked by segment for each category (negative values stack below zero), with a legend
+/// of the segments under legend_title (none when it is empty).
 std::string stacked_bar_spec(const std::vector<BarValue>& values, const std::string& x_title,
-                             const std::string& y_title, int width = 620, int height = 320);
+                             const std::string& y_title, int width = 620, int height = 320,
+                             const std::string& legend_title = "water");
 
 /// A feature drawn over a map: a symbol at a point, e.g. a well, a river or drain cell, a bore.
 struct MapFeature {

@@ -19,10 +19,11 @@ mkdir -p "$build/obj"
 
 # The reader and what it needs; TOML++ compiled from its headers so that the fuzzer sees
 # (and steers by) its branches too.
-# (The pumping-test file's and the estimation set-up's readers share the folder but not the
-# model reader; they need the fitting numerics of postproc/ and are left out.)
+# (The pumping-test file's and the estimation set-up's readers, and the fitted model's writer,
+# share the folder but not the model reader; they need the fitting numerics of postproc/ and
+# are left out.)
 mapfile -t reader_sources < <(cd "$source_dir" && ls io/model_file/*.cpp |
-  grep -v -e pumping_test_reader -e estimation_reader)
+  grep -v -e pumping_test_reader -e estimation_reader -e fitted_model_writer)
 sources=(
   "${reader_sources[@]}" io/files/input_file_guard.cpp io/files/calendar.cpp
   io/files/csv_table.cpp postproc/land_surface.cpp mesh/rectilinear_grid.cpp
