@@ -12,6 +12,7 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <cstdlib>
 #include <cstring>
 #include <fstream>
 #include <numeric>
@@ -20,6 +21,7 @@
 
 #include "benchmarks/basin_generator.hpp"
 #include "benchmarks/bench_support.hpp"
+#include "io/cli/openmp_waiting.hpp"
 #include "io/model_file/memory_guard.hpp"
 #include "solver/simulation.hpp"
 
@@ -130,6 +132,9 @@ LinearChoice parse_linear(const std::string& v) {
 }  // namespace
 
 int main(int argc, char** argv) {
+  // As the program runs (io/cli/main.cpp): OpenMP threads wait passively unless the
+  // environment says otherwise.
+  wait_passively_by_default(argv);
   std::vector<double> sizes = {1e4, 1e5, 1e6, 4e6};
   int steps = 30;
   CaseOptions options;
@@ -171,8 +176,12 @@ int main(int argc, char** argv) {
   };
   const double bandwidth =
       bench::run_in_child([] { return Bandwidth{bench::triad_bandwidth()}; }).bytes_per_s;
-  fmt::print("streaming triad bandwidth: {:.2f} GB/s; {} steps per period, 2 periods\n\n",
-             bandwidth / 1e9, steps);
+  const char* policy = std::getenv("OMP_WAIT_POLICY");
+  fmt::print(
+      "streaming triad bandwidth: {:.2f} GB/s; {} steps per period, 2 periods; OpenMP threads "
+      "wait {}\n\n",
+      bandwidth / 1e9, steps,
+      policy != nullptr ? policy : "as the runtime's default (spinning first)");
   fmt::print("{:<10} {:>8} {:>5} {:>9} {:>9} {:>9} {:>6} {:>6} {:>7} {:>9} {:>6} {:>6} {:>5}  {}\n",
              "variant", "cells", "steps", "s/step", "1st step", "floor", "ratio", "Newton",
              "lin.it", "fact/reuse", "MiB", "B/cell", "dewat", "linear solver");

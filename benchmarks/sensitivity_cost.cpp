@@ -10,6 +10,7 @@
 #include <string>
 
 #include "basin_generator.hpp"
+#include "io/cli/openmp_waiting.hpp"
 #include "solver/forward_sensitivities.hpp"
 
 using namespace aquiledger;
@@ -61,6 +62,9 @@ std::vector<ModelParameter> strip_parameters(const Model& m, int p) {
 }  // namespace
 
 int main(int argc, char** argv) {
+  // As the program runs (io/cli/main.cpp): OpenMP threads wait passively unless the
+  // environment says otherwise.
+  aquiledger::wait_passively_by_default(argv);
   double cells = 1e4;
   int p = 8;
   for (int i = 1; i + 1 < argc; i += 2) {

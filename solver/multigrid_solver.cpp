@@ -88,11 +88,16 @@ class PfmgKrylov final : public LinearSolver {
     if (!built_) build(a);
     const bool changed = values_changed(a);
     if (changed) load_values(a);
-    if (x.size() != b.size() || !x.allFinite()) x.setZero(b.size());
+    // Every solve starts from zero, not from the last Newton update: the next update is orders
+    // smaller (its right-hand side is the residual the last one left), so the last one would
+    // start the Krylov solve at a residual about |F_k-1| instead of |F_k|, and the solve,
+    // stopped relative to |b| = |F_k|, would first have to remove that (measured:
+    // docs/performance.md, "Third pass").
+    if (x.size() != b.size()) x.resize(b.size());
     for (std::size_t c = 0; c < cells(); ++c) {
       const int u = unknown_of_cell_[c];
       rhs_[c] = u >= 0 ? b[u] : 0.0;
-      sol_[c] = u >= 0 ? x[u] : 0.0;
+      sol_[c] = 0.0;
     }
     HYPRE_StructVectorSetBoxValues(b_, lower_, upper_, rhs_.data());
     HYPRE_StructVectorAssemble(b_);

@@ -1,6 +1,5 @@
 // aquiledger: the command line. Subcommands read a model, check it, or run it.
 #include <fmt/format.h>
-#include <unistd.h>
 
 #include <CLI/CLI.hpp>
 #include <csignal>
@@ -10,24 +9,8 @@
 #include "io/cli/commands.hpp"
 #include "io/cli/drawdown_fit_command.hpp"
 #include "io/cli/estimate_command.hpp"
+#include "io/cli/openmp_waiting.hpp"
 #include "io/cli/sources_command.hpp"
-
-namespace {
-
-/// OpenMP threads that finish a loop early wait for the others. GNU OpenMP's default is to
-/// spin for a while first, which on a machine where another process keeps a core busy makes a
-/// spinning thread compete with the thread it waits for (measured on a 13,000-cell switching
-/// basin with 2 threads: 34.5 and 43.3 s beside a busy loop against 10.5 and 15.5 s waiting
-/// passively, and 18.7 against 7.2 s on the idle machine; docs/performance.md). The runtime
-/// reads its settings when it loads, before main, so the program sets the policy and starts
-/// itself again, once; a policy the user set (OMP_WAIT_POLICY or GOMP_SPINCOUNT) is kept.
-void wait_passively_by_default(char** argv) {
-  if (std::getenv("OMP_WAIT_POLICY") != nullptr || std::getenv("GOMP_SPINCOUNT") != nullptr) return;
-  if (setenv("OMP_WAIT_POLICY", "passive", 1) != 0) return;
-  execv("/proc/self/exe", argv);  // returns only on failure: run on with the default policy
-}
-
-}  // namespace
 
 int main(int argc, char** argv) {
   using namespace aquiledger;
