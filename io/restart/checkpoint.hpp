@@ -27,7 +27,8 @@ class CheckpointError : public std::runtime_error {
 
 inline constexpr std::string_view checkpoint_file_name = "checkpoint.aqck";
 inline constexpr std::uint32_t checkpoint_format_version =
-    5;  ///< 4: interbeds' preconsolidation heads; 5: subsidence at subsidence points
+    6;  ///< 4: interbeds' preconsolidation heads; 5: subsidence at subsidence points;
+        ///< 6: delay beds' node state and budget components (5 is still read)
 
 /// FNV-1a fingerprints of the model file's bytes and of each file it read.
 struct InputFingerprint {
