@@ -47,6 +47,9 @@ struct Checkpoint {
 };
 
 std::string encode_checkpoint(const Checkpoint& checkpoint);
+/// The same in an older format that this program still reads (5: no delay beds; the state
+/// must hold no delay-bed state and no delay-bed budget), for tests of that reading.
+std::string encode_checkpoint(const Checkpoint& checkpoint, std::uint32_t version);
 /// Throws CheckpointError when the bytes are not a complete checkpoint of this format.
 Checkpoint decode_checkpoint(std::string_view bytes);
 
