@@ -136,3 +136,16 @@ TEST_CASE("interbeds: refused delay-bed values name the key", "[reader][interbed
   text = base + beds + edit(delay, "delay_beds = 2\n", "");
   expect_rejected(text, "[interbeds].delay_bed_thickness", {"needs delay_beds"});
 }
+
+TEST_CASE("interbeds: implausible delay-bed storage warns", "[reader][interbeds]") {
+  // The no-delay beds' ranges (from memory, io/model_file/plausibility.cpp): Ske 1e-6..1e-4
+  // 1/m, Skv 1e-5..1e-2 1/m. 3e-5 and 8e-4 lie inside; Ske 5e-3 does not.
+  auto r = read(base + beds + delay);
+  CHECK_FALSE(has_warning(r, "[interbeds].delay_bed_elastic_storage", ""));
+  CHECK_FALSE(has_warning(r, "[interbeds].delay_bed_inelastic_storage", ""));
+  r = read(base + beds +
+           edit(delay, "delay_bed_elastic_storage = 3.0e-5", "delay_bed_elastic_storage = 5.0e-3"));
+  INFO(all_messages(r));
+  REQUIRE(r.ok());
+  CHECK(has_warning(r, "[interbeds].delay_bed_elastic_storage", "lies outside the usual"));
+}
