@@ -96,9 +96,11 @@ CellFields initial_cell_fields(const Model& model, const SystemLayout& layout,
 void update_cell_fields(const Model& model, const SystemLayout& layout, bool steady, double dt,
                         std::span<const double> initial_head, std::span<const double> head_old,
                         std::span<const double> head_new, CellFields& f,
-                        std::span<const double> preconsolidation) {
+                        std::span<const double> preconsolidation,
+                        std::span<const double> delay_elastic,
+                        std::span<const double> delay_inelastic) {
   update_cell_fields(model, layout, GridPart::whole(model.grid), steady, dt, initial_head, head_old,
-                     head_new, preconsolidation, f);
+                     head_new, preconsolidation, f, delay_elastic, delay_inelastic);
 }
 
 CellFields initial_cell_fields(const Model& model, const SystemLayout& layout, const GridPart& part,
@@ -135,8 +137,10 @@ CellFields initial_cell_fields(const Model& model, const SystemLayout& layout, c
 
 void update_cell_fields(const Model& model, const SystemLayout& layout, const GridPart& part,
                         bool steady, double dt, CellValues initial_head, CellValues head_old,
-                        CellValues head_new, CellValues preconsolidation, CellFields& f) {
+                        CellValues head_new, CellValues preconsolidation, CellFields& f,
+                        CellValues delay_elastic, CellValues delay_inelastic) {
   fill_heads(model, layout, part, initial_head, head_new, f);
+  const bool delay = !delay_elastic.values().empty();
   const bool beds = model.aquifer.interbeds.has_value();
   const bool split = model.aquifer.elastic_split();
   const auto first = static_cast<std::size_t>(part.first_owned());
@@ -155,6 +159,10 @@ void update_cell_fields(const Model& model, const SystemLayout& layout, const Gr
       drainage = release.drainage;
       bed_elastic = release.interbed_elastic;
       bed_inelastic = release.interbed_inelastic;
+      if (delay) {  // delay beds: released over the step per unit area, as a rate
+        bed_elastic += delay_elastic[i] * layout.area[i] / dt;
+        bed_inelastic += delay_inelastic[i] * layout.area[i] / dt;
+      }
     }
     const double share = split ? model.aquifer.skeleton_share[i] : 1.0;
     f.storage_rate[k] = elastic + drainage + bed_elastic + bed_inelastic;
@@ -166,7 +174,8 @@ void update_cell_fields(const Model& model, const SystemLayout& layout, const Gr
     // release is used, an upper bound on the skeleton's share.
     if (!steady) f.compaction[k] += share * elastic * dt / layout.area[i];
     if (beds) {
-      // Water squeezed from the beds per unit area is their compaction (no-delay beds).
+      // Water squeezed from the beds per unit area is their compaction (no-delay and delay
+      // beds).
       if (!steady) {
         f.interbed_elastic_compaction[k] += bed_elastic * dt / layout.area[i];
         f.interbed_inelastic_compaction[k] += bed_inelastic * dt / layout.area[i];

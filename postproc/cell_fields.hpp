@@ -53,15 +53,21 @@ CellFields initial_cell_fields(const Model& model, const SystemLayout& layout,
 void update_cell_fields(const Model& model, const SystemLayout& layout, bool steady, double dt,
                         std::span<const double> initial_head, std::span<const double> head_old,
                         std::span<const double> head_new, CellFields& fields,
-                        std::span<const double> preconsolidation = {});
+                        std::span<const double> preconsolidation = {},
+                        std::span<const double> delay_elastic = {},
+                        std::span<const double> delay_inelastic = {});
 
 /// As above for the cells a part owns (the heads must hold them and their neighbours).
 CellFields initial_cell_fields(const Model& model, const SystemLayout& layout, const GridPart& part,
                                CellValues initial_head);
 /// preconsolidation: the interbeds' preconsolidation heads at the step start
-/// (StepInfo::preconsolidation; empty without interbeds).
+/// (StepInfo::preconsolidation; empty without interbeds). delay_elastic, delay_inelastic: the
+/// delay beds' release over the step (StepInfo::delay_bed_elastic and _inelastic, L per unit
+/// area), added to the interbeds' elastic and inelastic compaction and the storage rate.
 void update_cell_fields(const Model& model, const SystemLayout& layout, const GridPart& part,
                         bool steady, double dt, CellValues initial_head, CellValues head_old,
-                        CellValues head_new, CellValues preconsolidation, CellFields& fields);
+                        CellValues head_new, CellValues preconsolidation, CellFields& fields,
+                        CellValues delay_elastic = std::span<const double>(),
+                        CellValues delay_inelastic = std::span<const double>());
 
 }  // namespace aquiledger

@@ -55,6 +55,10 @@ std::string_view component_label(BudgetComponent c) {
       return "interbed_recoverable";
     case BudgetComponent::interbed_permanent:
       return "interbed_permanent";
+    case BudgetComponent::delay_bed_recoverable:
+      return "delay_bed_recoverable";
+    case BudgetComponent::delay_bed_permanent:
+      return "delay_bed_permanent";
     case BudgetComponent::fixed_head:
       return "fixed_head";
     case BudgetComponent::well:
@@ -109,15 +113,17 @@ void WaterBudget::add_scaled(const WaterBudget& other, double factor) {
 
 WaterBudget step_budget(const Model& model, const SystemLayout& layout, std::size_t period,
                         bool steady, double dt, std::span<const double> head_old,
-                        std::span<const double> head_new,
-                        std::span<const double> preconsolidation) {
+                        std::span<const double> head_new, std::span<const double> preconsolidation,
+                        std::span<const double> delay_elastic,
+                        std::span<const double> delay_inelastic) {
   return step_budget(model, layout, GridPart::whole(model.grid), period, steady, dt, head_old,
-                     head_new, preconsolidation);
+                     head_new, preconsolidation, delay_elastic, delay_inelastic);
 }
 
 WaterBudget step_budget(const Model& model, const SystemLayout& layout, const GridPart& part,
                         std::size_t period, bool steady, double dt, CellValues head_old,
-                        CellValues head_new, CellValues preconsolidation) {
+                        CellValues head_new, CellValues preconsolidation, CellValues delay_elastic,
+                        CellValues delay_inelastic) {
   WaterBudget budget;
   // Storage: released (positive) or taken (negative) in each unknown cell, by mechanism.
   if (!steady) {
@@ -128,11 +134,15 @@ WaterBudget step_budget(const Model& model, const SystemLayout& layout, const Gr
     // In and out of each storage mechanism as plain scalars so that OpenMP can reduce them.
     double skel_in = 0, skel_out = 0, water_in = 0, water_out = 0, el_in = 0, el_out = 0;
     double dr_in = 0, dr_out = 0, ire_in = 0, ire_out = 0, ipe_in = 0, ipe_out = 0;
+    double dre_in = 0, dre_out = 0, dpe_in = 0, dpe_out = 0;
     const bool interbeds = !preconsolidation.values().empty();
+    const bool delay = !delay_elastic.values().empty();
+    assert(!delay || (model.aquifer.interbeds && model.aquifer.interbeds->delay));
     assert(interbeds == model.aquifer.interbeds.has_value());
 #pragma omp parallel for schedule(static) reduction(+ : skel_in, skel_out, water_in, water_out, \
                                                         el_in, el_out, dr_in, dr_out, ire_in, \
-                                                        ire_out, ipe_in, ipe_out)
+                                                        ire_out, ipe_in, ipe_out, dre_in, dre_out, \
+                                                        dpe_in, dpe_out)
     for (std::ptrdiff_t u = first; u < n; ++u) {
       const CellIndex c = layout.cell_of_unknown[static_cast<std::size_t>(u)];
       const std::size_t i = at(c);
@@ -151,6 +161,10 @@ WaterBudget step_budget(const Model& model, const SystemLayout& layout, const Gr
       add(dr_in, dr_out, release.drainage);
       add(ire_in, ire_out, release.interbed_elastic);
       add(ipe_in, ipe_out, release.interbed_inelastic);
+      if (delay) {  // released over the step per unit area, as a rate
+        add(dre_in, dre_out, delay_elastic[i] * layout.area[i] / dt);
+        add(dpe_in, dpe_out, delay_inelastic[i] * layout.area[i] / dt);
+      }
     }
     budget[BudgetComponent::storage_skeleton] = {skel_in, skel_out};
     budget[BudgetComponent::storage_water] = {water_in, water_out};
@@ -158,6 +172,8 @@ WaterBudget step_budget(const Model& model, const SystemLayout& layout, const Gr
     budget[BudgetComponent::storage_drainage] = {dr_in, dr_out};
     budget[BudgetComponent::interbed_recoverable] = {ire_in, ire_out};
     budget[BudgetComponent::interbed_permanent] = {ipe_in, ipe_out};
+    budget[BudgetComponent::delay_bed_recoverable] = {dre_in, dre_out};
+    budget[BudgetComponent::delay_bed_permanent] = {dpe_in, dpe_out};
   }
 
   const std::vector<FeatureRef> features = list_features(model);

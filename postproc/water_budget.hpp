@@ -21,6 +21,8 @@ enum class BudgetComponent {
   storage_elastic,
   interbed_recoverable,
   interbed_permanent,
+  delay_bed_recoverable,
+  delay_bed_permanent,
   fixed_head,
   well,
   recharge,
@@ -30,7 +32,7 @@ enum class BudgetComponent {
   evapotranspiration,
   leakage
 };
-inline constexpr std::size_t n_budget_components = 14;
+inline constexpr std::size_t n_budget_components = 16;
 
 /// Name of a component in the results, e.g. "storage_skeleton" or "well".
 std::string_view component_label(BudgetComponent c);
@@ -64,17 +66,23 @@ struct WaterBudget {
 /// End-of-step rates of every component and feature for an accepted step.
 /// Steady steps have no storage terms; dt is then ignored. preconsolidation: the interbeds'
 /// preconsolidation heads at the step start (StepInfo::preconsolidation; empty without
-/// interbeds).
+/// interbeds). delay_elastic, delay_inelastic: the delay beds' release over the step (L per
+/// unit plan area per cell, StepInfo::delay_bed_elastic and _inelastic; empty without delay
+/// beds).
 WaterBudget step_budget(const Model& model, const SystemLayout& layout, std::size_t period,
                         bool steady, double dt, std::span<const double> head_old,
                         std::span<const double> head_new,
-                        std::span<const double> preconsolidation = {});
+                        std::span<const double> preconsolidation = {},
+                        std::span<const double> delay_elastic = {},
+                        std::span<const double> delay_inelastic = {});
 
 /// The share of the cells a part owns (head_old and head_new must hold them and their
 /// neighbours): summed over every part, the budget of the whole grid.
 WaterBudget step_budget(const Model& model, const SystemLayout& layout, const GridPart& part,
                         std::size_t period, bool steady, double dt, CellValues head_old,
-                        CellValues head_new, CellValues preconsolidation);
+                        CellValues head_new, CellValues preconsolidation,
+                        CellValues delay_elastic = std::span<const double>(),
+                        CellValues delay_inelastic = std::span<const double>());
 
 /// Replaces every rate of b (components, features, well shortfall) by its sum over the
 /// processes of a distributed run.

@@ -24,6 +24,8 @@ std::string_view storage_source_label(BudgetComponent c) {
     case BudgetComponent::storage_elastic:
     case BudgetComponent::interbed_recoverable:
     case BudgetComponent::interbed_permanent:
+    case BudgetComponent::delay_bed_recoverable:
+    case BudgetComponent::delay_bed_permanent:
       return component_label(c);
     default:
       return "";
@@ -41,12 +43,18 @@ std::vector<BudgetComponent> storage_components(const Model& model) {
   if (model.aquifer.interbeds) {
     out.push_back(BudgetComponent::interbed_recoverable);
     out.push_back(BudgetComponent::interbed_permanent);
+    if (model.aquifer.interbeds->delay) {
+      out.push_back(BudgetComponent::delay_bed_recoverable);
+      out.push_back(BudgetComponent::delay_bed_permanent);
+    }
   }
   return out;
 }
 
 std::string_view source_group(std::string_view source) {
-  if (source.rfind("storage_", 0) == 0 || source.rfind("interbed_", 0) == 0) return "storage";
+  if (source.rfind("storage_", 0) == 0 || source.rfind("interbed_", 0) == 0 ||
+      source.rfind("delay_bed_", 0) == 0)
+    return "storage";
   if (source == "river" || source == "drain") return "rivers and drains";
   if (source == "fixed_head" || source == "external_head" || source == "leakage")
     return "boundaries";
@@ -130,8 +138,9 @@ void PeriodVolumeObserver::initial_state(std::span<const double> head) {
 void PeriodVolumeObserver::step_done(const StepInfo& info, std::span<const double> head_old,
                                      std::span<const double> head_new) {
   if (periods.size() <= info.period) periods.resize(info.period + 1);
-  const WaterBudget rates = step_budget(model_, layout_, info.period, info.steady, info.dt,
-                                        head_old, head_new, info.preconsolidation);
+  const WaterBudget rates =
+      step_budget(model_, layout_, info.period, info.steady, info.dt, head_old, head_new,
+                  info.preconsolidation, info.delay_bed_elastic, info.delay_bed_inelastic);
   periods[info.period].add_scaled(rates, info.dt);
   head.assign(head_new.begin(), head_new.end());
 }

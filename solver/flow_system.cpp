@@ -111,11 +111,30 @@ void FlowSystem::assemble_cells(std::span<const double> head) {
   residual_sum_ = sum;
 }
 
+void FlowSystem::add_delay_bed_flows(std::span<const double> head) {
+  const std::vector<std::size_t>& cells = delay_beds_->cells();
+  const auto n = static_cast<std::ptrdiff_t>(cells.size());
+#pragma omp parallel
+  {
+    std::vector<double> nodes(delay_beds_->nodes());
+#pragma omp for schedule(static)
+    for (std::ptrdiff_t b = 0; b < n; ++b) {
+      const std::size_t i = cells[static_cast<std::size_t>(b)];  // the whole grid: held = grid
+      const DelayBedStepResult r =
+          delay_beds_->solve(static_cast<std::size_t>(b), head[i], dt_, nodes);
+      const double scale = layout_.area[i] * delay_beds_->count(static_cast<std::size_t>(b));
+      stress_q_[i] += scale * r.flow;
+      stress_dq_[i] += scale * r.flow_slope;
+    }
+  }
+}
+
 void FlowSystem::assemble(std::span<const double> head) {
   const auto n_cells = static_cast<std::ptrdiff_t>(stress_q_.size());
 #pragma omp parallel for schedule(static)
   for (std::ptrdiff_t i = 0; i < n_cells; ++i) stress_q_[i] = stress_dq_[i] = 0.0;
   add_stress_flows(model_, layout_, period_, head, stress_q_, stress_dq_, parallel_recharge_);
+  if (delay_beds_ != nullptr && delay_beds_->active() && !steady_) add_delay_bed_flows(head);
 
   // Saturated thickness once per cell (not once per face side); a confined model needs none.
   const bool confined = model_.aquifer.condition == Condition::confined;

@@ -8,6 +8,7 @@
 #include <vector>
 
 #include "solver/cell_balance.hpp"
+#include "solver/delay_bed_heads.hpp"
 #include "solver/model.hpp"
 #include "solver/storage_function.hpp"
 #include "solver/system_layout.hpp"
@@ -25,6 +26,10 @@ class FlowSystem {
   void set_step(std::size_t period, bool steady, double dt, std::span<const double> head_old);
   /// The interbeds' preconsolidation heads at the step start (L, per grid cell).
   void set_preconsolidation(std::span<const double> preconsolidation);
+  /// The delay beds' state at the step start (null: none); in a transient step each assembly
+  /// solves them at the assembled heads and adds their flow and its exact slope to the cells'
+  /// stresses (solver/delay_bed_heads.hpp).
+  void set_delay_beds(const DelayBedHeads* beds) { delay_beds_ = beds; }
 
   /// Evaluates the residual R (L3/T per unknown: face flows + stresses + storage release
   /// rate) and the matrix -dR/dh at head (per grid cell; fixed cells hold their heads).
@@ -73,9 +78,12 @@ class FlowSystem {
   /// The loop over unknowns: residual, matrix values, budget sums.
   template <bool Confined>
   void assemble_cells(std::span<const double> head);
+  /// The delay beds' flows and slopes at head, added to stress_q_ and stress_dq_.
+  void add_delay_bed_flows(std::span<const double> head);
   /// Fixed cells, for the fixed-head throughflow.
   std::vector<CellIndex> fixed_cells_;
   std::span<const double> head_old_;
+  const DelayBedHeads* delay_beds_ = nullptr;
   std::size_t period_ = 0;
   bool steady_ = true;
   double dt_ = 1.0;

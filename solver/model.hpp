@@ -41,8 +41,24 @@ inline double skeleton_share_of_storage(const Compressibility& c, double alpha, 
   return total > 0.0 ? alpha / total : 0.0;
 }
 
+/// Thick fine-grained beds that drain slowly (delay beds): in each cell `count` beds of
+/// equivalent thickness `thickness`, in which head diffuses vertically (Terzaghi, 1925), each
+/// solved on a grid of `nodes` equal slices of its half-thickness (solver/delay_bed.hpp).
+/// Per-cell arrays as Aquifer's; a cell with count 0 has none. docs/subsidence.md.
+struct DelayBeds {
+  CellArray<double> count;              ///< -, number of beds (an equivalent count, >= 0)
+  CellArray<double> thickness;          ///< L, equivalent thickness of one bed
+  CellArray<double> vertical_k;         ///< L/T, vertical hydraulic conductivity of the beds
+  CellArray<double> elastic_storage;    ///< 1/L, Ske of the beds
+  CellArray<double> inelastic_storage;  ///< 1/L, Skv of the beds
+  int nodes = 10;                       ///< slices of each half-bed
+  /// True when grid cell i holds delay beds.
+  bool in_cell(std::size_t i) const { return count[i] > 0.0 && thickness[i] > 0.0; }
+};
+
 /// Fine-grained interbeds within the aquifer that equilibrate with the cell's head within a
-/// step (no delay). Per-cell arrays as Aquifer's; docs/subsidence.md.
+/// step (no delay), and optionally delay beds. Per-cell arrays as Aquifer's;
+/// docs/subsidence.md.
 struct Interbeds {
   CellArray<double> thickness;          ///< L, total thickness of the beds in the cell
   CellArray<double> elastic_storage;    ///< 1/L, Ske, elastic skeletal specific storage
@@ -52,6 +68,8 @@ struct Interbeds {
   /// already been at that head).
   CellArray<double> preconsolidation;
   double preconsolidation_offset = 0.0;  ///< L, >= 0, used when preconsolidation is empty
+  /// Delay beds, whose nodes start from the same preconsolidation head as the cell's beds.
+  std::optional<DelayBeds> delay;
 };
 
 /// The initial preconsolidation head of cell i (L) given its initial head (L).

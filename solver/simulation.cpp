@@ -7,6 +7,7 @@
 #include <sstream>
 #include <vector>
 
+#include "solver/delay_bed_heads.hpp"
 #include "solver/flow_system.hpp"
 #include "solver/linear_solver.hpp"
 #include "solver/newton_solver.hpp"
@@ -45,26 +46,37 @@ class SerialStepper {
     history_.start(period, steady, dt, head_, trial_);
     system_.set_step(period, steady, dt, head_old_);
     if (preconsolidation_.active()) system_.set_preconsolidation(preconsolidation_.values());
+    system_.set_delay_beds(delay_beds_.active() ? &delay_beds_ : nullptr);
     return solve_newton(system_, linear_, settings_, trial_, work_);
   }
   void accept(const StepInfo& info) {
     std::swap(head_, trial_);
     StepInfo told = info;
     told.preconsolidation = preconsolidation_.values();
+    if (delay_beds_.active()) {
+      delay_beds_.advance(head_, info.steady, info.dt);
+      told.delay_bed_elastic = delay_beds_.elastic();
+      told.delay_bed_inelastic = delay_beds_.inelastic();
+    }
     observer_.step_done(told, head_old_, head_);
     preconsolidation_.lower(head_);
     history_.accepted(info.period, info.dt, head_old_);
   }
-  void start_interbeds() { preconsolidation_.start(head_); }
+  void start_interbeds() {
+    preconsolidation_.start(head_);
+    delay_beds_.start(head_);
+  }
   bool resume(const StartState& start) {
     if (start.linear_start.size() == static_cast<std::size_t>(system_.n_unknowns()))
       work_.update = Eigen::Map<const Eigen::VectorXd>(
           start.linear_start.data(), static_cast<Eigen::Index>(start.linear_start.size()));
     if (start.step_in_period > 0)
       history_.resume_after(start.period, start.previous_head, start.previous_dt);
-    return preconsolidation_.resume(start.preconsolidation);
+    return preconsolidation_.resume(start.preconsolidation) &&
+           delay_beds_.resume(start.delay_bed_heads, start.delay_bed_preconsolidation);
   }
   NewtonResult solve_initial_steady() {
+    system_.set_delay_beds(nullptr);
     system_.set_step(0, true, 1.0, head_);
     return solve_newton(system_, linear_, settings_, head_, work_);
   }
@@ -74,6 +86,8 @@ class SerialStepper {
     state.linear_start.assign(work_.update.data(), work_.update.data() + work_.update.size());
     state.preconsolidation.assign(preconsolidation_.values().begin(),
                                   preconsolidation_.values().end());
+    state.delay_bed_heads = delay_beds_.node_heads();
+    state.delay_bed_preconsolidation = delay_beds_.node_preconsolidation();
     options_.checkpoint(state);
   }
   RunResult finish(RunResult r) const {
@@ -96,6 +110,7 @@ class SerialStepper {
   std::vector<double> head_old_, trial_;
   StepHistory history_{head_old_.size()};
   PreconsolidationHeads preconsolidation_{model_, GridPart::whole(model_.grid)};
+  DelayBedHeads delay_beds_{model_, GridPart::whole(model_.grid)};
 };
 
 }  // namespace

@@ -26,6 +26,10 @@ struct StepInfo {
   /// heads given with it (NaN where inactive); empty without interbeds. Valid only during
   /// step_done: a copy of a StepInfo kept afterwards must not read it.
   std::span<const double> preconsolidation;
+  /// L per unit plan area, the same cells: water the delay beds released into the aquifer
+  /// over the step from their elastic and inelastic branches (solver/delay_bed_heads.hpp);
+  /// empty without delay beds. Valid only during step_done.
+  std::span<const double> delay_bed_elastic, delay_bed_inelastic;
 };
 
 /// Receives the run's results as they are produced. Heads are per grid cell, NaN where
@@ -76,6 +80,9 @@ struct StartState {
   double previous_dt = 0.0;
   /// L per grid cell: the interbeds' preconsolidation heads (empty without interbeds).
   std::vector<double> preconsolidation;
+  /// L, the delay beds' node heads and preconsolidation heads (DelayBedHeads; empty without
+  /// delay beds).
+  std::vector<double> delay_bed_heads, delay_bed_preconsolidation;
   RunResult so_far;  ///< counters of the run up to this point
 };
 

@@ -222,7 +222,8 @@ RunResult run_from_start(const Model& model, const SystemLayout& layout, const G
     if (!stepper.resume(*start))
       return stepper.finish(
           mark_failed(result, start->period, 0, start->time,
-                      "the start state has no preconsolidation heads for this model's interbeds"));
+                      "the start state has no preconsolidation heads (or delay-bed node state) for "
+                      "this model's interbeds"));
   } else if (model.initial.steady) {
     steady_guess(model, layout, window, part);
     apply_fixed_heads(model, 0, window, part);

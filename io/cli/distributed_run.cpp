@@ -28,6 +28,9 @@ class PetscRunEngine final : public RunEngine {
     if (model.output.geotiff)
       return "[output].geotiff is written by the serial engine only; run without --engine petsc "
              "or leave geotiff out (the .pvtr field sets hold the same fields)";
+    if (model.aquifer.interbeds && model.aquifer.interbeds->delay)
+      return "[interbeds] delay beds are solved by the serial engine only; run without "
+             "--engine petsc";
     if (runtime_.n_ranks() <= model.grid.n_rows()) return {};
     return "the distributed engine gives each rank at least one grid row: " +
            std::to_string(runtime_.n_ranks()) + " ranks for " +

@@ -139,6 +139,21 @@ std::vector<PlausibilityWarning> plausibility_warnings(const Model& model) {
                          " cells; fine-grained beds compact more on first loading than on "
                          "reloading (from memory: Skv is commonly tens of times Ske), so check "
                          "whether the two are swapped"});
+    // Delay beds: the same ranges (the same kind of clay), over the cells that have them.
+    if (ib.delay) {
+      const DelayBeds& d = *ib.delay;
+      std::vector<double> ske(d.elastic_storage.values()), skv(d.inelastic_storage.values());
+      for (std::size_t k = 0; k < ske.size(); ++k)
+        if (!(d.count.values()[k] > 0.0)) ske[k] = skv[k] = std::nan("");
+      const CellArray<double> ske_cells(std::move(ske), d.elastic_storage.first());
+      const CellArray<double> skv_cells(std::move(skv), d.inelastic_storage.first());
+      check_range(out, "[interbeds].delay_bed_elastic_storage",
+                  "elastic skeletal specific storage of", active_range(g, ske_cells),
+                  1.0e-6 * per_metre_in_model, 1.0e-4 * per_metre_in_model, per);
+      check_range(out, "[interbeds].delay_bed_inelastic_storage",
+                  "inelastic skeletal specific storage of", active_range(g, skv_cells),
+                  1.0e-5 * per_metre_in_model, 1.0e-2 * per_metre_in_model, per);
+    }
   }
   // Measured heads the report cannot compare: every measured time of a bore outside the run.
   double end = 0.0;

@@ -125,6 +125,16 @@ void aquifer_part(Report& r, const Model& m) {
            ib.preconsolidation.empty()
                ? g3(ib.preconsolidation_offset) + " " + m.length_unit + " below the initial head"
                : range_text(active_range(g, ib.preconsolidation), m.length_unit));
+    if (ib.delay) {
+      const DelayBeds& d = *ib.delay;
+      r.item("delay beds", "number " + range_text(active_range(g, d.count), "") + "; thickness " +
+                               range_text(active_range(g, d.thickness), m.length_unit) + "; " +
+                               std::to_string(d.nodes) + " slices per half-bed" +
+                               "; budget components delay_bed_recoverable, delay_bed_permanent");
+      r.item("  Kv", range_text(active_range(g, d.vertical_k), m.length_unit + "/" + m.time_unit));
+      r.item("  Ske, Skv", range_text(active_range(g, d.elastic_storage), per) + "; " +
+                               range_text(active_range(g, d.inelastic_storage), per));
+    }
   }
 }
 

@@ -15,7 +15,8 @@ double storage_net_release(const WaterBudget& b) {
   double net = 0.0;
   for (auto c : {BudgetComponent::storage_skeleton, BudgetComponent::storage_water,
                  BudgetComponent::storage_drainage, BudgetComponent::storage_elastic,
-                 BudgetComponent::interbed_recoverable, BudgetComponent::interbed_permanent})
+                 BudgetComponent::interbed_recoverable, BudgetComponent::interbed_permanent,
+                 BudgetComponent::delay_bed_recoverable, BudgetComponent::delay_bed_permanent})
     net += b[c].in - b[c].out;
   return net;
 }
@@ -47,6 +48,11 @@ std::string format_period_budget_table(const Model& model,
     out.pop_back();
     out += fmt::format("  {:>11}  {:>11}\n", "beds, elast", "beds, lost");
   }
+  const bool slow = beds && model.aquifer.interbeds->delay.has_value();
+  if (slow) {
+    out.pop_back();
+    out += fmt::format("  {:>12}  {:>11}\n", "slow, elast", "slow, lost");
+  }
   for (const auto& r : rows) {
     const WaterBudget& b = r.volumes;
     const std::string name = r.name.size() > name_width ? r.name.substr(0, name_width) : r.name;
@@ -62,6 +68,11 @@ std::string format_period_budget_table(const Model& model,
       out += fmt::format("  {:>11}  {:>11}", volume(e.in - e.out),
                          volume(b[BudgetComponent::interbed_permanent].in));
     }
+    if (slow) {
+      const InOut& e = b[BudgetComponent::delay_bed_recoverable];
+      out += fmt::format("  {:>12}  {:>11}", volume(e.in - e.out),
+                         volume(b[BudgetComponent::delay_bed_permanent].in));
+    }
     out += "\n";
   }
   out +=
@@ -72,6 +83,10 @@ std::string format_period_budget_table(const Model& model,
         "  (beds, elast: net elastic release of the interbeds, recoverable; beds, lost: water "
         "squeezed from the interbeds below their preconsolidation head, a permanent loss of "
         "storage)\n";
+  if (slow)
+    out +=
+        "  (slow, elast and slow, lost: the same for the delay beds, which drain slowly into "
+        "the aquifer)\n";
   return out;
 }
 

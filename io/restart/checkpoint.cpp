@@ -25,8 +25,19 @@ std::optional<std::string> read_bytes(const std::filesystem::path& file) {
   return text.str();
 }
 
+/// The format being read or written (5 or 6): version 5 had no delay-bed components.
+thread_local std::uint32_t checkpoint_version_read = checkpoint_format_version;
+thread_local std::uint32_t checkpoint_version_written = checkpoint_format_version;
+
+bool in_checkpoint_version(BudgetComponent c, std::uint32_t version) {
+  return version >= 6 ||
+         (c != BudgetComponent::delay_bed_recoverable && c != BudgetComponent::delay_bed_permanent);
+}
+
 void put_budget(BinaryWriter& w, const WaterBudget& b) {
-  for (const InOut& c : b.components) w.put(c.in), w.put(c.out);
+  for (std::size_t k = 0; k < n_budget_components; ++k)
+    if (in_checkpoint_version(static_cast<BudgetComponent>(k), checkpoint_version_written))
+      w.put(b.components[k].in), w.put(b.components[k].out);
   w.put_size(b.features.size());
   for (const InOut& f : b.features) w.put(f.in), w.put(f.out);
   w.put(b.well_shortfall);
@@ -34,7 +45,12 @@ void put_budget(BinaryWriter& w, const WaterBudget& b) {
 
 WaterBudget get_budget(BinaryReader& r) {
   WaterBudget b;
-  for (InOut& c : b.components) c.in = r.get<double>(), c.out = r.get<double>();
+  for (std::size_t k = 0; k < n_budget_components; ++k) {
+    const auto c = static_cast<BudgetComponent>(k);
+    if (!in_checkpoint_version(c, checkpoint_version_read)) continue;
+    b.components[k].in = r.get<double>();
+    b.components[k].out = r.get<double>();
+  }
   b.features.resize(r.get_size(2 * sizeof(double)));
   for (InOut& f : b.features) f.in = r.get<double>(), f.out = r.get<double>();
   b.well_shortfall = r.get<double>();
@@ -204,6 +220,14 @@ InputFingerprint fingerprint_inputs(const Model& model) {
 }
 
 std::string encode_checkpoint(const Checkpoint& c) {
+  return encode_checkpoint(c, checkpoint_format_version);
+}
+
+std::string encode_checkpoint(const Checkpoint& c, std::uint32_t version) {
+  if (version != checkpoint_format_version && !(version == 5 && c.state.delay_bed_heads.empty() &&
+                                                c.state.delay_bed_preconsolidation.empty()))
+    throw CheckpointError(fmt::format("cannot write checkpoint format version {}", version));
+  checkpoint_version_written = version;
   BinaryWriter payload;
   const StartState& s = c.state;
   payload.put_size(s.period);
@@ -214,12 +238,16 @@ std::string encode_checkpoint(const Checkpoint& c) {
   payload.put_vector(s.previous_head);
   payload.put(s.previous_dt);
   payload.put_vector(s.preconsolidation);
+  if (version >= 6) {
+    payload.put_vector(s.delay_bed_heads);
+    payload.put_vector(s.delay_bed_preconsolidation);
+  }
   put_run_counters(payload, s.so_far);
   put_recorder(payload, c.recorder);
 
   BinaryWriter w;
   for (char ch : magic) w.put(ch);
-  w.put(checkpoint_format_version);
+  w.put(version);
   w.put(byte_order_mark);
   w.put(c.inputs.model);
   w.put_size(c.inputs.files.size());
@@ -238,11 +266,12 @@ Checkpoint decode_checkpoint(std::string_view bytes) {
     for (char ch : magic)
       if (r.get<char>() != ch) throw CheckpointError("not an aquiledger checkpoint file");
     const auto version = r.get<std::uint32_t>();
-    if (version != checkpoint_format_version)
+    if (version != checkpoint_format_version && version != 5)
       throw CheckpointError(
-          fmt::format("checkpoint format version {}; this program reads version {} only "
+          fmt::format("checkpoint format version {}; this program reads versions 5 to {} only "
                       "(an older checkpoint cannot be resumed: run the model again from its start)",
                       version, checkpoint_format_version));
+    checkpoint_version_read = version;
     if (r.get<std::uint32_t>() != byte_order_mark)
       throw CheckpointError("checkpoint written on a machine of another byte order");
     Checkpoint c;
@@ -264,6 +293,10 @@ Checkpoint decode_checkpoint(std::string_view bytes) {
     c.state.previous_head = p.get_vector<double>();
     c.state.previous_dt = p.get<double>();
     c.state.preconsolidation = p.get_vector<double>();
+    if (version >= 6) {
+      c.state.delay_bed_heads = p.get_vector<double>();
+      c.state.delay_bed_preconsolidation = p.get_vector<double>();
+    }
     c.state.so_far = get_run_counters(p);
     c.recorder = get_recorder(p);
     if (!p.at_end()) throw CheckpointError("checkpoint file has unexpected trailing data");

@@ -27,7 +27,8 @@ class CheckpointError : public std::runtime_error {
 
 inline constexpr std::string_view checkpoint_file_name = "checkpoint.aqck";
 inline constexpr std::uint32_t checkpoint_format_version =
-    5;  ///< 4: interbeds' preconsolidation heads; 5: subsidence at subsidence points
+    6;  ///< 4: interbeds' preconsolidation heads; 5: subsidence at subsidence points;
+        ///< 6: delay beds' node state and budget components (5 is still read)
 
 /// FNV-1a fingerprints of the model file's bytes and of each file it read.
 struct InputFingerprint {
@@ -46,6 +47,9 @@ struct Checkpoint {
 };
 
 std::string encode_checkpoint(const Checkpoint& checkpoint);
+/// The same in an older format that this program still reads (5: no delay beds; the state
+/// must hold no delay-bed state and no delay-bed budget), for tests of that reading.
+std::string encode_checkpoint(const Checkpoint& checkpoint, std::uint32_t version);
 /// Throws CheckpointError when the bytes are not a complete checkpoint of this format.
 Checkpoint decode_checkpoint(std::string_view bytes);
 

@@ -100,9 +100,9 @@ void ResultRecorder::step_done(const StepInfo& info, std::span<const double> hea
   const auto start = Clock::now();
   if (!period_open_ || current_period_ != info.period) start_period_row(info.period);
 
-  WaterBudget rates =
-      step_budget(model_, layout_, part_, info.period, info.steady, info.dt, window(head_old),
-                  window(head_new), window(info.preconsolidation));
+  WaterBudget rates = step_budget(model_, layout_, part_, info.period, info.steady, info.dt,
+                                  window(head_old), window(head_new), window(info.preconsolidation),
+                                  window(info.delay_bed_elastic), window(info.delay_bed_inelastic));
   reduce(rates);
   const double imbalance = std::abs(rates.imbalance_percent());
   stats_.max_abs_imbalance_percent = std::max(stats_.max_abs_imbalance_percent, imbalance);
@@ -128,7 +128,8 @@ void ResultRecorder::step_done(const StepInfo& info, std::span<const double> hea
   // accumulates inside them.
   if (keeps_fields()) {
     update_cell_fields(model_, layout_, part_, info.steady, info.dt, window(initial_head_),
-                       window(head_old), window(head_new), window(info.preconsolidation), fields_);
+                       window(head_old), window(head_new), window(info.preconsolidation), fields_,
+                       window(info.delay_bed_elastic), window(info.delay_bed_inelastic));
     record_subsidence(info.period + 1, info.step, info.time);
   }
   std::vector<double> observed = sampler_.sample(window(head_new), part_);

@@ -81,6 +81,10 @@ BudgetTableLayout budget_table_layout(const Model& model) {
   if (model.aquifer.interbeds) {
     layout.components.push_back(C::interbed_recoverable);
     layout.components.push_back(C::interbed_permanent);
+    if (model.aquifer.interbeds->delay) {
+      layout.components.push_back(C::delay_bed_recoverable);
+      layout.components.push_back(C::delay_bed_permanent);
+    }
   }
   std::vector<bool> present(n_budget_components, false);
   for (const FeatureRef& f : list_features(model))

@@ -147,6 +147,8 @@ struct DistributedEngine::Impl {
     part.n_cols = g.n_cols();
     part.owned = {static_cast<int>(ys), static_cast<int>(ym)};
     part.window = {static_cast<int>(gys), static_cast<int>(gym)};
+    if (m.aquifer.interbeds && m.aquifer.interbeds->delay)
+      throw std::runtime_error("delay beds are solved by the serial engine only");
     // A model read by band must hold this rank's rows (and no fewer than its ghost rows).
     if (m.band &&
         (m.band->owned.first != part.owned.first || m.band->owned.count != part.owned.count ||

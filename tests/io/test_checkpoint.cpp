@@ -33,6 +33,8 @@ Checkpoint sample() {
   c.state.previous_head = awkward;
   c.state.previous_dt = 0.1;
   c.state.preconsolidation = {std::nan(""), 17.25, -0.0};
+  c.state.delay_bed_heads = {18.5, 18.25, 0.1};
+  c.state.delay_bed_preconsolidation = {18.0, -0.0, 4.9e-324};
   c.state.so_far.steps = 15;
   c.state.so_far.newton_iterations = 61;
   c.state.so_far.cutbacks = 1;
@@ -42,6 +44,7 @@ Checkpoint sample() {
   c.recorder.fields.compaction = {0.0, 1e-7, std::nan("")};
   BudgetStepRow step{1, 3, 13.0217, 4.1, {}, 6, 2, {40, 9, 1}};
   step.rates.components[2] = {1.5, 0.25};
+  step.rates[BudgetComponent::delay_bed_permanent] = {0.75, 0.0};
   step.rates.features = {{1.0, 2.0}};
   c.recorder.step_rows = {step};
   c.recorder.period_rows = {{1, "pumping \"season\"", 0.0, 13.0217, step.rates}};
@@ -73,12 +76,15 @@ TEST_CASE("a checkpoint reads back bit for bit", "[io][checkpoint]") {
   CHECK(same_bits(d.state.previous_head, c.state.previous_head));
   CHECK(d.state.previous_dt == c.state.previous_dt);
   CHECK(same_bits(d.state.preconsolidation, c.state.preconsolidation));
+  CHECK(same_bits(d.state.delay_bed_heads, c.state.delay_bed_heads));
+  CHECK(same_bits(d.state.delay_bed_preconsolidation, c.state.delay_bed_preconsolidation));
   CHECK(d.state.so_far.steps == 15);
   CHECK(d.state.so_far.newton_iterations == 61);
   CHECK(same_bits(d.recorder.initial_head, c.recorder.initial_head));
   CHECK(same_bits(d.recorder.fields.compaction, c.recorder.fields.compaction));
   REQUIRE(d.recorder.step_rows.size() == 1);
   CHECK(d.recorder.step_rows[0].rates.components[2].in == 1.5);
+  CHECK(d.recorder.step_rows[0].rates[BudgetComponent::delay_bed_permanent].in == 0.75);
   CHECK(d.recorder.step_rows[0].rates.features.size() == 1);
   CHECK(d.recorder.step_rows[0].newton_iterations == 6);
   CHECK(d.recorder.step_rows[0].cutbacks == 2);
@@ -134,4 +140,29 @@ TEST_CASE("a checkpoint of an older format version is refused, saying so", "[io]
   CHECK_THROWS_WITH(decode_checkpoint(bytes), Catch::Contains("format version 3") &&
                                                   Catch::Contains("older checkpoint cannot be "
                                                                   "resumed"));
+}
+
+TEST_CASE("a checkpoint of format 5 (before delay beds) is still read", "[io][checkpoint]") {
+  // Format 5 had neither the delay beds' node state nor their two budget components; a run
+  // without delay beds resumes from it as before (docs/subsidence.md, "State and restarts").
+  Checkpoint c = sample();
+  c.state.delay_bed_heads.clear();
+  c.state.delay_bed_preconsolidation.clear();
+  c.recorder.step_rows[0].rates[BudgetComponent::delay_bed_permanent] = {};
+  c.recorder.period_rows[0].volumes = c.recorder.step_rows[0].rates;
+  const std::string old = encode_checkpoint(c, 5);
+  std::uint32_t version = 0;
+  std::memcpy(&version, old.data() + 8, sizeof version);
+  CHECK(version == 5);
+  // Two components (16 bytes each) in each of two budgets, and two empty vectors, fewer.
+  CHECK(encode_checkpoint(c).size() == old.size() + 2 * 32 + 2 * 8);
+  const Checkpoint d = decode_checkpoint(old);
+  CHECK(same_bits(d.state.preconsolidation, c.state.preconsolidation));
+  CHECK(d.state.delay_bed_heads.empty());
+  CHECK(d.recorder.step_rows[0].rates.components[2].in == 1.5);
+  CHECK(d.recorder.period_rows[0].volumes.components[2].out == 0.25);
+  // Read back, it encodes as the current format with the same content.
+  CHECK(encode_checkpoint(d) == encode_checkpoint(c));
+  // A state with delay beds cannot be written in format 5.
+  CHECK_THROWS_AS(encode_checkpoint(sample(), 5), CheckpointError);
 }

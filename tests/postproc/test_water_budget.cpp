@@ -19,6 +19,8 @@ TEST_CASE("component labels and arithmetic follow the model format", "[budget]")
                          "storage_elastic",
                          "interbed_recoverable",
                          "interbed_permanent",
+                         "delay_bed_recoverable",
+                         "delay_bed_permanent",
                          "fixed_head",
                          "well",
                          "recharge",

@@ -24,9 +24,13 @@ class BudgetObserver : public SimulationObserver {
                  std::span<const double> head_new) override {
     steps.push_back(info);
     steps.back().preconsolidation = {};  // valid only during this call
+    steps.back().delay_bed_elastic = steps.back().delay_bed_inelastic = {};
     preconsolidation.emplace_back(info.preconsolidation.begin(), info.preconsolidation.end());
-    const WaterBudget b = step_budget(model_, layout_, info.period, info.steady, info.dt, head_old,
-                                      head_new, info.preconsolidation);
+    delay_elastic.emplace_back(info.delay_bed_elastic.begin(), info.delay_bed_elastic.end());
+    delay_inelastic.emplace_back(info.delay_bed_inelastic.begin(), info.delay_bed_inelastic.end());
+    const WaterBudget b =
+        step_budget(model_, layout_, info.period, info.steady, info.dt, head_old, head_new,
+                    info.preconsolidation, info.delay_bed_elastic, info.delay_bed_inelastic);
     const double d = b.imbalance_percent();
     max_imbalance = std::max(max_imbalance, std::abs(d));
     CHECK(std::abs(d) < 1e-6);
@@ -44,6 +48,8 @@ class BudgetObserver : public SimulationObserver {
   std::vector<WaterBudget> budgets;
   std::vector<std::vector<double>> heads;
   std::vector<std::vector<double>> preconsolidation;  ///< L, at each step's start
+  /// L per unit area, the delay beds' release of each step (empty without delay beds).
+  std::vector<std::vector<double>> delay_elastic, delay_inelastic;
   std::vector<double> last_head;
   std::vector<std::size_t> periods_done;
   WaterBudget cumulative;      ///< volumes (L3) since the start

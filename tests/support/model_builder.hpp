@@ -112,6 +112,21 @@ inline void add_interbeds(Model& m, double b, double ske, double skv, double off
   m.aquifer.interbeds = ib;
 }
 
+/// Uniform delay beds in every cell: `count` beds of equivalent thickness b (L), Kv (L/T),
+/// Ske and Skv (1/L), `nodes` slices per half-bed (needs add_interbeds first).
+inline void add_delay_beds(Model& m, double count, double b, double kv, double ske, double skv,
+                           int nodes) {
+  const auto n = static_cast<std::size_t>(m.grid.n_cells());
+  DelayBeds d;
+  d.count.assign(n, count);
+  d.thickness.assign(n, b);
+  d.vertical_k.assign(n, kv);
+  d.elastic_storage.assign(n, ske);
+  d.inelastic_storage.assign(n, skv);
+  d.nodes = nodes;
+  m.aquifer.interbeds->delay = d;
+}
+
 inline std::vector<CellIndex> column_cells(const Model& m, int col) {
   std::vector<CellIndex> cells;
   for (int r = 0; r < m.grid.n_rows(); ++r) cells.push_back(m.grid.cell(r, col));
