@@ -51,6 +51,7 @@ class SerialStepper {
     std::swap(head_, trial_);
     StepInfo told = info;
     told.preconsolidation = preconsolidation_.values();
+    observer_.converged_system(system_, linear_);
     observer_.step_done(told, head_old_, head_);
     preconsolidation_.lower(head_);
     history_.accepted(info.period, info.dt, head_old_);
@@ -66,7 +67,9 @@ class SerialStepper {
   }
   NewtonResult solve_initial_steady() {
     system_.set_step(0, true, 1.0, head_);
-    return solve_newton(system_, linear_, settings_, head_, work_);
+    const NewtonResult r = solve_newton(system_, linear_, settings_, head_, work_);
+    if (r.converged) observer_.converged_system(system_, linear_);
+    return r;
   }
   void period_done(std::size_t period) { observer_.period_done(period); }
   void checkpoint(std::size_t period, int step_in_period, double time, const RunResult& so_far) {
