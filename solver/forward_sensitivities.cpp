@@ -81,15 +81,13 @@ class SensitivityTracker : public SimulationObserver {
     const long factorized_before = linear_->factorizations();
     linear_->set_relative_tolerance(iterative_tolerance);
     const int n = layout_.n_unknowns();
+    if (!steady) old_head_slope(model_, layout_, dt, h_old, d_old_);
     for (std::size_t k = 0; k < parameters_.size(); ++k) {
       residual_log_slope(model_, layout_, parameters_[k], period, steady, dt, h_old, h, b_);
       std::vector<double>& s = s_[k];
       if (!steady)  // dR/dh_old s_old: the storage release's dependence on the start heads
-        for (int u = 0; u < n; ++u) {
-          const CellIndex c = layout_.cell_of_unknown[static_cast<std::size_t>(u)];
-          const double slope = stored_water_slope(cell_storage(model_, c), h_old[at(c)]);
-          b_[u] += layout_.area[at(c)] * slope / dt * s[at(c)];
-        }
+        for (int u = 0; u < n; ++u)
+          b_[u] += d_old_[u] * s[at(layout_.cell_of_unknown[static_cast<std::size_t>(u)])];
       for (int u = 0; u < n; ++u)  // an iterative solver starts from the last sensitivities
         x_[u] = s[at(layout_.cell_of_unknown[static_cast<std::size_t>(u)])];
       if (!linear_->solve(a, b_, x_))
@@ -110,7 +108,7 @@ class SensitivityTracker : public SimulationObserver {
   FlowSystem* system_ = nullptr;
   LinearSolver* linear_ = nullptr;
   HeadSensitivities s_;
-  Eigen::VectorXd b_, x_;
+  Eigen::VectorXd b_, x_, d_old_;
   long solves_ = 0;
   long factorizations_ = 0;
 };
@@ -123,6 +121,16 @@ std::size_t feature_position(const Model& model, ParameterProperty property, std
   for (std::size_t k = 0; k < features.size(); ++k)
     if (features[k].kind == kind && features[k].index == f) return k;
   throw std::invalid_argument("feature_position: no such feature");
+}
+
+void old_head_slope(const Model& model, const SystemLayout& layout, double dt,
+                    std::span<const double> h_old, Eigen::VectorXd& out) {
+  const int n = layout.n_unknowns();
+  out.resize(n);
+  for (int u = 0; u < n; ++u) {
+    const CellIndex c = layout.cell_of_unknown[static_cast<std::size_t>(u)];
+    out[u] = layout.area[at(c)] * stored_water_slope(cell_storage(model, c), h_old[at(c)]) / dt;
+  }
 }
 
 void residual_log_slope(const Model& model, const SystemLayout& layout, const ModelParameter& p,

@@ -54,6 +54,11 @@ void residual_log_slope(const Model& model, const SystemLayout& layout, const Mo
                         std::size_t period, bool steady, double dt, std::span<const double> h_old,
                         std::span<const double> h, Eigen::VectorXd& out);
 
+/// dR/dh_old (L2/T per unknown, a diagonal): the storage release's dependence on the start
+/// heads h_old of a transient step of length dt, A W'(h_old) / dt.
+void old_head_slope(const Model& model, const SystemLayout& layout, double dt,
+                    std::span<const double> h_old, Eigen::VectorXd& out);
+
 /// Position in list_features(model) of feature f of the kind a feature property acts on.
 std::size_t feature_position(const Model& model, ParameterProperty property, std::size_t f);
 
