@@ -344,6 +344,20 @@ EstimationResult estimate_parameters(const Model& base, const EstimationSetup& s
   settings.relative_cost_tolerance = 1e-12;
   result.fit = fit_bounded_least_squares(problem, settings);
   result.css = composite_scaled_sensitivities(result.fit.jacobian, result.weights);
+  const bool adjoint =
+      setup.gradient == GradientMethod::adjoint ||
+      (setup.gradient == GradientMethod::automatic && k > setup.n_measurement_times());
+  result.gradient_method = adjoint ? "adjoint" : "forward";
+  if (adjoint) {  // one more run and its backward pass
+    result.gradient = adjoint_objective_gradient(base, setup, result.fit.parameters).gradient;
+  } else {  // the fit's last Jacobian and residuals, at the estimates: -2 J^T W r
+    const Eigen::VectorXd d_ln_p =
+        -2.0 * result.fit.jacobian.transpose() *
+        (measured.weights.array() * result.fit.residuals.array()).matrix();
+    result.gradient =
+        in_fit_variables(setup, result.fit.parameters, measured, result.fit.simulated, d_ln_p)
+            .gradient;
+  }
 
   auto name = [&](Eigen::Index j) {
     return setup.parameters[static_cast<std::size_t>(j)].parameter.name;

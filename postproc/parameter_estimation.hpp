@@ -66,6 +66,10 @@ struct EstimationResult {
   Eigen::VectorXd css;                ///< composite scaled sensitivities at the estimates
   std::vector<std::string> warnings;  ///< pairs with |r| > 0.95, bounds reached, no convergence
   int n_model_runs = 0;               ///< runs with sensitivities
+  /// dPhi/dx at the estimates (the first-order optimality: about 0 for a parameter inside
+  /// its bounds at a converged fit), and how it was computed: "forward" or "adjoint".
+  Eigen::VectorXd gradient;
+  std::string gradient_method;
 };
 
 /// Fits the set-up's parameters to its targets.

@@ -177,3 +177,33 @@ TEST_CASE("adjoint gradient: confined basin from an initial steady state", "[adj
 TEST_CASE("adjoint gradient: water-table basin", "[adjoint]") {
   check_adjoint_gradient(adjoint_basin(Condition::water_table));
 }
+
+TEST_CASE("adjoint gradient: the fit reports the gradient at its estimates", "[adjoint]") {
+  // Seven parameters and every target at the same two times: under "auto" the adjoint is chosen,
+  // and its gradient at the estimates is the forward method's there; asked for "forward", the fit's
+  // own last Jacobian and residuals give the same.
+  const Model m = adjoint_basin(Condition::switching);
+  EstimationSetup s = adjoint_setup(m);
+  const auto k = static_cast<Eigen::Index>(s.parameters.size());
+  for (EstimationTarget& t : s.targets) {
+    t.times = {40.0, 140.0};
+    t.weights.resize(2);
+  }
+  REQUIRE(s.n_measurement_times() == 2);
+  Eigen::VectorXd truth = Eigen::VectorXd::Ones(k);
+  truth[0] = 1.4;
+  measure(m, s, truth);
+  s.max_iterations = 2;
+  const EstimationResult automatic = estimate_parameters(m, s);
+  CHECK(automatic.gradient_method == "adjoint");
+  const ObjectiveGradient forward = forward_objective_gradient(m, s, automatic.fit.parameters);
+  REQUIRE(automatic.gradient.size() == k);
+  const double largest = forward.gradient.cwiseAbs().maxCoeff();
+  INFO("largest |dPhi/dx| at the estimates " << largest);
+  CHECK((automatic.gradient - forward.gradient).cwiseAbs().maxCoeff() <= 1e-9 * largest);
+  s.gradient = GradientMethod::forward;
+  const EstimationResult asked = estimate_parameters(m, s);
+  CHECK(asked.gradient_method == "forward");
+  CHECK((asked.fit.parameters - automatic.fit.parameters).cwiseAbs().maxCoeff() == 0.0);
+  CHECK((asked.gradient - forward.gradient).cwiseAbs().maxCoeff() <= 1e-9 * largest);
+}
