@@ -1,5 +1,6 @@
 #include "postproc/estimation_setup.hpp"
 
+#include <algorithm>
 #include <stdexcept>
 
 namespace aquiledger {
@@ -16,6 +17,25 @@ const char* target_kind_label(TargetKind kind) {
       return "flow";
   }
   return "?";
+}
+
+const char* gradient_method_label(GradientMethod method) {
+  switch (method) {
+    case GradientMethod::forward:
+      return "forward";
+    case GradientMethod::adjoint:
+      return "adjoint";
+    default:
+      return "auto";
+  }
+}
+
+int EstimationSetup::n_measurement_times() const {
+  std::vector<double> times;
+  for (const EstimationTarget& t : targets)
+    times.insert(times.end(), t.times.begin(), t.times.end());
+  std::sort(times.begin(), times.end());
+  return static_cast<int>(std::unique(times.begin(), times.end()) - times.begin());
 }
 
 int EstimationSetup::n_measurements() const {

@@ -47,11 +47,22 @@ struct EstimationTarget {
   std::vector<double> weights;  ///< 1 / standard deviation^2 per value (or a relative weight)
 };
 
+/// How the objective's gradient at the estimates is computed: from the fit's forward
+/// sensitivities (J^T W r, no extra run), by the adjoint method (one run and one backward
+/// pass), or automatically: the adjoint when the parameters outnumber the measurement times.
+enum class GradientMethod { automatic, forward, adjoint };
+
+/// "auto", "forward", "adjoint" as written in the set-up file.
+const char* gradient_method_label(GradientMethod method);
+
 struct EstimationSetup {
   std::vector<EstimatedParameter> parameters;
   std::vector<EstimationTarget> targets;
   int max_iterations = 50;  ///< of the Levenberg-Marquardt iteration
+  GradientMethod gradient = GradientMethod::automatic;
   int n_measurements() const;
+  /// Distinct times (T) over every target.
+  int n_measurement_times() const;
 };
 
 /// The model with every parameter at its value (values: one per parameter, in order).

@@ -107,4 +107,11 @@ std::vector<double> ObservationSampler::sample(CellValues head, const GridPart& 
   return values;
 }
 
+void ObservationSampler::add_transposed(std::size_t observation, double a,
+                                        std::span<double> g) const {
+  const Stencil& s = stencils_[observation];
+  for (int i = 0; i < s.n; ++i)
+    if (s.weights[i] != 0.0) g[static_cast<std::size_t>(s.cells[i].value)] += a * s.weights[i];
+}
+
 }  // namespace aquiledger

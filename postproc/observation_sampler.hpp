@@ -19,6 +19,9 @@ class ObservationSampler {
   /// The share of the stencil cells a part owns (head must hold them): summed over every
   /// part, the heads above. Points outside the grid are NaN on every part.
   std::vector<double> sample(CellValues head, const GridPart& part) const;
+  /// The transpose of sample() for one observation: g[cell] += a * d(sampled head)/d head[cell]
+  /// (g per grid cell); nothing for a point outside the grid.
+  void add_transposed(std::size_t observation, double a, std::span<double> g) const;
 
  private:
   struct Stencil {

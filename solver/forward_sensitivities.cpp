@@ -32,7 +32,12 @@ FeatureKind feature_kind(ParameterProperty property) {
   }
 }
 
-/// Follows the run: after each accepted step, the sensitivity system of that step.
+/// Follows the run: after each accepted step, the sensitivity system of that step, solved with
+/// the run's own matrix at the converged heads and its own linear solver (converged_system):
+/// a direct solver whose factorisation is of that matrix (a confined model, or a step Newton
+/// ended on an affine update) solves without factorising; otherwise it factorises the
+/// converged Jacobian once for the p right-hand sides. An iterative solver keeps its
+/// preconditioner and solves to iterative_tolerance.
 class SensitivityTracker : public SimulationObserver {
  public:
   SensitivityTracker(const Model& model, std::span<const ModelParameter> parameters,
@@ -40,17 +45,19 @@ class SensitivityTracker : public SimulationObserver {
       : model_(model),
         parameters_(parameters),
         observer_(observer),
-        layout_(make_system_layout(model)),
-        system_(model, layout_),
-        linear_(system_.symmetric() ? make_cholmod_solver() : make_umfpack_solver()) {
+        layout_(make_system_layout(model)) {
     const auto n = static_cast<std::size_t>(model.grid.n_cells());
     s_.assign(parameters.size(), std::vector<double>(n, 0.0));
     for (auto& s : s_)
       for (std::size_t i = 0; i < n; ++i)
         if (!model.grid.is_active(CellIndex{static_cast<std::int32_t>(i)})) s[i] = std::nan("");
-    x_.setZero(system_.n_unknowns());
+    x_.setZero(layout_.n_unknowns());
   }
 
+  void converged_system(FlowSystem& system, LinearSolver& linear) override {
+    system_ = &system;
+    linear_ = &linear;
+  }
   void initial_state(std::span<const double> head) override {
     if (model_.initial.steady) solve_step(0, true, 1.0, head, head);
     observer_.state(nullptr, head, s_);
@@ -63,40 +70,47 @@ class SensitivityTracker : public SimulationObserver {
   void period_done(std::size_t) override {}
 
   long solves() const { return solves_; }
-  long factorizations() const { return linear_->factorizations(); }
+  long factorizations() const { return factorizations_; }
 
  private:
   void solve_step(std::size_t period, bool steady, double dt, std::span<const double> h_old,
                   std::span<const double> h) {
-    system_.set_step(period, steady, dt, h_old);
-    system_.assemble(h);
-    const int n = system_.n_unknowns();
+    if (!system_ || !linear_)
+      throw std::logic_error("sensitivities: the run did not hand over its converged system");
+    const SparseMatrix& a = system_->matrix();
+    const long factorized_before = linear_->factorizations();
+    linear_->set_relative_tolerance(iterative_tolerance);
+    const int n = layout_.n_unknowns();
+    if (!steady) old_head_slope(model_, layout_, dt, h_old, d_old_);
     for (std::size_t k = 0; k < parameters_.size(); ++k) {
       residual_log_slope(model_, layout_, parameters_[k], period, steady, dt, h_old, h, b_);
       std::vector<double>& s = s_[k];
       if (!steady)  // dR/dh_old s_old: the storage release's dependence on the start heads
-        for (int u = 0; u < n; ++u) {
-          const CellIndex c = layout_.cell_of_unknown[static_cast<std::size_t>(u)];
-          const double slope = stored_water_slope(cell_storage(model_, c), h_old[at(c)]);
-          b_[u] += layout_.area[at(c)] * slope / dt * s[at(c)];
-        }
-      if (!linear_->solve(system_.matrix(), b_, x_))
+        for (int u = 0; u < n; ++u)
+          b_[u] += d_old_[u] * s[at(layout_.cell_of_unknown[static_cast<std::size_t>(u)])];
+      for (int u = 0; u < n; ++u)  // an iterative solver starts from the last sensitivities
+        x_[u] = s[at(layout_.cell_of_unknown[static_cast<std::size_t>(u)])];
+      if (!linear_->solve(a, b_, x_))
         throw std::runtime_error("sensitivities: the linear solver failed");
       ++solves_;
       for (int u = 0; u < n; ++u)
         s[at(layout_.cell_of_unknown[static_cast<std::size_t>(u)])] = x_[u];
     }
+    factorizations_ += linear_->factorizations() - factorized_before;
+    system_ = nullptr;
+    linear_ = nullptr;
   }
 
   const Model& model_;
   std::span<const ModelParameter> parameters_;
   SensitivityObserver& observer_;
   SystemLayout layout_;
-  FlowSystem system_;
-  std::unique_ptr<LinearSolver> linear_;
+  FlowSystem* system_ = nullptr;
+  LinearSolver* linear_ = nullptr;
   HeadSensitivities s_;
-  Eigen::VectorXd b_, x_;
+  Eigen::VectorXd b_, x_, d_old_;
   long solves_ = 0;
+  long factorizations_ = 0;
 };
 
 }  // namespace
@@ -107,6 +121,16 @@ std::size_t feature_position(const Model& model, ParameterProperty property, std
   for (std::size_t k = 0; k < features.size(); ++k)
     if (features[k].kind == kind && features[k].index == f) return k;
   throw std::invalid_argument("feature_position: no such feature");
+}
+
+void old_head_slope(const Model& model, const SystemLayout& layout, double dt,
+                    std::span<const double> h_old, Eigen::VectorXd& out) {
+  const int n = layout.n_unknowns();
+  out.resize(n);
+  for (int u = 0; u < n; ++u) {
+    const CellIndex c = layout.cell_of_unknown[static_cast<std::size_t>(u)];
+    out[u] = layout.area[at(c)] * stored_water_slope(cell_storage(model, c), h_old[at(c)]) / dt;
+  }
 }
 
 void residual_log_slope(const Model& model, const SystemLayout& layout, const ModelParameter& p,

@@ -33,12 +33,16 @@ class SensitivityObserver {
 
 struct SensitivityRun {
   RunResult run;
-  long sensitivity_solves = 0;          ///< linear solves for the sensitivities
-  long sensitivity_factorizations = 0;  ///< of the converged Jacobians (reused when unchanged)
+  long sensitivity_solves = 0;  ///< linear solves for the sensitivities
+  /// Numeric factorisations (or preconditioner set-ups) the sensitivity solves added to the
+  /// run's: 0 when each step's Newton factorisation was of its converged Jacobian.
+  long sensitivity_factorizations = 0;
 };
 
 /// Runs the model (its parameters at their values already) and reports the sensitivities of
-/// the heads to each parameter after the initial state and every accepted step. Models with
+/// the heads to each parameter after the initial state and every accepted step. The solves
+/// use the run's matrix at the converged heads and the run's linear solver (its kept
+/// factorisation or preconditioner; SimulationObserver::converged_system). Models with
 /// interbeds are not supported (std::invalid_argument).
 SensitivityRun run_with_sensitivities(const Model& model,
                                       std::span<const ModelParameter> parameters,
@@ -49,6 +53,11 @@ SensitivityRun run_with_sensitivities(const Model& model,
 void residual_log_slope(const Model& model, const SystemLayout& layout, const ModelParameter& p,
                         std::size_t period, bool steady, double dt, std::span<const double> h_old,
                         std::span<const double> h, Eigen::VectorXd& out);
+
+/// dR/dh_old (L2/T per unknown, a diagonal): the storage release's dependence on the start
+/// heads h_old of a transient step of length dt, A W'(h_old) / dt.
+void old_head_slope(const Model& model, const SystemLayout& layout, double dt,
+                    std::span<const double> h_old, Eigen::VectorXd& out);
 
 /// Position in list_features(model) of feature f of the kind a feature property acts on.
 std::size_t feature_position(const Model& model, ParameterProperty property, std::size_t f);

@@ -53,6 +53,8 @@ class SerialStepper {
     std::swap(head_, trial_);
     StepInfo told = info;
     told.preconsolidation = preconsolidation_.values();
+    // The converged step's system goes to the observer before the beds advance past it.
+    observer_.converged_system(system_, linear_);
     if (delay_beds_.active()) {
       delay_beds_.advance(head_, info.steady, info.dt);
       told.delay_bed_elastic = delay_beds_.elastic();
@@ -78,7 +80,9 @@ class SerialStepper {
   NewtonResult solve_initial_steady() {
     system_.set_delay_beds(nullptr);
     system_.set_step(0, true, 1.0, head_);
-    return solve_newton(system_, linear_, settings_, head_, work_);
+    const NewtonResult r = solve_newton(system_, linear_, settings_, head_, work_);
+    if (r.converged) observer_.converged_system(system_, linear_);
+    return r;
   }
   void period_done(std::size_t period) { observer_.period_done(period); }
   void checkpoint(std::size_t period, int step_in_period, double time, const RunResult& so_far) {

@@ -10,6 +10,9 @@
 
 namespace aquiledger {
 
+class FlowSystem;
+class LinearSolver;
+
 /// What the time controller reports about one accepted step.
 struct StepInfo {
   std::size_t period = 0;  ///< 0-based
@@ -41,6 +44,13 @@ class SimulationObserver {
   virtual void step_done(const StepInfo& info, std::span<const double> head_old,
                          std::span<const double> head_new) = 0;
   virtual void period_done(std::size_t period) = 0;
+  /// Serial engine only, just before initial_state (after an initial steady solve) and before
+  /// step_done: the run's system with its matrix -dR/dh and residual assembled at the
+  /// converged heads of the state reported next, and the linear solver of its Newton
+  /// iterations, whose factorisation or preconditioner an observer may reuse for solves of its
+  /// own with that matrix (forward sensitivities). Valid during the call and the report that
+  /// follows; Newton resets the solver's tolerance before each of its solves. Default: nothing.
+  virtual void converged_system(FlowSystem&, LinearSolver&) {}
 };
 
 struct RunResult {

@@ -91,7 +91,7 @@ void read_estimate_section(ReaderContext& ctx, const toml::table& root, Estimati
                 "missing [estimate] with model = \"model.toml\" (the model to calibrate)");
     return;
   }
-  check_keys(ctx, *t, "[estimate]", {"model", "max_iterations"});
+  check_keys(ctx, *t, "[estimate]", {"model", "max_iterations", "gradient"});
   if (auto m = read_string(ctx, *t, "model", "[estimate]", true)) model_file = ctx.resolve(*m);
   if (auto n = read_integer(ctx, *t, "max_iterations", "[estimate]", false)) {
     if (*n < 1 || *n > 10000)
@@ -99,6 +99,17 @@ void read_estimate_section(ReaderContext& ctx, const toml::table& root, Estimati
                 "expected 1..10000, found " + std::to_string(*n));
     else
       setup.max_iterations = static_cast<int>(*n);
+  }
+  if (auto g = read_string(ctx, *t, "gradient", "[estimate]", false)) {
+    if (*g == "auto")
+      setup.gradient = GradientMethod::automatic;
+    else if (*g == "forward")
+      setup.gradient = GradientMethod::forward;
+    else if (*g == "adjoint")
+      setup.gradient = GradientMethod::adjoint;
+    else
+      ctx.error(*t->get("gradient"), "[estimate].gradient",
+                "expected \"auto\", \"forward\" or \"adjoint\", found \"" + *g + "\"");
   }
 }
 

@@ -82,6 +82,7 @@ std::string estimate_json(const EstimationSetup& setup, const EstimationResult& 
                      r.n_model_runs);
   out += fmt::format("  \"n_measurements\": {},\n", r.observed.size());
   out += fmt::format("  \"objective\": {},\n", number(r.fit.weighted_sum_of_squares));
+  out += fmt::format("  \"gradient_method\": \"{}\",\n", r.gradient_method);
   out += fmt::format("  \"error_variance\": {},\n", number(r.fit.error_variance));
   out += fmt::format("  \"standard_error_of_regression\": {},\n",
                      number(std::sqrt(r.fit.error_variance)));
@@ -91,11 +92,13 @@ std::string estimate_json(const EstimationSetup& setup, const EstimationResult& 
     const auto i = static_cast<Eigen::Index>(j);
     out += fmt::format(
         "    {{\"name\": {}, \"property\": \"{}\", \"form\": \"{}\", \"log\": {}, \"value\": {}, "
-        "\"lower_95\": {}, \"upper_95\": {}, \"css\": {}, \"at_bound\": {}}}{}\n",
+        "\"lower_95\": {}, \"upper_95\": {}, \"css\": {}, \"at_bound\": {}, "
+        "\"objective_gradient\": {}}}{}\n",
         json_string(e.parameter.name), parameter_property_label(e.parameter.property),
         form_label(e.parameter.form), e.log ? "true" : "false", number(r.fit.parameters[i]),
         number(r.fit.lower_95[i]), number(r.fit.upper_95[i]), number(r.css[i]),
-        r.fit.at_bound[j] ? "true" : "false", j + 1 < k ? "," : "");
+        r.fit.at_bound[j] ? "true" : "false",
+        number(i < r.gradient.size() ? r.gradient[i] : std::nan("")), j + 1 < k ? "," : "");
   }
   out += "  ],\n  \"correlation\": [";
   for (std::size_t i = 0; i < k; ++i) {

@@ -138,6 +138,7 @@ TEST_CASE("estimation set-up: parameters and targets resolved against the model"
   REQUIRE(r.model);
   const EstimationSetup& s = *r.setup;
   CHECK(s.max_iterations == 20);
+  CHECK(s.gradient == GradientMethod::automatic);
   REQUIRE(s.parameters.size() == 3);
   // Zone 1 is the west column: cells 0 and 3 in raster order.
   CHECK(s.parameters[0].parameter.cells == std::vector<int>{0, 3});
@@ -176,6 +177,22 @@ TEST_CASE("estimation set-up: parameter values put into the model") {
   CHECK(m.recharges[0].rate.at(0, 0) == 0.001);
 }
 
+TEST_CASE("estimation set-up: the gradient method") {
+  const Folder f;
+  for (auto [word, method] : {std::pair{"forward", GradientMethod::forward},
+                              std::pair{"adjoint", GradientMethod::adjoint},
+                              std::pair{"auto", GradientMethod::automatic}}) {
+    std::string text = good;
+    text.replace(text.find("max_iterations = 20"), 19,
+                 std::string("max_iterations = 20\ngradient = \"") + word + "\"");
+    const EstimationReadResult r = f.read(text);
+    INFO(first_error(r));
+    REQUIRE(r.setup);
+    CHECK(r.setup->gradient == method);
+    CHECK(std::string(gradient_method_label(method)) == word);
+  }
+}
+
 TEST_CASE("estimation set-up: errors name file, line and key") {
   const Folder f;
   struct Case {
@@ -196,6 +213,8 @@ TEST_CASE("estimation set-up: errors name file, line and key") {
       {"weight = 100.0", "weight = 100.0\nstandard_deviation = 0.1",
        "[[target]] \"gradient\".weight", "not both"},
       {"prior_weight = 4.0", "", "[[parameter]] \"sy\".prior_weight", "needs prior_weight"},
+      {"max_iterations = 20", "max_iterations = 20\ngradient = \"backward\"", "[estimate].gradient",
+       "expected \"auto\", \"forward\" or \"adjoint\""},
   };
   for (const Case& c : cases) {
     std::string text = good;

@@ -164,3 +164,28 @@ TEST_CASE("sensitivities: water-table basin", "[sensitivities]") {
   m.drains[0].elevation = PeriodValues(18.5);
   check_against_differences(m, every_parameter(m));
 }
+
+TEST_CASE("sensitivities reuse the run's factorisation of a linear step", "[sensitivities]") {
+  // A confined model with a well and a fixed-head edge is linear in the heads, so each step's
+  // Newton factorisation is of its converged Jacobian: the sensitivity solves add no
+  // factorisation (steps of equal length share one), and still match central differences.
+  UniformAquifer a;
+  a.k = 5.0;
+  a.specific_storage = 2e-4;
+  Model m = tight(uniform_model(8, 9, 50.0, 60.0, a));
+  m.periods = {Period{"pumping", 2.0, 6, 1.0, false}, Period{"recovery", 2.0, 4, 1.0, false}};
+  const RectilinearGrid& g = m.grid;
+  m.wells.push_back(Well{"supply", 225.0, 240.0, g.cell(4, 4), PeriodValues(300.0)});
+  std::vector<CellIndex> edge;
+  for (int r = 0; r < g.n_rows(); ++r) edge.push_back(g.cell(r, 0));
+  m.fixed_heads.push_back(FixedHead{"edge", edge, PeriodValues(0.0)});
+  const std::vector<ModelParameter> params = {
+      cells_parameter("k east", ParameterProperty::conductivity, m, 5),
+      cells_parameter("ss", ParameterProperty::specific_storage, m, 0)};
+  SensitivityRecorder rec;
+  const SensitivityRun run = run_with_sensitivities(m, params, rec);
+  REQUIRE(run.run.converged);
+  CHECK(run.sensitivity_solves == 2 * 10);
+  CHECK(run.sensitivity_factorizations == 0);
+  check_against_differences(m, params);
+}
