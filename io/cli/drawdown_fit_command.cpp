@@ -17,6 +17,7 @@
 #include "io/model_file/pumping_test_reader.hpp"
 #include "io/reports/html_report.hpp"
 #include "io/reports/pumping_test_report.hpp"
+#include "io/reports/run_report.hpp"
 #include "io/results/pumping_test_files.hpp"
 
 namespace aquiledger {
@@ -109,7 +110,7 @@ int run_drawdown_fit_command(const DrawdownFitOptions& o) {
                     parameter_unit(names[j], test), m.fit.lower_95[i], m.fit.upper_95[i]);
   }
   for (const std::string& s : result.classification) out += "  - " + s + "\n";
-  out += fmt::format("Results in {}\n", folder.string());
+  out += fmt::format("Results in {}\n\n{}\n", folder.string(), professional_caution);
   std::fputs(out.c_str(), stdout);
   return exit_success;
 }

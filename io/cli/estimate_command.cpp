@@ -18,6 +18,7 @@
 #include "io/model_file/estimation_reader.hpp"
 #include "io/model_file/fitted_model_writer.hpp"
 #include "io/reports/estimation_report.hpp"
+#include "io/reports/run_report.hpp"
 #include "io/results/estimation_files.hpp"
 
 namespace aquiledger {
@@ -129,7 +130,7 @@ int run_estimate_command(const EstimateOptions& o) {
   }
   for (const std::string& w : result.warnings) out += "  warning: " + w + "\n";
   if (!fitted_model_note.starts_with("warning")) out += fitted_model_note;
-  out += fmt::format("Results in {}\n", folder.string());
+  out += fmt::format("Results in {}\n\n{}\n", folder.string(), professional_caution);
   std::fputs(out.c_str(), stdout);
   return exit_success;
 }
