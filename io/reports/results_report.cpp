@@ -107,6 +107,8 @@ std::string plain_component(const std::string& c) {
       {"storage_drainage", "storage: draining pores"},
       {"interbed_recoverable", "storage: interbeds, elastic"},
       {"interbed_permanent", "storage: interbeds, permanent"},
+      {"delay_bed_recoverable", "storage: delay beds, elastic"},
+      {"delay_bed_permanent", "storage: delay beds, permanent"},
       {"fixed_head", "fixed-head boundary"},
       {"well", "wells"},
       {"recharge", "recharge"},
@@ -241,7 +243,9 @@ void add_step_charts(HtmlReport& page, const CsvTable& steps, const CsvTable& ba
       {"storage_elastic", "elastic (undivided)"},
       {"storage_drainage", "drainage of pores"},
       {"interbed_recoverable", "interbeds, elastic"},
-      {"interbed_permanent", "interbeds, permanent"}};
+      {"interbed_permanent", "interbeds, permanent"},
+      {"delay_bed_recoverable", "delay beds, elastic"},
+      {"delay_bed_permanent", "delay beds, permanent"}};
   for (const auto& [component, label] : mechanisms) {
     const auto found = series.find(component);
     if (found == series.end()) continue;
