@@ -12,7 +12,7 @@ namespace aquiledger {
 
 std::optional<std::vector<FeatureTableRow>> read_feature_table(
     ReaderContext& ctx, const toml::table& entry, const std::string& path,
-    std::initializer_list<std::string_view> optional_columns, std::vector<std::string>& seen) {
+    std::initializer_list<std::string_view> optional_columns, NameSet& seen) {
   auto name = read_string(ctx, entry, "table", path, true);
   if (!name || !ctx.grid) return std::nullopt;
   const std::string key = path + ".table";
@@ -89,11 +89,10 @@ std::optional<std::vector<FeatureTableRow>> read_feature_table(
       fail("name", "empty; every feature needs a name");
       continue;
     }
-    if (std::find(seen.begin(), seen.end(), row.name) != seen.end()) {
+    if (!seen.insert(row.name).second) {
       fail("name", "'" + row.name + "' is already used by another feature of this section");
       continue;
     }
-    seen.push_back(row.name);
     auto x = parse_value(cell_of("x")), y = parse_value(cell_of("y"));
     if (!x || !y) {
       fail(!x ? "x" : "y",

@@ -30,6 +30,6 @@ struct FeatureTableRow {
 /// and left out; nullopt when the file cannot be used at all. Needs ctx.grid.
 std::optional<std::vector<FeatureTableRow>> read_feature_table(
     ReaderContext& ctx, const toml::table& entry, const std::string& path,
-    std::initializer_list<std::string_view> optional_columns, std::vector<std::string>& seen);
+    std::initializer_list<std::string_view> optional_columns, NameSet& seen);
 
 }  // namespace aquiledger

@@ -126,7 +126,7 @@ namespace {
 /// bore's time,head file), with measured heads also from `measured_series`: a time series
 /// with one column per bore (io/model_file/time_series.hpp; an empty cell: no reading).
 void read_observation_table(ReaderContext& ctx, const toml::table& t, const std::string& path,
-                            std::vector<std::string>& names, Model& model) {
+                            NameSet& names, Model& model) {
   for (std::string_view key : {"name", "x", "y", "measured"})
     if (const toml::node* n = t.get(key))
       ctx.error(*n, key_path(path, key),
@@ -181,7 +181,7 @@ void read_observation_table(ReaderContext& ctx, const toml::table& t, const std:
 void read_observations(ReaderContext& ctx, const toml::table& root, Model& model) {
   const toml::array* obs = section_tables(ctx, root, "observation");
   if (!obs) return;
-  std::vector<std::string> names;
+  NameSet names;
   for (std::size_t i = 0; i < obs->size(); ++i) {
     const toml::table& t = *(*obs)[i].as_table();
     const std::string path = feature_path("observation", t, i);
@@ -205,7 +205,7 @@ void read_observations(ReaderContext& ctx, const toml::table& root, Model& model
 void read_subsidence_points(ReaderContext& ctx, const toml::table& root, Model& model) {
   const toml::array* points = section_tables(ctx, root, "subsidence_point");
   if (!points) return;
-  std::vector<std::string> names;
+  NameSet names;
   for (std::size_t i = 0; i < points->size(); ++i) {
     const toml::table& t = *(*points)[i].as_table();
     const std::string path = feature_path("subsidence_point", t, i);

@@ -149,7 +149,7 @@ void read_periods(ReaderContext& ctx, const toml::table& root, Model& model) {
                   " are supported");
     return;
   }
-  std::vector<std::string> names;
+  NameSet names;
   long long total_steps = 0;
   double now = 0.0;  // model time at the start of the next period
   const int errors_before = ctx.diagnostics.n_errors();

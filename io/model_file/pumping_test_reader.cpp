@@ -260,7 +260,7 @@ void read_wells(ReaderContext& ctx, const toml::table& root, PumpingTest& test,
       ctx.error(ctx.file_spot(), "[[well]]", "missing the observation wells ([[well]])");
     return;
   }
-  std::vector<std::string> names;
+  NameSet names;
   for (std::size_t i = 0; i < arr->size(); ++i) {
     const toml::table& t = *(*arr)[i].as_table();
     const std::string path = feature_path("well", t, i);

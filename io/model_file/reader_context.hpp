@@ -8,6 +8,7 @@
 #include <memory>
 #include <optional>
 #include <string>
+#include <unordered_set>
 #include <vector>
 
 #include "io/files/calendar.hpp"
@@ -17,6 +18,10 @@
 #include "mesh/rectilinear_grid.hpp"
 
 namespace aquiledger {
+
+/// The names already used in one kind of feature (hashed: a run of calendar periods can hold
+/// 1e5 of them, and a linear search per name made reading quadratic).
+using NameSet = std::unordered_set<std::string>;
 
 /// The grid's shape as soon as [grid] has been read, before the active mask exists.
 struct GridShape {

@@ -46,7 +46,7 @@ std::optional<double> bed_conductance_per_length(ReaderContext& ctx, const toml:
 void read_rivers(ReaderContext& ctx, const toml::table& root, Model& model) {
   const toml::array* arr = section_tables(ctx, root, "river");
   if (!arr) return;
-  std::vector<std::string> names;
+  NameSet names;
   for (std::size_t i = 0; i < arr->size(); ++i) {
     const toml::table& t = *(*arr)[i].as_table();
     const std::string path = feature_path("river", t, i);

@@ -48,7 +48,7 @@ void warn_fixed_overlap(ReaderContext& ctx, const std::string& path, const Sourc
                         const std::vector<CellIndex>& cells);
 /// Reports a name used twice in one kind of feature; names must be unique per section.
 void check_unique_name(ReaderContext& ctx, const toml::table& table, const std::string& path,
-                       const std::string& name, std::vector<std::string>& seen);
+                       const std::string& name, NameSet& seen);
 
 /// One table of a feature section with its key path and its (unique) name.
 struct FeatureHead {

@@ -48,13 +48,12 @@ std::string feature_path(std::string_view section, const toml::table& table, std
 }
 
 void check_unique_name(ReaderContext& ctx, const toml::table& table, const std::string& path,
-                       const std::string& name, std::vector<std::string>& seen) {
-  if (std::find(seen.begin(), seen.end(), name) != seen.end()) {
+                       const std::string& name, NameSet& seen) {
+  if (!seen.insert(name).second) {
     const toml::node* node = table.get("name");
     ctx.error(node ? ctx.spot(*node) : ctx.spot(table), path + ".name",
               "duplicate name \"" + name + "\"; names must be unique within a section");
   }
-  seen.push_back(name);
 }
 
 /// Every table of a section with its key path and a unique name; `keys` are checked.
@@ -64,7 +63,7 @@ std::vector<FeatureHead> feature_tables(ReaderContext& ctx, const toml::table& r
   std::vector<FeatureHead> out;
   const toml::array* arr = section_tables(ctx, root, section);
   if (!arr) return out;
-  std::vector<std::string> names;
+  NameSet names;
   for (std::size_t i = 0; i < arr->size(); ++i) {
     const toml::table& t = *(*arr)[i].as_table();
     FeatureHead f{&t, feature_path(section, t, i), ""};

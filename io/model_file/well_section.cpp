@@ -22,8 +22,7 @@ ValueRule rate_rule(const ReaderContext& ctx) {
 /// The wells of a `table` entry. A row's pumping_rate cell, when given, is its rate in every
 /// period; otherwise the entry's pumping_rate applies, a series taking the column named
 /// after the well.
-void read_well_table(ReaderContext& ctx, const FeatureHead& f, std::vector<std::string>& names,
-                     Model& model) {
+void read_well_table(ReaderContext& ctx, const FeatureHead& f, NameSet& names, Model& model) {
   for (std::string_view key : {"name", "x", "y"})
     if (const toml::node* n = f.table->get(key))
       ctx.error(*n, key_path(f.path, key),
@@ -71,9 +70,9 @@ void read_well_table(ReaderContext& ctx, const FeatureHead& f, std::vector<std::
 
 void read_wells(ReaderContext& ctx, const toml::table& root, Model& model) {
   auto entries = feature_tables(ctx, root, "well", {"name", "x", "y", "pumping_rate", "table"});
-  std::vector<std::string> names;  // every well's, the tables' rows included
+  NameSet names;  // every well's, the tables' rows included
   for (const auto& f : entries)
-    if (!f.table->contains("table")) names.push_back(f.name);
+    if (!f.table->contains("table")) names.insert(f.name);
   for (auto& f : entries) {
     if (f.table->contains("table")) {
       read_well_table(ctx, f, names, model);

@@ -1,7 +1,9 @@
 #!/usr/bin/env bash
 # Builds the model-reader fuzz target with clang's libFuzzer, AddressSanitizer and
 # UndefinedBehaviorSanitizer, seeds it with every model of the project, and runs it.
-#   tests/fuzz/build_and_run.sh [SECONDS [RUNS]]   defaults: 60 s, no run limit
+#   tests/fuzz/build_and_run.sh [SECONDS [RUNS [SEED]]]   defaults: 60 s, no run limit, seed 0
+# (SEED 0: libFuzzer picks one, so each run explores anew; a fixed SEED with a RUNS limit
+# repeats the same inputs, which is what the CI wants: its verdict does not change by chance.)
 # Needs clang++ and its runtime (.ci/install-deps --fuzz). Build folder: build-fuzz/.
 # A crash, hang (20 s per input) or sanitizer report stops the run with status non-zero and
 # leaves the input as build-fuzz/crash-* (or timeout-*, leak-*): add it to tests/data/fuzz/.
@@ -9,6 +11,7 @@ set -euo pipefail
 source_dir=$(cd "$(dirname "$0")/../.." && pwd)
 seconds=${1:-60}
 runs=${2:--1}
+seed=${3:-0}
 build="$source_dir/build-fuzz"
 cxx=$(command -v clang++-14 || command -v clang++ || true)
 if [[ -z "$cxx" ]]; then
@@ -76,7 +79,7 @@ done
 cp "$source_dir"/tests/data/fuzz/* "$corpus/" 2>/dev/null || true
 
 cd "$build"
-echo "fuzz: ${#seeds[@]} seed models, ${seconds} s, runs ${runs}"
+echo "fuzz: ${#seeds[@]} seed models, ${seconds} s, runs ${runs}, seed ${seed}"
 AQUILEDGER_FUZZ_ROOT="$root" ASAN_OPTIONS=detect_leaks=1 UBSAN_OPTIONS=print_stacktrace=1 \
-  ./fuzz_model_reader -max_total_time="$seconds" -runs="$runs" -timeout=20 -rss_limit_mb=4096 \
+  ./fuzz_model_reader -max_total_time="$seconds" -runs="$runs" -seed="$seed" -timeout=20 -rss_limit_mb=4096 \
   -max_len=65536 -print_final_stats=1 "$corpus"
