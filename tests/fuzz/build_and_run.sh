@@ -11,7 +11,7 @@ set -euo pipefail
 source_dir=$(cd "$(dirname "$0")/../.." && pwd)
 seconds=${1:-60}
 runs=${2:--1}
-seed=${3:-0}
+fuzz_seed=${3:-0}
 build="$source_dir/build-fuzz"
 cxx=$(command -v clang++-14 || command -v clang++ || true)
 if [[ -z "$cxx" ]]; then
@@ -79,7 +79,7 @@ done
 cp "$source_dir"/tests/data/fuzz/* "$corpus/" 2>/dev/null || true
 
 cd "$build"
-echo "fuzz: ${#seeds[@]} seed models, ${seconds} s, runs ${runs}, seed ${seed}"
+echo "fuzz: ${#seeds[@]} seed models, ${seconds} s, runs ${runs}, seed ${fuzz_seed}"
 AQUILEDGER_FUZZ_ROOT="$root" ASAN_OPTIONS=detect_leaks=1 UBSAN_OPTIONS=print_stacktrace=1 \
-  ./fuzz_model_reader -max_total_time="$seconds" -runs="$runs" -seed="$seed" -timeout=20 -rss_limit_mb=4096 \
+  ./fuzz_model_reader -max_total_time="$seconds" -runs="$runs" -seed="$fuzz_seed" -timeout=20 -rss_limit_mb=4096 \
   -max_len=65536 -print_final_stats=1 "$corpus"
