@@ -147,6 +147,9 @@ void read_parameters(ReaderContext& ctx, const toml::table& root, const Model& m
     const ParameterProperty prop = e.parameter.property;
     e.parameter.form = form && *form == "value" ? ParameterForm::value : ParameterForm::multiplier;
     e.log = log.value_or(true);
+    // A start given but refused (not a finite number) has its error already: no follow-on
+    // error about a missing start or about lower <= start <= upper.
+    if (t.contains("start") && !start) continue;
     e.start = start.value_or(e.parameter.form == ParameterForm::multiplier ? 1.0 : NAN);
     if (e.parameter.form == ParameterForm::value && !start)
       ctx.error(t, f.path + ".start", "a parameter of form = \"value\" needs a start value");
