@@ -4,6 +4,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 #include <sstream>
 #include <vector>
 
@@ -162,14 +163,30 @@ void steady_guess(const Model& model, const SystemLayout& layout, CellWindow<dou
   int count = 0;
   for (const FixedHead& f : model.fixed_heads)
     for (std::size_t j = 0; j < f.cells.size(); ++j) sum += f.head.at(0, j), ++count;
+  // The level above which every river and drain of period 1 conducts (L): a start below all
+  // of them, with no fixed head, leaves a steady system (no storage term) whose only
+  // head-dependent terms are flat, so its Jacobian is that of a closed aquifer, singular.
+  double connecting_level = -std::numeric_limits<double>::infinity();
+  for (const River& r : model.rivers)
+    for (std::size_t j = 0; j < r.cells.size(); ++j)
+      connecting_level = std::max({connecting_level, r.stage.at(0, j), r.bed_bottom.at(0, j)});
+  for (const Drain& d : model.drains)
+    for (std::size_t j = 0; j < d.cells.size(); ++j)
+      connecting_level = std::max(connecting_level, d.elevation.at(0, j));
   const auto first = static_cast<std::size_t>(part.first_held());
   for (std::size_t i = first; i < first + part.n_held(); ++i) {
     head[i] = std::nan("");
     if (!model.grid.is_active(CellIndex{static_cast<std::int32_t>(i)})) continue;
-    const double full = std::isfinite(layout.full_thickness[i]) ? layout.full_thickness[i]
-                                                                : reference_thickness_without_top;
+    const bool has_top = std::isfinite(layout.full_thickness[i]);
+    const double full = has_top ? layout.full_thickness[i] : reference_thickness_without_top;
     const double mid = model.aquifer.bottom[i] + 0.5 * full;
-    head[i] = count > 0 ? std::max(sum / count, mid) : model.aquifer.bottom[i] + full;
+    if (count > 0)
+      head[i] = std::max(sum / count, mid);
+    else if (has_top)
+      head[i] = model.aquifer.bottom[i] + full;
+    else  // no top to start from: above every river bed and drain (past their smoothing)
+      head[i] =
+          std::max(model.aquifer.bottom[i] + full, connecting_level + layout.smoothing_length[i]);
   }
 }
 

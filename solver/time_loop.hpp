@@ -35,8 +35,10 @@ void apply_fixed_heads(const Model& model, std::size_t period, CellWindow<double
                        const GridPart& part);
 
 /// Start of the Newton iteration for an initial steady state at the cells the part holds:
-/// the mean fixed head where there is one, else the aquifer top; never below mid-thickness,
-/// so that every face conducts. NaN at inactive cells.
+/// the mean fixed head where there is one, else the aquifer top, else (a water-table aquifer
+/// without a top) reference_thickness_without_top above the bottom, raised above every river
+/// stage and bed bottom and drain elevation of period 1 so that each of them conducts; never
+/// below mid-thickness, so that every face conducts. NaN at inactive cells.
 void steady_guess(const Model& model, const SystemLayout& layout, CellWindow<double> head,
                   const GridPart& part);
 

@@ -3,10 +3,8 @@
 
 #include <algorithm>
 #include <cmath>
-#include <fstream>
-#include <sstream>
 
-#include "io/files/input_file_guard.hpp"
+#include "io/model_file/input_file_text.hpp"
 #include "io/model_file/model_reader.hpp"
 #include "io/model_file/reader_context.hpp"
 #include "io/model_file/section_readers.hpp"
@@ -54,26 +52,6 @@ std::vector<std::string> feature_names(const Model& m, ParameterProperty p) {
   if (p == ParameterProperty::drain_conductance) add(m.drains);
   if (p == ParameterProperty::external_conductance) add(m.external_heads);
   return names;
-}
-
-std::optional<std::vector<double>> read_numbers(ReaderContext& ctx, const toml::node& node,
-                                                const std::string& key) {
-  const toml::array* arr = node.as_array();
-  if (!arr) {
-    ctx.error(node, key, "expected an array of numbers, found " + type_name(node));
-    return std::nullopt;
-  }
-  std::vector<double> out;
-  for (std::size_t i = 0; i < arr->size(); ++i) {
-    auto v = number_of((*arr)[i]);
-    if (!v) {
-      ctx.error((*arr)[i], key + "[" + std::to_string(i) + "]",
-                "expected a finite number, found " + show((*arr)[i]));
-      return std::nullopt;
-    }
-    out.push_back(*v);
-  }
-  return out;
 }
 
 /// The storage array a cell property writes (storativity is held as specific storage).
@@ -147,6 +125,9 @@ void read_parameters(ReaderContext& ctx, const toml::table& root, const Model& m
     const ParameterProperty prop = e.parameter.property;
     e.parameter.form = form && *form == "value" ? ParameterForm::value : ParameterForm::multiplier;
     e.log = log.value_or(true);
+    // A start given but refused (not a finite number) has its error already: no follow-on
+    // error about a missing start or about lower <= start <= upper.
+    if (t.contains("start") && !start) continue;
     e.start = start.value_or(e.parameter.form == ParameterForm::multiplier ? 1.0 : NAN);
     if (e.parameter.form == ParameterForm::value && !start)
       ctx.error(t, f.path + ".start", "a parameter of form = \"value\" needs a start value");
@@ -404,8 +385,8 @@ void read_targets(ReaderContext& ctx, const toml::table& root, const Model& mode
         ctx.error(t, f.path, "expected both times and values");
         continue;
       }
-      auto tv = read_numbers(ctx, *times, f.path + ".times");
-      auto vv = read_numbers(ctx, *values, f.path + ".values");
+      auto tv = read_number_array(ctx, *times, f.path + ".times");
+      auto vv = read_number_array(ctx, *values, f.path + ".values");
       if (!tv || !vv) continue;
       if (tv->size() != vv->size() || tv->empty()) {
         ctx.error(*values, f.path + ".values",
@@ -486,19 +467,13 @@ EstimationReadResult read_estimation_text(std::string_view toml_text,
 }
 
 EstimationReadResult read_estimation_file(const std::filesystem::path& path) {
-  EstimationReadResult result;
-  if (auto refusal = input_file_refusal(path, max_setup_file_bytes)) {
-    result.diagnostics.push_back({Severity::error, path, 0, 0, "", "set-up file " + *refusal});
+  InputFileText input = read_input_file_text(path, max_setup_file_bytes, "set-up file");
+  if (input.error) {
+    EstimationReadResult result;
+    result.diagnostics.push_back(std::move(*input.error));
     return result;
   }
-  std::ifstream in(path, std::ios::binary);
-  if (!in) {
-    result.diagnostics.push_back({Severity::error, path, 0, 0, "", "cannot open the set-up file"});
-    return result;
-  }
-  std::ostringstream text;
-  text << in.rdbuf();
-  return read_estimation_text(text.str(), std::filesystem::absolute(path).lexically_normal());
+  return read_estimation_text(input.text, std::filesystem::absolute(path).lexically_normal());
 }
 
 }  // namespace aquiledger

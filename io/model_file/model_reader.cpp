@@ -3,10 +3,9 @@
 #include <toml++/toml.h>
 
 #include <algorithm>
-#include <fstream>
-#include <sstream>
 
 #include "io/files/input_file_guard.hpp"
+#include "io/model_file/input_file_text.hpp"
 #include "io/model_file/plausibility.hpp"
 #include "io/model_file/reader_context.hpp"
 #include "io/model_file/section_readers.hpp"
@@ -111,20 +110,13 @@ ReadResult read_model_text(std::string_view toml_text, const std::filesystem::pa
 }
 
 ReadResult read_model_file(const std::filesystem::path& path, const BandOfGrid& band_of) {
-  if (auto refusal = input_file_refusal(path, max_model_file_bytes)) {
+  InputFileText input = read_input_file_text(path, max_model_file_bytes, "model file");
+  if (input.error) {
     ReadResult result;
-    result.diagnostics.push_back({Severity::error, path, 0, 0, "", "model file " + *refusal});
+    result.diagnostics.push_back(std::move(*input.error));
     return result;
   }
-  std::ifstream in(path, std::ios::binary);
-  if (!in) {
-    ReadResult result;
-    result.diagnostics.push_back({Severity::error, path, 0, 0, "", "cannot open the model file"});
-    return result;
-  }
-  std::ostringstream text;
-  text << in.rdbuf();
-  return read_model_text(text.str(), std::filesystem::absolute(path).lexically_normal(), band_of);
+  return read_model_text(input.text, std::filesystem::absolute(path).lexically_normal(), band_of);
 }
 
 }  // namespace aquiledger

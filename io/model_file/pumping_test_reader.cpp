@@ -2,13 +2,13 @@
 #include "io/model_file/pumping_test_reader.hpp"
 
 #include <cmath>
-#include <fstream>
 #include <sstream>
 
 #include "io/files/calendar.hpp"
 #include "io/files/csv_table.hpp"
 #include "io/files/input_file_guard.hpp"
 #include "io/files/read_error.hpp"
+#include "io/model_file/input_file_text.hpp"
 #include "io/model_file/reader_context.hpp"
 #include "io/model_file/section_readers.hpp"
 #include "io/model_file/toml_access.hpp"
@@ -82,28 +82,11 @@ struct TestClock {
 std::optional<std::vector<double>> read_numbers(ReaderContext& ctx, const toml::node& node,
                                                 const std::string& key,
                                                 const TestClock* clock = nullptr) {
-  const toml::array* arr = node.as_array();
-  if (!arr) {
-    ctx.error(node, key, "expected an array of numbers, found " + type_name(node));
-    return std::nullopt;
-  }
-  std::vector<double> out;
-  for (std::size_t i = 0; i < arr->size(); ++i) {
-    if (clock) {
-      auto v = clock->time_of(ctx, (*arr)[i], key + "[" + std::to_string(i) + "]");
-      if (!v) return std::nullopt;
-      out.push_back(*v);
-      continue;
-    }
-    auto v = number_of((*arr)[i]);
-    if (!v) {
-      ctx.error((*arr)[i], key + "[" + std::to_string(i) + "]",
-                "expected a finite number, found " + show((*arr)[i]));
-      return std::nullopt;
-    }
-    out.push_back(*v);
-  }
-  return out;
+  if (!clock) return read_number_array(ctx, node, key);
+  return read_array_entries(
+      ctx, node, key, [clock](ReaderContext& c, const toml::node& element, const std::string& at) {
+        return clock->time_of(c, element, at);
+      });
 }
 
 void read_test_section(ReaderContext& ctx, const toml::table& root, PumpingTest& test,
@@ -409,19 +392,13 @@ PumpingTestReadResult read_pumping_test_text(std::string_view toml_text,
 }
 
 PumpingTestReadResult read_pumping_test_file(const std::filesystem::path& path) {
-  PumpingTestReadResult result;
-  if (auto refusal = input_file_refusal(path, max_test_file_bytes)) {
-    result.diagnostics.push_back({Severity::error, path, 0, 0, "", "test file " + *refusal});
+  InputFileText input = read_input_file_text(path, max_test_file_bytes, "test file");
+  if (input.error) {
+    PumpingTestReadResult result;
+    result.diagnostics.push_back(std::move(*input.error));
     return result;
   }
-  std::ifstream in(path, std::ios::binary);
-  if (!in) {
-    result.diagnostics.push_back({Severity::error, path, 0, 0, "", "cannot open the test file"});
-    return result;
-  }
-  std::ostringstream text;
-  text << in.rdbuf();
-  return read_pumping_test_text(text.str(), std::filesystem::absolute(path).lexically_normal());
+  return read_pumping_test_text(input.text, std::filesystem::absolute(path).lexically_normal());
 }
 
 }  // namespace aquiledger

@@ -203,6 +203,16 @@ std::optional<double> read_number(ReaderContext& ctx, const toml::table& table,
   return value;
 }
 
+std::optional<std::vector<double>> read_number_array(ReaderContext& ctx, const toml::node& node,
+                                                     const std::string& key) {
+  return read_array_entries(
+      ctx, node, key, [](ReaderContext& c, const toml::node& element, const std::string& at) {
+        auto v = number_of(element);
+        if (!v) c.error(element, at, "expected a finite number, found " + show(element));
+        return v;
+      });
+}
+
 std::optional<long long> read_integer(ReaderContext& ctx, const toml::table& table,
                                       std::string_view key, const std::string& path,
                                       bool required) {

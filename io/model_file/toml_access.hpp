@@ -7,6 +7,7 @@
 #include <optional>
 #include <string>
 #include <string_view>
+#include <vector>
 
 #include "io/model_file/reader_context.hpp"
 
@@ -51,6 +52,29 @@ std::optional<double> read_calendar_time(ReaderContext& ctx, const toml::table& 
                                          bool required);
 /// Number of a node (integer or finite float; inf and nan are not numbers), no message.
 std::optional<double> number_of(const toml::node& node);
+
+/// The entries of the array at `node` (key path `key`) each read by
+/// `entry(ctx, element, "key[i]")` (an std::optional<double> that has reported its own error
+/// when empty), or nullopt with an error when the node is no array or an entry is refused.
+template <class Entry>
+std::optional<std::vector<double>> read_array_entries(ReaderContext& ctx, const toml::node& node,
+                                                      const std::string& key, Entry entry) {
+  const toml::array* arr = node.as_array();
+  if (!arr) {
+    ctx.error(node, key, "expected an array of numbers, found " + type_name(node));
+    return std::nullopt;
+  }
+  std::vector<double> out;
+  for (std::size_t i = 0; i < arr->size(); ++i) {
+    const std::optional<double> v = entry(ctx, (*arr)[i], key + "[" + std::to_string(i) + "]");
+    if (!v) return std::nullopt;
+    out.push_back(*v);
+  }
+  return out;
+}
+/// An array of finite numbers at `node` (key path `key`), or nullopt with an error.
+std::optional<std::vector<double>> read_number_array(ReaderContext& ctx, const toml::node& node,
+                                                     const std::string& key);
 
 /// Key path "section.key" for messages.
 inline std::string key_path(const std::string& path, std::string_view key) {

@@ -236,6 +236,33 @@ TEST_CASE("estimation set-up: errors name file, line and key") {
   }
 }
 
+TEST_CASE("estimation set-up: a refused start is the only error of its parameter") {
+  // "inf" and "nan" are TOML floats but not numbers here (toml_access.hpp, number_of); the
+  // first error must stay the only one on the key, in either form of the parameter.
+  const Folder f;
+  for (const std::string word : {"inf", "nan", "\"0.2\""}) {
+    for (const std::string& from :
+         {std::string("start = 0.2"), std::string("name = \"k west\"\nproperty = \"k\"")}) {
+      std::string text = good;
+      const std::string to = from == "start = 0.2" ? "start = " + word : from + "\nstart = " + word;
+      text.replace(text.find(from), from.size(), to);
+      const EstimationReadResult r = f.read(text);
+      INFO(to);
+      CHECK_FALSE(r.setup);
+      std::string errors;
+      int n_errors = 0;
+      for (const Diagnostic& d : r.diagnostics)
+        if (d.severity == Severity::error) {
+          errors += d.to_string() + "\n";
+          ++n_errors;
+        }
+      INFO(errors);
+      CHECK(n_errors == 1);
+      CHECK(errors.find(".start: expected a number") != std::string::npos);
+    }
+  }
+}
+
 TEST_CASE("estimation set-up: overlapping parameters and a missing model are refused") {
   const Folder f;
   std::string text = good + R"(

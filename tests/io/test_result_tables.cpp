@@ -2,6 +2,7 @@
 #include <cmath>
 #include <cstdlib>
 #include <fstream>
+#include <optional>
 #include <sstream>
 
 #include "io/results/result_tables.hpp"
@@ -72,7 +73,8 @@ BudgetTableLayout split_layout() {
   return {{BudgetComponent::storage_skeleton, BudgetComponent::storage_water, BudgetComponent::well,
            BudgetComponent::river},
           "m3/d",
-          "m3"};
+          "m3",
+          std::nullopt};
 }
 
 }  // namespace
@@ -187,7 +189,8 @@ TEST_CASE("budget period table quotes names and writes volumes with the volume u
   const BudgetTableLayout layout{
       {BudgetComponent::storage_elastic, BudgetComponent::well, BudgetComponent::recharge},
       "ft3/s",
-      "ft3"};
+      "ft3",
+      std::nullopt};
   write_budget_periods_csv(folder / "budget_periods.csv", layout, {row});
   const auto lines = lines_of(folder / "budget_periods.csv");
   REQUIRE(lines.size() == 1 + 4);

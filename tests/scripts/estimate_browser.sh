@@ -9,17 +9,10 @@
 #   bash estimate_browser.sh <aquiledger> <source-dir>
 # Prints "SKIPPED: ..." and exits 0 only when Chromium is not installed.
 set -euo pipefail
-exe=${1:?usage: estimate_browser.sh <aquiledger> <source-dir>}
-src=${2:?usage: estimate_browser.sh <aquiledger> <source-dir>}
-chromium=/usr/bin/chromium
-
-if [[ ! -x "$chromium" ]]; then
-  echo "SKIPPED: $chromium is not installed (Debian package chromium)"
-  exit 0
-fi
-
-tmp=$(mktemp -d)
-trap 'rm -rf "$tmp"' EXIT
+# shellcheck source=../support/script_start.sh
+source "${BASH_SOURCE[0]%/*}/../support/script_start.sh"
+skip_unless_chromium
+make_scratch tmp
 # shellcheck source=../support/browser_page.sh
 source "$src/tests/support/browser_page.sh"
 case_dir="$src/cases/06-larkmoor-calibration"

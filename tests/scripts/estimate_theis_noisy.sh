@@ -22,14 +22,10 @@
 # often (about 0.68 for one standard error), and P(at least 8 of 10) = 0.38 would show it.
 #   bash estimate_theis_noisy.sh <aquiledger> <source-dir>
 set -euo pipefail
-exe=${1:?usage: estimate_theis_noisy.sh <aquiledger> <source-dir>}
-src=${2:?usage: estimate_theis_noisy.sh <aquiledger> <source-dir>}
-if ! /usr/bin/python3 -c "import scipy.special" 2>/dev/null; then
-  echo "SKIPPED: /usr/bin/python3 has no scipy (python3-scipy)"
-  exit 0
-fi
-out=$(mktemp -d)
-trap 'rm -rf "$out"' EXIT
+# shellcheck source=../support/script_start.sh
+source "${BASH_SOURCE[0]%/*}/../support/script_start.sh"
+skip_unless_scipy
+make_scratch out
 grid=(--width-growth 1.5 --extent 3000 --steps 20 --step-growth 1.15)
 for seed in 1 2 3 4 5 6 7 8 9 10; do
   mkdir "$out/$seed"

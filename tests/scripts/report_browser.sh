@@ -7,17 +7,10 @@
 #   bash report_browser.sh <aquiledger> <source-dir>
 # Prints "SKIPPED: ..." and exits 0 only when Chromium is not installed.
 set -euo pipefail
-exe=${1:?usage: report_browser.sh <aquiledger> <source-dir>}
-src=${2:?usage: report_browser.sh <aquiledger> <source-dir>}
-chromium=/usr/bin/chromium
-
-if [[ ! -x "$chromium" ]]; then
-  echo "SKIPPED: $chromium is not installed (Debian package chromium)"
-  exit 0
-fi
-
-tmp=$(mktemp -d)
-trap 'rm -rf "$tmp"' EXIT
+# shellcheck source=../support/script_start.sh
+source "${BASH_SOURCE[0]%/*}/../support/script_start.sh"
+skip_unless_chromium
+make_scratch tmp
 
 "$exe" run "$src/cases/01-marrow-basin/model.toml" --output "$tmp" --quiet
 "$exe" report "$tmp"

@@ -171,3 +171,58 @@ TEST_CASE("initial steady state is reported as the initial heads and persists", 
   // absorb of it moves heads by far less than the head tolerance.
   CHECK(drift < 1e-5);
 }
+
+TEST_CASE("initial steady state of a water-table strip without a top between two rivers",
+          "[analytical]") {
+  // Dupuit (1863), Forchheimer (1886), as above: h^2 = h1^2 - (h1^2 - h2^2) x / L
+  // + (N / K) x (L - x), here between two rivers in the end cells of an aquifer with no top.
+  // Every river bed lies well above bottom + reference_thickness_without_top, where a start
+  // from the bottom alone would leave both rivers disconnected and the steady Jacobian that
+  // of a closed aquifer (singular): the run must still find the steady state.
+  test::AquiferSpec a;
+  a.condition = Condition::water_table;
+  a.top = std::nan("");
+  a.bottom = 0.0;
+  a.k = 5.0;
+  const double h1 = 30.0, h2 = 26.0, n_rate = 0.002, conductance = 1e7;
+  std::vector<double> widths(200, 1.0);
+  widths.front() = widths.back() = 1e-3;
+  Model m = test::make_model(widths, {1.0}, a);
+  m.initial.steady = true;
+  m.initial.head = std::vector<double>{};
+  const int last = m.grid.n_cols() - 1;
+  for (auto [col, stage] : {std::pair{0, h1}, std::pair{last, h2}}) {
+    River r;
+    r.name = "river at column " + std::to_string(col + 1);
+    r.cells = {m.grid.cell(0, col)};
+    r.length = {1.0};
+    r.stage = PeriodValues(stage);
+    r.bed_bottom = PeriodValues(stage - 1.0);
+    r.conductance = PeriodValues(conductance);
+    m.rivers.push_back(r);
+  }
+  REQUIRE(h2 - 1.0 > a.bottom + reference_thickness_without_top);
+  test::add_recharge(m, {n_rate});
+  test::add_period(m, 1.0, 1, 1.0, true);
+  test::BudgetObserver obs(m);
+  const RunResult run = run_simulation(m, obs);
+  INFO(run.failure);
+  REQUIRE(run.converged);
+  const double length = m.grid.x_center(last) - m.grid.x_center(0);
+  double worst = 0.0;
+  for (int col = 0; col <= last; ++col) {
+    const double x = m.grid.x_center(col) - m.grid.x_center(0);
+    const double exact =
+        std::sqrt(h1 * h1 - (h1 * h1 - h2 * h2) * x / length + n_rate / a.k * x * (length - x));
+    worst = std::max(worst, std::abs(obs.initial[static_cast<std::size_t>(col)] - exact));
+  }
+  std::printf("initial steady Dupuit between rivers, no top: max |h - exact| = %.3e m\n", worst);
+  // As in the steady test above (same cells, ~2.5e-5 m), plus the rivers' bed resistance:
+  // end flows of at most K (h1^2 - h2^2) / (2 L) + N L ~ 3 m2/d over C = 1e7 m2/d, < 1e-6 m.
+  CHECK(worst < 5e-5);
+  // All recharge, over every cell (the river cells too: 1 mm more than L), leaves through
+  // the rivers (net), as at any steady state.
+  const WaterBudget& b = obs.budgets.back();
+  CHECK(b[BudgetComponent::river].out - b[BudgetComponent::river].in ==
+        Approx(n_rate * (length + 1e-3) * 1.0).epsilon(1e-6));
+}
