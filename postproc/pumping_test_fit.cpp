@@ -6,6 +6,8 @@
 #include <numbers>
 #include <stdexcept>
 
+#include "postproc/numerical_well_test.hpp"
+
 namespace aquiledger {
 namespace {
 
@@ -73,6 +75,19 @@ ParameterGuess guess_parameters(const PumpingTest& test, WellTestModel model) {
     g.lower.push_back(1e-9);
     g.upper.push_back(0.5);
   }
+  if (model == WellTestModel::numerical && test.aquifer) {
+    // T and S as above; Sy (water table, or after a confined start) from the late slope's
+    // storage when it is in the range of specific yields, else a common-practice 0.1.
+    const double sy = s_guess > 0.01 ? std::min(s_guess, 0.35) : 0.1;
+    if (test.aquifer->starts_confined()) {
+      g.start.push_back(sy);
+      g.lower.push_back(1e-3);
+      g.upper.push_back(0.5);
+    } else {
+      g.start[1] = sy;
+      g.lower[1] = 1e-3;
+    }
+  }
   if (model == WellTestModel::neuman) {
     // The late slope sees S + Sy; start with that as Sy and the elastic S a hundredth of it.
     double r_max = 0.0;
@@ -103,7 +118,10 @@ ModelFit fit_pumping_test(const PumpingTest& test, WellTestModel model) {
                                     "\" is closer than the pumped well's radius");
   }
   const ParameterGuess guess = guess_parameters(test, model);
+  if (model == WellTestModel::numerical)
+    return fit_numerical_pumping_test(test, guess.start, guess.lower, guess.upper);
   ModelFit result;
+  result.parameter_names = model_parameter_names(model);
   result.model = model;
   result.used.resize(test.wells.size());
   std::vector<std::pair<std::size_t, std::size_t>> points;  // (well, time index)
@@ -204,8 +222,12 @@ std::vector<std::string> classify_aquifer(const PumpingTest& test, const ModelFi
                                           const std::vector<std::vector<double>>& derivatives) {
   std::vector<std::string> text;
   // Neuman's model carries the water-table storage in Sy (its third parameter).
-  const double s =
-      fit.model == WellTestModel::neuman ? fit.fit.parameters[2] : fit.fit.parameters[1];
+  // Neuman's model and the numerical one of a switching aquifer carry the water-table storage
+  // in Sy (their third parameter).
+  const double s = fit.fit.parameters.size() > 2 && (fit.model == WellTestModel::neuman ||
+                                                     fit.model == WellTestModel::numerical)
+                       ? fit.fit.parameters[2]
+                       : fit.fit.parameters[1];
   // Ranges: common practice (about 1e-5..1e-3 confined, 0.01..0.3 specific yield).
   if (s < 1e-5)
     text.push_back(

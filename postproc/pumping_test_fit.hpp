@@ -22,6 +22,22 @@ struct ObservationSeries {
   std::vector<double> drawdowns;  ///< L, positive downwards
 };
 
+/// The aquifer's vertical geometry, when the test file gives it ([aquifer]): with a top above
+/// the static level the aquifer is confined at first and becomes a water-table one where the
+/// head falls below its top (switching cells; parameters T, S, Sy); without a top (or with
+/// the static level at or below it) it is a water-table aquifer (parameters T, Sy).
+struct TestAquiferGeometry {
+  bool has_top = false;
+  double top = 0.0;           ///< L, bottom of the confining bed (when has_top)
+  double bottom = 0.0;        ///< L, base of the aquifer
+  double static_level = 0.0;  ///< L, the head before pumping, same datum
+  /// True when the aquifer starts confined (a top above the static level).
+  bool starts_confined() const { return has_top && static_level > top; }
+  /// L, the saturated thickness before pumping: top - bottom when confined, else
+  /// static_level - bottom. T = K times this, S = Ss times this.
+  double thickness() const { return (starts_confined() ? top : static_level) - bottom; }
+};
+
 /// A pumping test as read from its file.
 struct PumpingTest {
   std::string title;
@@ -29,6 +45,8 @@ struct PumpingTest {
   std::string time_unit = "d";
   std::vector<RateStep> schedule;  ///< sorted by start; rate 0 = recovery
   PumpedWellRadii pumped_well;     ///< the pumped well's radii (0 when not given)
+  /// The aquifer's geometry ([aquifer]), used by the numerical model only.
+  std::optional<TestAquiferGeometry> aquifer;
   std::vector<ObservationSeries> wells;
   int n_observations() const;
 };
@@ -36,12 +54,19 @@ struct PumpingTest {
 /// One model fitted to all wells.
 struct ModelFit {
   WellTestModel model = WellTestModel::theis;
+  std::vector<std::string> parameter_names;  ///< in the order of fit.parameters
   BoundedFitResult fit;
   std::vector<std::vector<double>> fitted;  ///< L, per well and time (every time, also unused)
   std::vector<std::vector<bool>> used;      ///< per well and time: part of the fit
   int n_used = 0;                           ///< observations in the fit
   double aicc = 0.0;                        ///< Hurvich and Tsai (1989), over n_used
   double rms_residual = 0.0;                ///< L
+  /// The fitted model's drawdown (L) per well at curve_times (T, since the start of the test;
+  /// 80 evenly spaced in ln t after pumping began) for the charts: filled by models without a
+  /// closed form (the numerical one); empty otherwise (the charts evaluate the closed form).
+  std::vector<std::vector<double>> curve_times, curve;
+  /// What the fit's model was: for the numerical model its grid and steps; empty otherwise.
+  std::string description;
 };
 
 /// The interpretation: every candidate fitted, the chosen one, the derivative per well and
@@ -66,6 +91,8 @@ ParameterGuess guess_parameters(const PumpingTest& test, WellTestModel model);
 /// to the points whose u = r^2 S / (4 T t) is below 0.01 (Cooper and Jacob, 1946) with the
 /// Theis start values. Throws std::invalid_argument when too few points remain, or when
 /// Papadopulos and Cooper (1967) lacks the pumped well's radii or a well is closer than r_w.
+/// WellTestModel::numerical fits the program's flow model (numerical_well_test.hpp) from
+/// these start values and bounds.
 ModelFit fit_pumping_test(const PumpingTest& test, WellTestModel model);
 
 /// The models `auto` compares: each fitted to the same points, so AICc is comparable

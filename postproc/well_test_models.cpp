@@ -24,6 +24,8 @@ std::string model_name(WellTestModel model) {
       return "papadopulos-cooper";
     case WellTestModel::hantush_aquitard_storage:
       return "hantush-aquitard-storage";
+    case WellTestModel::numerical:
+      return "numerical";
   }
   return "";
 }
@@ -69,6 +71,8 @@ double unit_rate_drawdown(WellTestModel model, const std::vector<double>& parame
     case WellTestModel::hantush_aquitard_storage:
       return hantush_aquitard_storage_drawdown(1.0, transmissivity, storativity, parameters[2],
                                                parameters[3], r, t);
+    case WellTestModel::numerical:
+      throw std::invalid_argument("the numerical model has no closed-form drawdown");
   }
   return 0.0;
 }

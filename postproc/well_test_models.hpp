@@ -17,11 +17,16 @@ enum class WellTestModel {
   neuman,              ///< Neuman (1974) delayed yield: parameters T, S, Sy, L_v
   papadopulos_cooper,  ///< Papadopulos and Cooper (1967) large-diameter well: T, S (radii given)
   hantush_aquitard_storage,  ///< Hantush (1960) leaky with aquitard storage: T, S, B, S'
+  /// The program's own flow model on a radial-telescoping grid (numerical_well_test.hpp):
+  /// T, S (and Sy with the aquifer's geometry); no closed form, so unit_rate_drawdown and
+  /// schedule_drawdown refuse it.
+  numerical,
 };
 
 /// Plain name used in files and messages ("theis", "cooper-jacob", "hantush-jacob", ...).
 std::string model_name(WellTestModel model);
-/// Names of the parameters in fitting order, e.g. {"transmissivity", "storativity"}.
+/// Names of the parameters in fitting order, e.g. {"transmissivity", "storativity"} (for the
+/// numerical model those of a confined aquifer; numerical_parameter_names gives a test's).
 std::vector<std::string> model_parameter_names(WellTestModel model);
 int n_model_parameters(WellTestModel model);
 

@@ -102,13 +102,14 @@ int run_drawdown_fit_command(const DrawdownFitOptions& o) {
     out += fmt::format("  {:<14} AICc {:>10.2f}  rms residual {:.3g} {}{}\n", model_name(c.model),
                        c.aicc, c.rms_residual, test.length_unit,
                        &c == &m ? (result.automatic ? "  <- chosen" : "") : "");
-  const std::vector<std::string> names = model_parameter_names(m.model);
+  const std::vector<std::string>& names = m.parameter_names;
   for (std::size_t j = 0; j < names.size(); ++j) {
     const auto i = static_cast<Eigen::Index>(j);
     out +=
         fmt::format("  {:<16} {:.4g} {} (95 %: {:.4g} .. {:.4g})\n", names[j], m.fit.parameters[i],
                     parameter_unit(names[j], test), m.fit.lower_95[i], m.fit.upper_95[i]);
   }
+  if (!m.description.empty()) out += "  model: " + m.description + "\n";
   for (const std::string& s : result.classification) out += "  - " + s + "\n";
   out += fmt::format("Results in {}\n\n{}\n", folder.string(), professional_caution);
   std::fputs(out.c_str(), stdout);

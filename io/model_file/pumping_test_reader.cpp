@@ -144,6 +144,36 @@ void read_pumped_well(ReaderContext& ctx, const toml::table& root, PumpingTest& 
   if (test.pumped_well.casing == 0.0) test.pumped_well.casing = test.pumped_well.well;
 }
 
+/// [aquifer]: the aquifer's geometry for the numerical model (docs/pumping-tests.md): bottom
+/// and static_level (the head before pumping) required, top optional (a confining top).
+void read_test_aquifer(ReaderContext& ctx, const toml::table& root, PumpingTest& test) {
+  const toml::table* t = optional_table(ctx, root, "aquifer");
+  if (!t) return;
+  check_keys(ctx, *t, "[aquifer]", {"top", "bottom", "static_level"});
+  const auto top = read_number(ctx, *t, "top", "[aquifer]", false);
+  const auto bottom = read_number(ctx, *t, "bottom", "[aquifer]", true);
+  const auto level = read_number(ctx, *t, "static_level", "[aquifer]", true);
+  if (!bottom || !level) return;
+  if (!(*level > *bottom)) {
+    ctx.error(*t->get("static_level"), "[aquifer].static_level",
+              "expected a level above the aquifer's bottom (" + show_number(*bottom) + " " +
+                  ctx.length_unit + "), found " + show_number(*level));
+    return;
+  }
+  if (top && !(*top > *bottom)) {
+    ctx.error(*t->get("top"), "[aquifer].top",
+              "expected a top above the aquifer's bottom (" + show_number(*bottom) + " " +
+                  ctx.length_unit + "), found " + show_number(*top));
+    return;
+  }
+  TestAquiferGeometry g;
+  g.has_top = top.has_value();
+  g.top = top.value_or(0.0);
+  g.bottom = *bottom;
+  g.static_level = *level;
+  test.aquifer = g;
+}
+
 void read_schedule(ReaderContext& ctx, const toml::table& root, PumpingTest& test,
                    const TestClock& clock) {
   const toml::array* arr = section_tables(ctx, root, "pumping");
@@ -355,14 +385,15 @@ std::vector<std::string> pumping_test_model_names() {
           "hantush-jacob",
           "neuman",
           "papadopulos-cooper",
-          "hantush-aquitard-storage"};
+          "hantush-aquitard-storage",
+          "numerical"};
 }
 
 std::optional<WellTestModel> well_test_model_from_name(std::string_view name) {
   for (WellTestModel m :
        {WellTestModel::theis, WellTestModel::cooper_jacob, WellTestModel::hantush_jacob,
         WellTestModel::neuman, WellTestModel::papadopulos_cooper,
-        WellTestModel::hantush_aquitard_storage})
+        WellTestModel::hantush_aquitard_storage, WellTestModel::numerical})
     if (model_name(m) == name) return m;
   return std::nullopt;
 }
@@ -376,11 +407,12 @@ PumpingTestReadResult read_pumping_test_text(std::string_view toml_text,
   PumpingTestReadResult result;
   try {
     const toml::table root = toml::parse(toml_text, as_if_path.string());
-    check_keys(ctx, root, "(top level)", {"test", "pumped_well", "pumping", "well"});
+    check_keys(ctx, root, "(top level)", {"test", "pumped_well", "aquifer", "pumping", "well"});
     PumpingTest test;
     TestClock clock;
     read_test_section(ctx, root, test, result, clock);
     read_pumped_well(ctx, root, test);
+    read_test_aquifer(ctx, root, test);
     read_schedule(ctx, root, test, clock);
     read_wells(ctx, root, test, clock);
     if (!ctx.diagnostics.has_errors()) result.test = std::move(test);

@@ -36,8 +36,10 @@ std::vector<double> curve_times(const ObservationSeries& well, double start, int
 
 /// The storage the late Cooper-Jacob line sees: S, or S + Sy for delayed yield (Neuman, 1974).
 double late_storage(const ModelFit& m) {
-  return m.model == WellTestModel::neuman ? m.fit.parameters[1] + m.fit.parameters[2]
-                                          : m.fit.parameters[1];
+  // The numerical model of a switching aquifer: S + Sy once the water table is reached.
+  const bool sum = m.model == WellTestModel::neuman ||
+                   (m.model == WellTestModel::numerical && m.fit.parameters.size() > 2);
+  return sum ? m.fit.parameters[1] + m.fit.parameters[2] : m.fit.parameters[1];
 }
 
 std::string model_title(WellTestModel m) {
@@ -54,6 +56,8 @@ std::string model_title(WellTestModel m) {
       return "Papadopulos and Cooper (1967), large-diameter well";
     case WellTestModel::hantush_aquitard_storage:
       return "Hantush (1960), leaky with aquitard storage";
+    case WellTestModel::numerical:
+      return "the program's flow model on a radial-telescoping grid";
   }
   return model_name(m);
 }
@@ -109,7 +113,8 @@ HtmlReport pumping_test_page(const PumpingTest& test, const PumpingTestInterpret
       "95 % intervals on ln p (docs/pumping-tests.md); near a bound or for strongly correlated "
       "parameters they are only indicative.",
       model_title(m.model), result.choice_reason, m.n_used, number(m.rms_residual), lu));
-  const std::vector<std::string> names = model_parameter_names(m.model);
+  if (!m.description.empty()) page.add_paragraph("The model: " + m.description + ".");
+  const std::vector<std::string>& names = m.parameter_names;
   {
     std::vector<std::vector<std::string>> rows;
     for (std::size_t j = 0; j < names.size(); ++j) {
@@ -169,12 +174,15 @@ HtmlReport pumping_test_page(const PumpingTest& test, const PumpingTestInterpret
         r.push_back(well.drawdowns[i] - m.fitted[w][i]);
       }
     }
-    const std::vector<double> ct = curve_times(well, start, 80);
+    // Models without a closed form carry their curve (ModelFit::curve).
+    const bool carried = !m.curve_times.empty();
+    const std::vector<double> ct = carried ? m.curve_times[w] : curve_times(well, start, 80);
     std::vector<double> ctp, cs;
-    for (double tc : ct) {
-      ctp.push_back(tc - start);
-      cs.push_back(schedule_drawdown(m.model, p, test.schedule, well.distance, tc, well.images,
-                                     test.pumped_well));
+    for (std::size_t c = 0; c < ct.size(); ++c) {
+      ctp.push_back(ct[c] - start);
+      cs.push_back(carried ? m.curve[w][c]
+                           : schedule_drawdown(m.model, p, test.schedule, well.distance, ct[c],
+                                               well.images, test.pumped_well));
     }
     std::vector<double> cd = logarithmic_derivative(ctp, cs, 0.1);
     loglog.push_back({well.name + ": drawdown", t, s, SeriesStyle::points});

@@ -17,7 +17,7 @@ std::string json_numbers(const Eigen::VectorXd& v) {
 }
 
 std::string model_json(const PumpingTest& test, const ModelFit& m, const std::string& indent) {
-  const std::vector<std::string> names = model_parameter_names(m.model);
+  const std::vector<std::string>& names = m.parameter_names;
   std::string params = "[";
   for (std::size_t j = 0; j < names.size(); ++j) {
     const auto i = static_cast<Eigen::Index>(j);
@@ -37,10 +37,13 @@ std::string model_json(const PumpingTest& test, const ModelFit& m, const std::st
       "{{\n{0}  \"model\": {1},\n{0}  \"parameters\": {2},\n{0}  \"correlation\": {3},\n"
       "{0}  \"observations_used\": {4},\n{0}  \"weighted_sum_of_squares\": {5},\n"
       "{0}  \"rms_residual\": {6},\n{0}  \"aicc\": {7},\n{0}  \"converged\": {8},\n"
-      "{0}  \"iterations\": {9}\n{0}}}",
+      "{0}  \"iterations\": {9}{10}\n{0}}}",
       indent, json_string(model_name(m.model)), params, correlation, m.n_used,
       json_number(m.fit.weighted_sum_of_squares), json_number(m.rms_residual), json_number(m.aicc),
-      m.fit.converged ? "true" : "false", m.fit.n_iterations);
+      m.fit.converged ? "true" : "false", m.fit.n_iterations,
+      m.description.empty()
+          ? std::string()
+          : fmt::format(",\n{}  \"description\": {}", indent, json_string(m.description)));
 }
 
 }  // namespace
@@ -80,7 +83,7 @@ std::string drawdown_fit_json(const PumpingTest& test, const PumpingTestInterpre
 std::string parameters_csv(const PumpingTest& test, const PumpingTestInterpretation& result) {
   std::string out = "model,parameter,value,low,high,unit\n";
   for (const ModelFit& m : result.candidates) {
-    const std::vector<std::string> names = model_parameter_names(m.model);
+    const std::vector<std::string>& names = m.parameter_names;
     for (std::size_t j = 0; j < names.size(); ++j) {
       const auto i = static_cast<Eigen::Index>(j);
       out += fmt::format("{},{},{},{},{},{}\n", model_name(m.model), names[j],

@@ -114,6 +114,55 @@ TEST_CASE("the pumped well's radii for the large-diameter model", "[pumping_test
   }
 }
 
+TEST_CASE("the aquifer's geometry for the numerical model", "[pumping_test_reader]") {
+  {
+    const std::string t =
+        replace(good, "[[pumping]]",
+                "[aquifer]\ntop = -5.0\nbottom = -40.0\nstatic_level = 2.5\n\n[[pumping]]");
+    const PumpingTestReadResult r = read_pumping_test_text(t, "/invented/test.toml");
+    REQUIRE(r.test.has_value());
+    REQUIRE(r.test->aquifer.has_value());
+    CHECK(r.test->aquifer->has_top);
+    CHECK(r.test->aquifer->top == -5.0);
+    CHECK(r.test->aquifer->bottom == -40.0);
+    CHECK(r.test->aquifer->static_level == 2.5);
+    CHECK(r.test->aquifer->starts_confined());
+    CHECK(r.test->aquifer->thickness() == 35.0);
+  }
+  {
+    const std::string t = replace(good, "[[pumping]]",
+                                  "[aquifer]\nbottom = -40.0\nstatic_level = 2.5\n\n[[pumping]]");
+    const PumpingTestReadResult r = read_pumping_test_text(t, "/invented/test.toml");
+    REQUIRE(r.test.has_value());
+    CHECK_FALSE(r.test->aquifer->has_top);
+    CHECK_FALSE(r.test->aquifer->starts_confined());
+    CHECK(r.test->aquifer->thickness() == 42.5);  // water table: static level - bottom
+  }
+  {
+    const std::string t =
+        replace(good, "[[pumping]]", "[aquifer]\nbottom = 4.0\nstatic_level = 2.5\n\n[[pumping]]");
+    expect_error(t, "[aquifer].static_level", line_of(t, "static_level = 2.5"), "above the");
+  }
+  {
+    const std::string t =
+        replace(good, "[[pumping]]",
+                "[aquifer]\ntop = -50.0\nbottom = -40.0\nstatic_level = 2.5\n\n[[pumping]]");
+    expect_error(t, "[aquifer].top", line_of(t, "top = -50.0"), "above the");
+  }
+  {
+    const std::string t =
+        replace(good, "[[pumping]]", "[aquifer]\nstatic_level = 2.5\n\n[[pumping]]");
+    expect_error(t, "[aquifer].bottom", line_of(t, "[aquifer]"), "missing");
+  }
+  {
+    const std::string t =
+        replace(good, "[[pumping]]",
+                "[aquifer]\nbottom = 0.0\nstatic_level = 2.5\nthickness = 3.0\n\n[[pumping]]");
+    const PumpingTestReadResult r = read_pumping_test_text(t, "/invented/test.toml");
+    CHECK_FALSE(r.test.has_value());
+  }
+}
+
 TEST_CASE("a series read from a CSV file", "[pumping_test_reader]") {
   const auto folder = std::filesystem::temp_directory_path() / "aquiledger-pumping-reader";
   std::filesystem::create_directories(folder);

@@ -1,0 +1,138 @@
+// The numerical model of a pumping test (postproc/numerical_well_test.hpp) against Theis
+// (1935): its drawdowns at the true T and S (the discretisation error budget), a fit of
+// noise-free Theis drawdowns from a distant start, and a water-table aquifer against the late
+// Theis curve with S = Sy.
+#include <catch2/catch.hpp>
+#include <cmath>
+#include <numbers>
+
+#include "mesh/quarter_radial_grid.hpp"
+#include "postproc/analytical_solutions.hpp"
+#include "postproc/numerical_well_test.hpp"
+#include "postproc/parameter_estimation.hpp"
+
+using namespace aquiledger;
+
+namespace {
+
+/// Theis (1935) drawdowns of a test pumped at 1200 m3/d for 1 d and then (with recovery)
+/// recovering to 2 d, wells at 25 and 80 m, 24 times log-spaced from 1e-4 d (1e-3 d without
+/// recovery) after each change (the layout of tests/data/pumping/theis_recovery.toml): the
+/// project's theis_drawdown (Boost.Math E1, checked against scipy.special.exp1 in
+/// test_analytical_solutions.cpp), superposed in time for the recovery (Theis, 1935).
+PumpingTest theis_test(double t, double s, bool recovery = true) {
+  PumpingTest test;
+  test.schedule = {{0.0, 1200.0}};
+  if (recovery) test.schedule.push_back({1.0, 0.0});
+  const double decades = recovery ? 4.0 : 3.0;
+  for (double r : {25.0, 80.0}) {
+    ObservationSeries w;
+    w.name = "well at " + std::to_string(r);
+    w.distance = r;
+    for (const RateStep& step : test.schedule)
+      for (int i = 0; i < 24; ++i)
+        w.times.push_back(step.start + std::pow(10.0, -decades + decades * i / 23.0));
+    for (double time : w.times)
+      w.drawdowns.push_back(theis_drawdown(1200.0, t, s, r, time) -
+                            (time > 1.0 ? theis_drawdown(1200.0, t, s, r, time - 1.0) : 0.0));
+    test.wells.push_back(std::move(w));
+  }
+  return test;
+}
+
+/// The largest |numerical - measured| drawdown at the model's own values (multipliers 1).
+double worst_drawdown_error(const PumpingTest& test, const Model& model) {
+  const EstimationSetup setup = numerical_test_setup(
+      test, model, std::vector<double>(numerical_parameter_names(test).size(), 0.1),
+      std::vector<double>(numerical_parameter_names(test).size(), 10.0));
+  const SimulatedTargets sim = simulate_targets(
+      model, setup, Eigen::VectorXd::Ones(static_cast<Eigen::Index>(setup.parameters.size())));
+  return (sim.values - measured_targets(setup).observed).cwiseAbs().maxCoeff();
+}
+
+}  // namespace
+
+TEST_CASE("the quarter radial grid grows from a half cell and centres a column on each well",
+          "[numerical_well_test]") {
+  QuarterRadialGridSpec spec;
+  spec.inner = 2.0;
+  spec.growth = 1.2;
+  spec.extent = 500.0;
+  spec.anchors = {80.0, 25.0};
+  const RectilinearGrid g = quarter_radial_grid(spec);
+  CHECK(g.dx(0) == Approx(1.0));
+  CHECK(g.dy(g.n_rows() - 1) == Approx(1.0));
+  CHECK(g.x_max() >= 500.0);
+  CHECK(g.n_rows() == g.n_cols());
+  // The whole grid's centres: 0 at the well, then x_center of the columns beyond the first.
+  for (double r : {25.0, 80.0}) {
+    bool found = false;
+    for (int c = 1; c < g.n_cols(); ++c) found |= std::abs(g.x_center(c) - r) < 1e-9 * r;
+    CHECK(found);
+  }
+  for (int c = 2; c < g.n_cols(); ++c) {
+    const double ratio = g.dx(c) / g.dx(c - 1);
+    CHECK(ratio > 1.0);
+    CHECK(ratio < 1.2 * 1.2);
+  }
+  spec.growth = 1.0;
+  CHECK_THROWS_AS(quarter_radial_grid(spec), std::invalid_argument);
+}
+
+TEST_CASE("the numerical model's drawdowns are within 1 % of Theis's slope (error budget)",
+          "[numerical_well_test]") {
+  // Theis (1935) at T = 350 m2/d, S = 2e-4; the budget of NumericalTestSettings: |error| <
+  // 0.01 Q / (4 pi T) at every time of both wells (measured 0.90 %).
+  const double t = 350.0, s = 2e-4;
+  const PumpingTest test = theis_test(t, s);
+  const Model m = numerical_test_model(test, {t, s}, t, s);
+  CHECK(worst_drawdown_error(test, m) < 0.01 * 1200.0 / (4.0 * std::numbers::pi * t));
+  // The grid reaches 3 radii of influence sqrt(2.25 T t / S) of the 2 d (Cooper and Jacob,
+  // 1946); the quarter grid's well cell holds a quarter of the rate.
+  CHECK(m.grid.x_max() >= 3.0 * std::sqrt(2.25 * t * 2.0 / s));
+  CHECK(m.wells.front().rate.at(0, 0) == Approx(300.0));
+  CHECK(m.wells.front().rate.at(1, 0) == 0.0);
+}
+
+TEST_CASE("noise-free Theis drawdowns fitted by the numerical model give T and S to 1 %",
+          "[numerical_well_test]") {
+  // From a start a factor 2 and 5 away (not the Cooper-Jacob guess, which is near the truth
+  // for noise-free Theis data): Theis (1935) T = 350 m2/d, S = 2e-4, 3 decades of pumping
+  // (the recovery is in the error budget above; this keeps the test short).
+  const double t = 350.0, s = 2e-4;
+  const ModelFit fit =
+      fit_numerical_pumping_test(theis_test(t, s, false), {700.0, 1e-3}, {1.0, 1e-7}, {1e5, 0.5});
+  CHECK(fit.model == WellTestModel::numerical);
+  CHECK(fit.fit.converged);
+  CHECK(fit.fit.parameters[0] == Approx(t).epsilon(0.01));
+  CHECK(fit.fit.parameters[1] == Approx(s).epsilon(0.01));
+  CHECK(fit.parameter_names == std::vector<std::string>{"transmissivity", "storativity"});
+  CHECK(fit.n_used == 48);
+  REQUIRE(fit.curve.size() == 2);
+  CHECK(fit.curve[0].size() == 80);
+  CHECK(fit.fitted[1].size() == 24);
+  CHECK(fit.description.find("radii of influence") != std::string::npos);
+}
+
+TEST_CASE("a thick water-table aquifer follows Theis with S = Sy at small drawdown",
+          "[numerical_well_test]") {
+  // Drawdowns under 2.4 m in 400 m of saturated thickness: T falls by under 0.6 % at the
+  // nearest well, and the Theis (1935) solution with S = Sy is the late response of a
+  // water-table aquifer (Neuman, 1975, Water Resour. Res. 11(2) 329-342, late-time limit;
+  // the numerical model drains instantly, so there is no early part). T = 350 m2/d over the
+  // saturated 400 m, Sy = 0.1; the same drawdowns with S = Sy.
+  const double t = 350.0, sy = 0.1;
+  PumpingTest test = theis_test(t, sy);
+  test.aquifer = TestAquiferGeometry{false, 0.0, -400.0, 0.0};
+  REQUIRE(numerical_parameter_names(test) ==
+          std::vector<std::string>{"transmissivity", "specific_yield"});
+  const Model m = numerical_test_model(test, {t, sy}, t, sy);
+  CHECK(m.aquifer.condition == Condition::water_table);
+  // The budget of the confined case and the thinning: 1 % + 0.6 % of Q / (4 pi T).
+  CHECK(worst_drawdown_error(test, m) < 0.016 * 1200.0 / (4.0 * std::numbers::pi * t));
+  // A top above the static level: confined first (switching cells), T, S and Sy.
+  test.aquifer = TestAquiferGeometry{true, -10.0, -400.0, 0.0};
+  CHECK(numerical_parameter_names(test).size() == 3);
+  CHECK(numerical_test_model(test, {t, 1e-4, sy}, t, 1e-4).aquifer.condition ==
+        Condition::switching);
+}
