@@ -4,7 +4,7 @@
 //
 //   basin_benchmark [--sizes 1e4,1e5,1e6,4e6] [--steps 30] [--variant both|confined|switching]
 //                   [--threads N] [--linear auto|direct|pcg|bicgstab|multigrid] [--json FILE]
-//                   [--face-thickness mean|upstream]
+//                   [--face-thickness mean|upstream] [--newton-limit on|off]
 // Each case runs in its own child process (own peak memory); --steps is per period.
 #include <fmt/format.h>
 #include <sys/resource.h>
@@ -32,7 +32,7 @@ namespace {
 
 struct CaseResult {
   double cells = 0, steps = 0, median_step_seconds = 0, first_step_seconds = 0, median_newton = 0;
-  double max_newton = 0, linear_iterations = 0, peak_rss_mib = 0;
+  double max_newton = 0, total_newton = 0, linear_iterations = 0, peak_rss_mib = 0;
   double factorizations = 0, reuses = 0, cutbacks = 0;
   double max_unconfined_fraction = 0;  ///< largest share of active cells with head below top
   char solver[96] = {0};
@@ -75,6 +75,7 @@ struct CaseOptions {
   int threads = 0;
   LinearChoice linear = LinearChoice::automatic;
   FaceThickness face_thickness = FaceThickness::mean;
+  bool newton_limit = true;  ///< NewtonSettings::limit_at_withdrawal_inflection
 };
 
 CaseResult run_case(const bench::BasinSpec& spec, const CaseOptions& opt) {
@@ -83,6 +84,7 @@ CaseResult run_case(const bench::BasinSpec& spec, const CaseOptions& opt) {
   model.solver.threads = opt.threads;
   model.solver.linear = opt.linear;
   model.solver.face_thickness = opt.face_thickness;
+  model.solver.limit_at_withdrawal_inflection = opt.newton_limit;
   TimingObserver obs(model);
   SimulationOptions sim;
   sim.memory_bytes = usable_memory_bytes().value_or(0.0);  // as the run command does
@@ -94,6 +96,7 @@ CaseResult run_case(const bench::BasinSpec& spec, const CaseOptions& opt) {
   out.median_newton = bench::median(obs.newton);
   out.max_newton =
       obs.newton.empty() ? 0.0 : *std::max_element(obs.newton.begin(), obs.newton.end());
+  out.total_newton = std::accumulate(obs.newton.begin(), obs.newton.end(), 0.0);
   out.linear_iterations = static_cast<double>(r.linear_iterations);
   out.factorizations = static_cast<double>(r.factorizations);
   out.reuses = static_cast<double>(r.factorization_reuses);
@@ -159,6 +162,8 @@ int main(int argc, char** argv) {
       options.threads = std::stoi(value);
     else if (key == "--linear")
       options.linear = parse_linear(value);
+    else if (key == "--newton-limit")
+      options.newton_limit = value != "off";
     else if (key == "--face-thickness")
       options.face_thickness = value == "upstream" ? FaceThickness::upstream : FaceThickness::mean;
     else {
@@ -210,21 +215,25 @@ int main(int argc, char** argv) {
           r.median_step_seconds / floor, r.median_newton, r.linear_iterations, r.factorizations,
           r.reuses, r.peak_rss_mib, bytes_per_cell, r.max_unconfined_fraction, r.solver,
           r.converged ? "" : "  (NOT CONVERGED)");
+      fmt::print(
+          "{:<10} Newton iterations: {:.0f} in {:.0f} steps, at most {:.0f} in one; cut-backs "
+          "{:.0f}\n",
+          "", r.total_newton, r.steps, r.max_newton, r.cutbacks);
       std::fflush(stdout);
       if (!r.converged) ++failures;
       json += fmt::format(
           "{}    {{\"variant\": \"{}\", \"cells\": {:.0f}, \"steps\": {:.0f}, "
           "\"median_step_seconds\": {:.6g}, "
           "\"first_step_seconds\": {:.6g}, \"floor_seconds\": {:.6g}, \"median_newton\": {:.3g}, "
-          "\"max_newton\": {:.0f}, "
+          "\"max_newton\": {:.0f}, \"total_newton\": {:.0f}, "
           "\"linear_iterations\": {:.0f}, \"factorizations\": {:.0f}, \"factorization_reuses\": "
           "{:.0f}, "
           "\"cutbacks\": {:.0f}, \"peak_rss_mib\": {:.1f}, \"bytes_per_cell\": {:.0f}, "
           "\"max_unconfined_fraction\": {:.4f}, \"linear_solver\": \"{}\", \"converged\": {}}}",
           first ? "" : ",\n", v, r.cells, r.steps, r.median_step_seconds, r.first_step_seconds,
-          floor, r.median_newton, r.max_newton, r.linear_iterations, r.factorizations, r.reuses,
-          r.cutbacks, r.peak_rss_mib, bytes_per_cell, r.max_unconfined_fraction, r.solver,
-          r.converged ? "true" : "false");
+          floor, r.median_newton, r.max_newton, r.total_newton, r.linear_iterations,
+          r.factorizations, r.reuses, r.cutbacks, r.peak_rss_mib, bytes_per_cell,
+          r.max_unconfined_fraction, r.solver, r.converged ? "true" : "false");
       first = false;
       cells.push_back(r.cells);
       seconds.push_back(r.median_step_seconds);

@@ -209,6 +209,9 @@ struct SolverSettings {
   int threads = 0;  ///< 0 = all cores
   /// Saturated thickness of faces between water-table or dewatered switching cells.
   FaceThickness face_thickness = FaceThickness::mean;
+  /// NewtonSettings::limit_at_withdrawal_inflection; not a model-file key (always on there),
+  /// switched off only by benchmarks and tests that measure it.
+  bool limit_at_withdrawal_inflection = true;
 };
 
 /// Zone numbers of an aquifer property given as { zones, values }, kept for reports.

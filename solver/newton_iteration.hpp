@@ -73,6 +73,20 @@ struct ForcingTerm {
   }
 };
 
+/// Head update limit at an inflection point: an update that takes a cell's head from h0 strictly
+/// across the point s to h ends at s instead; from s itself the next update goes on freely.
+/// Newton's method on an S-shaped function converges when no update crosses an inflection
+/// point in one iteration, so the iterate is held there once and the next linearisation, at
+/// the steepest point, sees the curvature (Jenny, Tchelepi and Lee, J. Comput. Phys. 228
+/// (2009) 7497-7512, trust regions bounded by the inflection points of the flux function;
+/// Wang and Tchelepi, J. Comput. Phys. 253 (2013) 114-137; both from memory). Used at the
+/// withdrawal reduction (stress_kernels.hpp), where pumped cells near their base made Newton
+/// cycle: 1e6-cell switching basin, 5 steps per period, 138 -> 90 Newton iterations in 10
+/// steps, 60 -> 5 of them damped by the line search (docs/performance.md). L.
+inline double stopped_at_inflection(double h0, double h, double s) {
+  return (h0 > s && h < s) || (h0 < s && h > s) ? s : h;
+}
+
 /// Margin of a skipped proving solve: residual and estimated update 1000 times below the
 /// tolerances (a design choice of ours, far above the rounding such steps leave, ~1e-13).
 inline constexpr double affine_margin = 1.0e-3;

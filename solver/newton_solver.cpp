@@ -6,6 +6,7 @@
 #include <vector>
 
 #include "solver/newton_iteration.hpp"
+#include "solver/stress_kernels.hpp"
 
 namespace aquiledger {
 
@@ -29,13 +30,14 @@ namespace {
 class SerialProblem {
  public:
   SerialProblem(FlowSystem& system, LinearSolver& linear, std::span<double> head,
-                NewtonWorkspace& work)
+                NewtonWorkspace& work, bool limit_at_inflection)
       : system_(system),
         linear_(linear),
         layout_(system.layout()),
         head_(head),
         work_(work),
-        n_(system.n_unknowns()) {
+        n_(system.n_unknowns()),
+        limit_(limit_at_inflection && system.model().aquifer.condition != Condition::confined) {
     if (work.update.size() != n_) work.update.setZero(n_);
     work.base.resize(static_cast<std::size_t>(n_));
   }
@@ -64,11 +66,18 @@ class SerialProblem {
   double apply(double step) {
     const Eigen::VectorXd& dh = work_.update;
     const std::vector<double>& base = work_.base;
+    const CellArray<double>& bottom = system_.model().aquifer.bottom;
     double largest = 0.0;
 #pragma omp parallel for schedule(static) reduction(max : largest)
     for (int u = 0; u < n_; ++u) {
-      head_[cell(u)] = base[static_cast<std::size_t>(u)] + step * dh[u];
-      largest = std::max(largest, std::abs(step * dh[u]));
+      const std::size_t c = cell(u);
+      const double h0 = base[static_cast<std::size_t>(u)];
+      double h = h0 + step * dh[u];
+      if (limit_)
+        h = stopped_at_inflection(
+            h0, h, withdrawal_inflection_head(bottom[c], layout_.reduction_length[c]));
+      head_[c] = h;
+      largest = std::max(largest, std::abs(h - h0));
     }
     return largest;
   }
@@ -99,13 +108,14 @@ class SerialProblem {
   std::span<double> head_;
   NewtonWorkspace& work_;
   int n_;
+  bool limit_;  ///< stopped_at_inflection on (water-table and switching cells)
 };
 
 }  // namespace
 
 NewtonResult solve_newton(FlowSystem& system, LinearSolver& linear, const NewtonSettings& settings,
                           std::span<double> head, NewtonWorkspace& work) {
-  SerialProblem problem(system, linear, head, work);
+  SerialProblem problem(system, linear, head, work, settings.limit_at_withdrawal_inflection);
   return newton_iterate(problem, settings);
 }
 

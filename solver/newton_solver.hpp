@@ -15,6 +15,10 @@ struct NewtonSettings {
   double head_tolerance = 1.0e-5;  ///< L
   double flow_tolerance = 1.0e-6;  ///< -, relative to the throughflow
   int max_iterations = 50;
+  /// Stop a cell's head at the inflection point of its withdrawal reduction when an update
+  /// would cross it (stopped_at_inflection, newton_iteration.hpp); water-table and switching
+  /// cells only.
+  bool limit_at_withdrawal_inflection = true;
 };
 
 struct NewtonResult {

@@ -28,4 +28,8 @@ inline ValueSlope smoothstep(double b, double width) {
   return {x * x * (3.0 - 2.0 * x), 6.0 * x * (1.0 - x) / width};
 }
 
+/// The inflection point of smoothstep (L): b = width / 2, where its second derivative
+/// 6 (1 - 2x) / width^2 changes sign and its slope is largest (1.5 / width).
+inline double smoothstep_inflection(double width) { return 0.5 * width; }
+
 }  // namespace aquiledger

@@ -33,6 +33,13 @@ inline StressFlow well_flow(double rate, ValueSlope thickness, double reduction_
   return {{-rate * phi.value, -rate * phi.slope * thickness.slope}, rate * (1.0 - phi.value)};
 }
 
+/// Head (L) at which the reduction factor phi of a reducible withdrawal has its inflection point:
+/// bottom + reduction_length / 2. There the saturated thickness equals h - bottom, since the
+/// base's smoothing width is smaller than reduction_length / 2 (system_layout.hpp).
+inline double withdrawal_inflection_head(double bottom, double reduction_length) {
+  return bottom + smoothstep_inflection(reduction_length);
+}
+
 /// Areal recharge rate (L/T) over a cell of area A (L2): q = rate A. A negative rate is a
 /// spread withdrawal and is reduced exactly like a well's withdrawal of -rate A.
 inline StressFlow recharge_flow(double rate, double area, ValueSlope thickness,

@@ -30,6 +30,8 @@ struct SystemLayout {
 /// water-table cell has no top, of `reference_thickness_without_top` instead.
 inline constexpr double smoothing_fraction = 1.0e-3;
 inline constexpr double reduction_fraction = 1.0e-2;
+// withdrawal_inflection_head (stress_kernels.hpp) lies above the base's smoothing ramp.
+static_assert(0.5 * reduction_fraction > smoothing_fraction);
 inline constexpr double reference_thickness_without_top = 10.0;  ///< L
 
 SystemLayout make_system_layout(const Model& model);

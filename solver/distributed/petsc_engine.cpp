@@ -20,6 +20,7 @@
 #include "solver/preconsolidation_heads.hpp"
 #include "solver/storage_function.hpp"
 #include "solver/stress_flows.hpp"
+#include "solver/stress_kernels.hpp"
 #include "solver/system_layout.hpp"
 #include "solver/time_loop.hpp"
 
@@ -501,11 +502,33 @@ struct DistributedEngine::Impl {
 
   void save_base() { check(VecCopy(head, base), "VecCopy"); }
 
-  double apply(double step) {
+  /// heads = base + step * update, each stopped at its withdrawal's inflection point when
+  /// `limit` (stopped_at_inflection, as the serial engine); returns the largest head change.
+  double apply(double step, bool limit) {
     check(VecWAXPY(head, step, update, base), "VecWAXPY");
-    PetscReal largest;
-    check(VecNorm(update, NORM_INFINITY, &largest), "VecNorm");
-    return std::abs(step) * largest;
+    if (!limit || confined) {
+      PetscReal largest;
+      check(VecNorm(update, NORM_INFINITY, &largest), "VecNorm");
+      return std::abs(step) * largest;
+    }
+    PetscScalar* h = nullptr;
+    const PetscScalar* h0 = nullptr;
+    check(VecGetArray(head, &h), "VecGetArray");
+    check(VecGetArrayRead(base, &h0), "VecGetArrayRead");
+    const std::size_t first = static_cast<std::size_t>(part.first_owned());
+    double largest = 0.0;
+    for (std::size_t k = 0; k < part.n_owned(); ++k) {
+      const std::size_t c = first + k;
+      h[k] = stopped_at_inflection(
+          h0[k], h[k],
+          withdrawal_inflection_head(model.aquifer.bottom[c], layout.reduction_length[c]));
+      if (std::isfinite(h[k] - h0[k])) largest = std::max(largest, std::abs(h[k] - h0[k]));
+    }
+    check(VecRestoreArrayRead(base, &h0), "VecRestoreArrayRead");
+    check(VecRestoreArray(head, &h), "VecRestoreArray");
+    check_mpi(MPI_Allreduce(MPI_IN_PLACE, &largest, 1, MPI_DOUBLE, MPI_MAX, comm),
+              "MPI_Allreduce (largest head change)");
+    return largest;
   }
 };
 
@@ -514,7 +537,8 @@ namespace {
 /// The Newton problem of newton_iteration.hpp over the engine's vectors.
 class DistributedProblem {
  public:
-  explicit DistributedProblem(DistributedEngine::Impl& e) : e_(e) {}
+  DistributedProblem(DistributedEngine::Impl& e, bool limit_at_inflection)
+      : e_(e), limit_(limit_at_inflection) {}
   void assemble() { e_.assemble(); }
   ResidualNorms norms() const { return e_.norms(); }
   double throughflow() const { return e_.throughflow; }
@@ -527,11 +551,12 @@ class DistributedProblem {
   // the size of the Newton tolerance itself, so it is not offered here.
   bool solve_linear(int& iterations) { return e_.solve_linear(iterations); }
   void save_base() { e_.save_base(); }
-  double apply(double step) { return e_.apply(step); }
+  double apply(double step) { return e_.apply(step, limit_); }
   CellIndex cell_of(int worst) const { return CellIndex{worst}; }
 
  private:
   DistributedEngine::Impl& e_;
+  bool limit_;
 };
 
 /// The time loop's stepper (time_loop.hpp): heads of the held rows.
@@ -597,7 +622,7 @@ class DistributedStepper {
     e_.steady = steady;
     e_.dt = dt;
     e_.set_iterate(x);
-    DistributedProblem problem(e_);
+    DistributedProblem problem(e_, settings_.limit_at_withdrawal_inflection);
     const NewtonResult nr = newton_iterate(problem, settings_);
     e_.update_ghosts();
     e_.get_iterate(x);

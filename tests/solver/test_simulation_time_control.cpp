@@ -10,6 +10,7 @@
 #include "solver/linear_solver.hpp"
 #include "solver/newton_iteration.hpp"
 #include "solver/newton_solver.hpp"
+#include "solver/saturation.hpp"
 #include "solver/time_steps.hpp"
 #include "support/budget_observer.hpp"
 #include "support/model_builder.hpp"
@@ -421,4 +422,63 @@ TEST_CASE("The forcing term follows Eisenstat and Walker's choice 2 within our b
   CHECK(g.next(1e-6, 1.0, 1e-6, 100) == Approx(1e-4));
   ForcingTerm h;
   CHECK(h.next(1e-20, 1.0, 1e-6, 1) == Approx(0.1));  // never above 0.1, whatever is needed
+}
+
+TEST_CASE("Newton update stopped at the inflection point of a withdrawal's reduction",
+          "[time_control][newton_limit]") {
+  // The kernel: an update that crosses the point stops there, one that does not is kept, and
+  // from the point itself the next update goes on (by definition, newton_iteration.hpp).
+  CHECK(stopped_at_inflection(1.0, -1.0, 0.2) == 0.2);
+  CHECK(stopped_at_inflection(-1.0, 1.0, 0.2) == 0.2);
+  CHECK(stopped_at_inflection(1.0, 0.5, 0.2) == 0.5);
+  CHECK(stopped_at_inflection(0.2, -1.0, 0.2) == -1.0);
+  // The point is smoothstep's inflection: the cubic x^2 (3 - 2x) has second derivative
+  // 6 - 12x, zero at x = 1/2 (by hand), so its slope peaks there; central differences of the
+  // kernel's own slope show the sign change of the curvature.
+  const double width = 0.4, b = smoothstep_inflection(width), d = 1e-4;
+  CHECK(b == Approx(0.2).epsilon(1e-15));
+  CHECK(smoothstep(b - d, width).slope < smoothstep(b, width).slope);
+  CHECK(smoothstep(b + d, width).slope < smoothstep(b, width).slope);
+  CHECK(smoothstep(b, width).slope == Approx(1.5 / width).epsilon(1e-12));  // 6 x (1-x) / w
+
+  // A well pumping more than the aquifer delivers (drying_model): its cell ends within the
+  // reduction length of the base, on the S-shaped part of phi. With the limit the steps
+  // need fewer Newton iterations in all and reach the same heads: solved tightly, both paths
+  // end at the same root of the same equations (the limit changes the path, not the law).
+  struct Counted {
+    RunResult result;
+    std::vector<std::vector<double>> heads;
+    double max_imbalance = 0.0;
+  };
+  auto run = [](bool limit, double head_tolerance) {
+    Model m = drying_model();
+    m.solver.limit_at_withdrawal_inflection = limit;
+    m.solver.head_tolerance = head_tolerance;
+    test::BudgetObserver obs(m);
+    Counted c{run_simulation(m, obs), obs.heads, obs.max_imbalance};
+    return c;
+  };
+  const Counted with = run(true, 1e-5), without = run(false, 1e-5);
+  REQUIRE(with.result.converged);
+  REQUIRE(without.result.converged);
+  WARN("Newton iterations with the limit " << with.result.newton_iterations << ", without "
+                                           << without.result.newton_iterations);
+  CHECK(with.result.newton_iterations < without.result.newton_iterations);
+  CHECK(with.result.cutbacks == 0);
+  CHECK(with.max_imbalance < 1e-6);  // percent, every step (the contract's closure)
+  CHECK(without.max_imbalance < 1e-6);
+
+  // Tight solves: every step's last update below 1e-11 m, so both runs hold the same heads to
+  // far better than 1e-8 m.
+  const Counted tight_with = run(true, 1e-11), tight_without = run(false, 1e-11);
+  REQUIRE(tight_with.result.converged);
+  REQUIRE(tight_without.result.converged);
+  REQUIRE(tight_with.heads.size() == tight_without.heads.size());
+  double worst = 0.0;
+  for (std::size_t s = 0; s < tight_with.heads.size(); ++s)
+    for (std::size_t i = 0; i < tight_with.heads[s].size(); ++i)
+      if (std::isfinite(tight_with.heads[s][i]))
+        worst = std::max(worst, std::abs(tight_with.heads[s][i] - tight_without.heads[s][i]));
+  WARN("largest head difference with - without the limit, tight solves: " << worst << " m");
+  CHECK(worst < 1e-8);
 }
