@@ -1,6 +1,6 @@
 // `drawdown-fit`: interprets a pumping test (docs/pumping-tests.md): reads the test file,
 // fits the chosen model (or compares them, `auto`), writes fit.json, parameters.csv,
-// fit_series.csv (an HTML page is not written yet: docs/pumping-tests.md).
+// fit_series.csv and the self-contained page interpretation.html.
 #include "io/cli/drawdown_fit_command.hpp"
 
 #include <fmt/format.h>
