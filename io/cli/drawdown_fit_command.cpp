@@ -10,6 +10,7 @@
 #include <stdexcept>
 
 #include "aquiledger_version.hpp"
+#include "io/cli/command_output.hpp"
 #include "io/cli/commands.hpp"
 #include "io/files/atomic_file.hpp"
 #include "io/files/output_lock.hpp"
@@ -17,7 +18,6 @@
 #include "io/model_file/pumping_test_reader.hpp"
 #include "io/reports/html_report.hpp"
 #include "io/reports/pumping_test_report.hpp"
-#include "io/reports/run_report.hpp"
 #include "io/results/pumping_test_files.hpp"
 
 namespace aquiledger {
@@ -46,11 +46,7 @@ CLI::App* add_drawdown_fit_subcommand(CLI::App& app, DrawdownFitOptions& o) {
 
 int run_drawdown_fit_command(const DrawdownFitOptions& o) {
   const PumpingTestReadResult read = read_pumping_test_file(o.test_file);
-  int n_errors = 0;
-  for (const Diagnostic& d : read.diagnostics) {
-    std::fprintf(stderr, "%s\n", d.to_string().c_str());
-    if (d.severity == Severity::error) ++n_errors;
-  }
+  const int n_errors = print_diagnostics(read.diagnostics);
   if (!read.test) {
     std::fprintf(stderr, "%d error(s) in %s; nothing fitted\n", n_errors,
                  o.test_file.string().c_str());
@@ -111,7 +107,7 @@ int run_drawdown_fit_command(const DrawdownFitOptions& o) {
   }
   if (!m.description.empty()) out += "  model: " + m.description + "\n";
   for (const std::string& s : result.classification) out += "  - " + s + "\n";
-  out += fmt::format("Results in {}\n\n{}\n", folder.string(), professional_caution);
+  out += summary_end(folder);
   std::fputs(out.c_str(), stdout);
   return exit_success;
 }

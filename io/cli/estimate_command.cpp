@@ -11,6 +11,7 @@
 #include <system_error>
 
 #include "aquiledger_version.hpp"
+#include "io/cli/command_output.hpp"
 #include "io/cli/commands.hpp"
 #include "io/files/atomic_file.hpp"
 #include "io/files/output_lock.hpp"
@@ -18,7 +19,6 @@
 #include "io/model_file/estimation_reader.hpp"
 #include "io/model_file/fitted_model_writer.hpp"
 #include "io/reports/estimation_report.hpp"
-#include "io/reports/run_report.hpp"
 #include "io/results/estimation_files.hpp"
 
 namespace aquiledger {
@@ -43,11 +43,7 @@ CLI::App* add_estimate_subcommand(CLI::App& app, EstimateOptions& o) {
 
 int run_estimate_command(const EstimateOptions& o) {
   const EstimationReadResult read = read_estimation_file(o.setup_file);
-  int n_errors = 0;
-  for (const Diagnostic& d : read.diagnostics) {
-    std::fprintf(stderr, "%s\n", d.to_string().c_str());
-    if (d.severity == Severity::error) ++n_errors;
-  }
+  const int n_errors = print_diagnostics(read.diagnostics);
   if (!read.setup || !read.model) {
     std::fprintf(stderr, "%d error(s); nothing estimated\n", n_errors);
     return exit_invalid_model;
@@ -130,7 +126,7 @@ int run_estimate_command(const EstimateOptions& o) {
   }
   for (const std::string& w : result.warnings) out += "  warning: " + w + "\n";
   if (!fitted_model_note.starts_with("warning")) out += fitted_model_note;
-  out += fmt::format("Results in {}\n\n{}\n", folder.string(), professional_caution);
+  out += summary_end(folder);
   std::fputs(out.c_str(), stdout);
   return exit_success;
 }

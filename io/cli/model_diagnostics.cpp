@@ -1,9 +1,10 @@
 #include "io/cli/model_diagnostics.hpp"
 
 #include <algorithm>
-#include <cstdio>
 #include <tuple>
 #include <vector>
+
+#include "io/cli/command_output.hpp"
 
 namespace aquiledger {
 
@@ -12,15 +13,11 @@ namespace aquiledger {
 /// usable model are printed once, by the command (model.warnings, with file and line).
 bool print_model_diagnostics(const ReadResult& result, bool print) {
   if (!print || result.ok()) return result.ok();
-  int errors = 0;
   std::vector<Diagnostic> sorted = result.diagnostics;
   std::stable_sort(sorted.begin(), sorted.end(), [](const Diagnostic& a, const Diagnostic& b) {
     return std::tie(a.file, a.line) < std::tie(b.file, b.line);
   });
-  for (const Diagnostic& d : sorted) {
-    std::fprintf(stderr, "%s\n", d.to_string().c_str());
-    if (d.severity == Severity::error) ++errors;
-  }
+  const int errors = print_diagnostics(sorted);
   if (errors > 0)
     std::fprintf(stderr, "%d error%s: the model was not run.\n", errors, errors == 1 ? "" : "s");
   return result.ok();

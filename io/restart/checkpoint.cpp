@@ -88,6 +88,24 @@ RunResult get_run_counters(BinaryReader& r) {
   return c;
 }
 
+/// Where an observation or subsidence row stands: its point's index (the member `point` of
+/// Row), period, step and time; the same bytes in both tables.
+template <class Row>
+void put_output_row_place(BinaryWriter& w, const Row& row, std::size_t Row::*point) {
+  w.put_size(row.*point);
+  w.put_size(row.period);
+  w.put<std::int32_t>(row.step);
+  w.put(row.time);
+}
+
+template <class Row>
+void get_output_row_place(BinaryReader& r, Row& row, std::size_t Row::*point) {
+  row.*point = static_cast<std::size_t>(r.get<std::uint64_t>());
+  row.period = static_cast<std::size_t>(r.get<std::uint64_t>());
+  row.step = r.get<std::int32_t>();
+  row.time = r.get<double>();
+}
+
 void put_recorder(BinaryWriter& w, const RecorderState& s) {
   w.put_vector(s.initial_head);
   w.put_vector(s.initial_observed);
@@ -114,19 +132,13 @@ void put_recorder(BinaryWriter& w, const RecorderState& s) {
   }
   w.put_size(s.observation_rows.size());
   for (const ObservationRow& row : s.observation_rows) {
-    w.put_size(row.observation);
-    w.put_size(row.period);
-    w.put<std::int32_t>(row.step);
-    w.put(row.time);
+    put_output_row_place(w, row, &ObservationRow::observation);
     w.put(row.head);
     w.put(row.drawdown);
   }
   w.put_size(s.subsidence_rows.size());
   for (const SubsidenceRow& row : s.subsidence_rows) {
-    w.put_size(row.point);
-    w.put_size(row.period);
-    w.put<std::int32_t>(row.step);
-    w.put(row.time);
+    put_output_row_place(w, row, &SubsidenceRow::point);
     w.put(row.subsidence);
   }
   w.put_size(s.field_entries.size());
@@ -170,19 +182,13 @@ RecorderState get_recorder(BinaryReader& r) {
   }
   s.observation_rows.resize(r.get_size());
   for (ObservationRow& row : s.observation_rows) {
-    row.observation = static_cast<std::size_t>(r.get<std::uint64_t>());
-    row.period = static_cast<std::size_t>(r.get<std::uint64_t>());
-    row.step = r.get<std::int32_t>();
-    row.time = r.get<double>();
+    get_output_row_place(r, row, &ObservationRow::observation);
     row.head = r.get<double>();
     row.drawdown = r.get<double>();
   }
   s.subsidence_rows.resize(r.get_size());
   for (SubsidenceRow& row : s.subsidence_rows) {
-    row.point = static_cast<std::size_t>(r.get<std::uint64_t>());
-    row.period = static_cast<std::size_t>(r.get<std::uint64_t>());
-    row.step = r.get<std::int32_t>();
-    row.time = r.get<double>();
+    get_output_row_place(r, row, &SubsidenceRow::point);
     row.subsidence = r.get<double>();
   }
   s.field_entries.resize(r.get_size());

@@ -3,6 +3,7 @@
 #include <catch2/catch.hpp>
 #include <fstream>
 
+#include "estimation_test_model.hpp"
 #include "io/model_file/estimation_reader.hpp"
 #include "postproc/estimation_setup.hpp"
 #include "small_model.hpp"
@@ -13,19 +14,8 @@ namespace {
 
 /// 2 x 3 cells of 10 m; K by zones (zone 1 west column, 2 the rest); a river along the
 /// south row; two bores, one with a measured file.
-const char* model_text = R"([grid]
-nrow = 2
-ncol = 3
-dx = 10.0
-dy = 10.0
-
-[aquifer]
-top = 10.0
-bottom = 0.0
-k = { zones = "kzones.txt", values = { 1 = 2.0, 2 = 8.0 } }
-condition = "switching"
-specific_yield = 0.2
-specific_storage = 1.0e-5
+const std::string model_text = aquiledger::testing::zoned_aquifer_model_head("kzones.txt") +
+                               R"(specific_storage = 1.0e-5
 
 [initial]
 head = 9.0

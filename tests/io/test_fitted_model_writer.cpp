@@ -5,6 +5,7 @@
 #include <catch2/catch.hpp>
 #include <fstream>
 
+#include "estimation_test_model.hpp"
 #include "io/model_file/estimation_reader.hpp"
 #include "io/model_file/fitted_model_writer.hpp"
 #include "io/model_file/model_reader.hpp"
@@ -17,20 +18,10 @@ namespace {
 /// 2 x 3 cells; K by zones from a file in a subfolder, Ss from an array file (varies by
 /// cell), Sy one number; recharge per period, a river by bed_conductance, a drain by zones;
 /// a bore with a measured file.
-const char* fitted_writer_model = R"([model]
-title = "Fitted writer test"
-[grid]
-nrow = 2
-ncol = 3
-dx = 10.0
-dy = 10.0
-[aquifer]
-top = 10.0
-bottom = 0.0
-k = { zones = "data/kzones.txt", values = { 1 = 2.0, 2 = 8.0 } }
-condition = "switching"
-specific_yield = 0.2
-specific_storage = { file = "data/ss.txt" }
+const std::string fitted_writer_model =
+    "[model]\ntitle = \"Fitted writer test\"\n" +
+    aquiledger::testing::zoned_aquifer_model_head("data/kzones.txt") +
+    R"(specific_storage = { file = "data/ss.txt" }
 [initial]
 head = 9.0
 [[period]]

@@ -17,6 +17,7 @@
 #include <cstdlib>
 #include <fstream>
 
+#include "csv_cells.hpp"
 #include "io/results/result_recorder.hpp"
 #include "io/results/result_tables.hpp"
 #include "io/results/vtk_fields.hpp"
@@ -67,21 +68,6 @@ class Recorder : public SimulationObserver {
   ObservationSampler sampler_;
   std::vector<double> initial_;
 };
-
-std::vector<std::vector<std::string>> read_csv(const std::filesystem::path& p) {
-  std::ifstream in(p);
-  std::vector<std::vector<std::string>> rows;
-  for (std::string line; std::getline(in, line);) {
-    rows.emplace_back(1);
-    for (char ch : line) {
-      if (ch == ',')
-        rows.back().emplace_back();
-      else
-        rows.back().back() += ch;
-    }
-  }
-  return rows;
-}
 
 std::size_t column(const std::vector<std::string>& header, const std::string& name) {
   const auto it = std::find(header.begin(), header.end(), name);
@@ -172,7 +158,7 @@ TEST_CASE("written fields, budget and observations of a steady strip obey Darcy'
   }
 
   // One step, components storage_elastic, fixed_head, and total (the model has no wells).
-  const auto budget = read_csv(folder / "budget_steps.csv");
+  const auto budget = testing::read_csv_cells(folder / "budget_steps.csv");
   REQUIRE(budget.size() == 1 + 3);
   CHECK(budget_value(budget, "fixed_head", "into_aquifer") == Approx(Q).epsilon(1e-9));
   CHECK(budget_value(budget, "fixed_head", "out_of_aquifer") == Approx(Q).epsilon(1e-9));
@@ -181,7 +167,7 @@ TEST_CASE("written fields, budget and observations of a steady strip obey Darcy'
   CHECK_FALSE(has_component(budget, "well"));
   CHECK(budget[1][column(budget[0], "unit")] == "m3/d");
 
-  const auto obs = read_csv(folder / "observations.csv");
+  const auto obs = testing::read_csv_cells(folder / "observations.csv");
   REQUIRE(obs.size() == 1 + 2 * 2);  // header, two observations at time 0 and after the step
   const std::size_t h = column(obs[0], "head"), dd = column(obs[0], "drawdown");
   CHECK(obs[3][0] == "interior");
@@ -213,7 +199,7 @@ TEST_CASE("written budget of recharge draining to a fixed head balances one-side
   REQUIRE(run_simulation(m, rec).converged);
   const auto folder = aquiledger::testing::scratch_folder("end-to-end-recharge");
   write_budget_steps_csv(folder / "budget_steps.csv", budget_table_layout(m), rec.steps);
-  const auto budget = read_csv(folder / "budget_steps.csv");
+  const auto budget = testing::read_csv_cells(folder / "budget_steps.csv");
   // Recharge reaches the 6 cells that are not fixed (6 x 2000 m2): 12 m3/d; the fixed
   // cells receive none (fixed cells take no stress, physics decisions).
   const double recharge = 0.001 * 6 * 50.0 * 40.0;
@@ -247,11 +233,11 @@ TEST_CASE("the recorder's files read back by the contract's names and agree with
   REQUIRE(run_simulation(m, recorder).converged);
   recorder.flush();
 
-  const auto steps = read_csv(folder / "budget_steps.csv");
-  const auto balance = read_csv(folder / "balance_steps.csv");
-  const auto periods = read_csv(folder / "budget_periods.csv");
-  const auto balance_p = read_csv(folder / "balance_periods.csv");
-  const auto features = read_csv(folder / "budget_features.csv");
+  const auto steps = testing::read_csv_cells(folder / "budget_steps.csv");
+  const auto balance = testing::read_csv_cells(folder / "balance_steps.csv");
+  const auto periods = testing::read_csv_cells(folder / "budget_periods.csv");
+  const auto balance_p = testing::read_csv_cells(folder / "balance_periods.csv");
+  const auto features = testing::read_csv_cells(folder / "budget_features.csv");
   REQUIRE(balance.size() == 1 + 4);
   REQUIRE(balance_p.size() == 1 + 1);
   // storage_elastic (no compressibilities), storage_drainage, fixed_head, well, total.

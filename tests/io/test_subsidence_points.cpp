@@ -10,6 +10,7 @@
 #include <filesystem>
 #include <fstream>
 
+#include "csv_cells.hpp"
 #include "io/results/result_recorder.hpp"
 #include "io/results/result_tables.hpp"
 #include "small_model.hpp"
@@ -50,21 +51,6 @@ bool error_at(const ReadResult& r, const std::string& file, int line, const std:
 std::string point(const std::string& name, double x, double y, const std::string& extra = "") {
   return "\n[[subsidence_point]]\nname = \"" + name + "\"\nx = " + std::to_string(x) +
          "\ny = " + std::to_string(y) + "\n" + extra;
-}
-
-std::vector<std::vector<std::string>> read_csv(const std::filesystem::path& p) {
-  std::ifstream in(p);
-  std::vector<std::vector<std::string>> rows;
-  for (std::string line; std::getline(in, line);) {
-    rows.emplace_back(1);
-    for (char ch : line) {
-      if (ch == ',')
-        rows.back().emplace_back();
-      else
-        rows.back().back() += ch;
-    }
-  }
-  return rows;
 }
 
 double num(const std::string& s) { return std::strtod(s.c_str(), nullptr); }
@@ -184,7 +170,7 @@ TEST_CASE("subsidence points: the series is the pumped volume over the area, wit
   recorder.flush();
   CHECK_FALSE(std::filesystem::exists(folder / "fields.pvd"));
 
-  const auto series = read_csv(folder / "subsidence_points.csv");
+  const auto series = testing::read_csv_cells(folder / "subsidence_points.csv");
   REQUIRE(series.size() == 1 + 1 + 9);  // header, time 0, three steps in each of 3 periods
   CHECK(series[0] == std::vector<std::string>{"point", "period", "step", "time", "subsidence"});
   CHECK(series[1] == std::vector<std::string>{"cell centre", "0", "0", "0", "0"});
@@ -205,7 +191,7 @@ TEST_CASE("subsidence points: the series is the pumped volume over the area, wit
 
   // Residuals: simulated (linear in time between output times) minus measured, only for
   // measured times inside the run.
-  const auto residuals = read_csv(folder / "subsidence_residuals.csv");
+  const auto residuals = testing::read_csv_cells(folder / "subsidence_residuals.csv");
   REQUIRE(residuals.size() == 1 + 2);
   CHECK(residuals[0] ==
         std::vector<std::string>{"point", "time", "measured", "simulated", "residual"});

@@ -10,31 +10,12 @@
 
 #include "postproc/parameter_estimation.hpp"
 #include "solver/stress_test_models.hpp"
+#include "support/estimation_parameters.hpp"
 
 using namespace aquiledger;
 using namespace aquiledger::stress_tests;
 
 namespace {
-
-EstimatedParameter adjoint_parameter(const std::string& name, ParameterProperty prop,
-                                     std::vector<int> cells,
-                                     std::vector<std::size_t> features = {}) {
-  EstimatedParameter e;
-  e.parameter = {name, prop, ParameterForm::multiplier, std::move(cells), std::move(features)};
-  e.start = 1.0;
-  e.lower = 0.05;
-  e.upper = 20.0;
-  return e;
-}
-
-std::vector<int> columns_between(const Model& m, int first, int last) {
-  std::vector<int> cells;
-  for (int c = 0; c < m.grid.n_cells(); ++c) {
-    const int col = m.grid.row_col(CellIndex{c}).col;
-    if (col >= first && col <= last) cells.push_back(c);
-  }
-  return cells;
-}
 
 /// The stress tests' basin (every stress, a steady period between two transient ones) with
 /// four bores and Newton's tolerances tight, so that differences of whole runs resolve 1e-6.
@@ -74,18 +55,20 @@ Model adjoint_basin(Condition condition) {
 EstimationSetup adjoint_setup(const Model& m) {
   EstimationSetup s;
   s.parameters = {
-      adjoint_parameter("k west", ParameterProperty::conductivity, columns_between(m, 0, 5)),
-      adjoint_parameter("k east", ParameterProperty::conductivity, columns_between(m, 6, 11)),
-      adjoint_parameter("rain", ParameterProperty::recharge, {}, {0}),
-      adjoint_parameter("creek", ParameterProperty::river_conductance, {}, {0}),
-      adjoint_parameter("tiles", ParameterProperty::drain_conductance, {}, {0}),
-      adjoint_parameter("regional", ParameterProperty::external_conductance, {}, {0})};
+      test::multiplier_parameter("k west", ParameterProperty::conductivity,
+                                 test::cells_in_columns(m, 0, 5)),
+      test::multiplier_parameter("k east", ParameterProperty::conductivity,
+                                 test::cells_in_columns(m, 6, 11)),
+      test::multiplier_parameter("rain", ParameterProperty::recharge, {}, {0}),
+      test::multiplier_parameter("creek", ParameterProperty::river_conductance, {}, {0}),
+      test::multiplier_parameter("tiles", ParameterProperty::drain_conductance, {}, {0}),
+      test::multiplier_parameter("regional", ParameterProperty::external_conductance, {}, {0})};
   if (m.aquifer.condition != Condition::water_table)
-    s.parameters.push_back(
-        adjoint_parameter("ss", ParameterProperty::specific_storage, columns_between(m, 0, 11)));
+    s.parameters.push_back(test::multiplier_parameter("ss", ParameterProperty::specific_storage,
+                                                      test::cells_in_columns(m, 0, 11)));
   if (m.aquifer.condition != Condition::confined)
-    s.parameters.push_back(
-        adjoint_parameter("sy", ParameterProperty::specific_yield, columns_between(m, 0, 11)));
+    s.parameters.push_back(test::multiplier_parameter("sy", ParameterProperty::specific_yield,
+                                                      test::cells_in_columns(m, 0, 11)));
   s.parameters[0].prior = 1.2;
   s.parameters[0].prior_weight = 4.0;
   s.parameters[2].log = false;

@@ -6,30 +6,12 @@
 
 #include "postproc/parameter_estimation.hpp"
 #include "solver/stress_test_models.hpp"
+#include "support/estimation_parameters.hpp"
 
 using namespace aquiledger;
 using namespace aquiledger::stress_tests;
 
 namespace {
-
-EstimatedParameter estimated(const std::string& name, ParameterProperty prop,
-                             std::vector<int> cells, std::vector<std::size_t> features = {}) {
-  EstimatedParameter e;
-  e.parameter = {name, prop, ParameterForm::multiplier, std::move(cells), std::move(features)};
-  e.start = 1.0;
-  e.lower = 0.05;
-  e.upper = 20.0;
-  return e;
-}
-
-std::vector<int> columns_from(const Model& m, int first, int last) {
-  std::vector<int> cells;
-  for (int c = 0; c < m.grid.n_cells(); ++c) {
-    const int col = m.grid.row_col(CellIndex{c}).col;
-    if (col >= first && col <= last) cells.push_back(c);
-  }
-  return cells;
-}
 
 /// The switching basin of the stress tests with six bores and every stress.
 Model basin() {
@@ -53,11 +35,15 @@ Model basin() {
 
 EstimationSetup twin_setup(const Model& m) {
   EstimationSetup s;
-  s.parameters = {estimated("k west", ParameterProperty::conductivity, columns_from(m, 0, 5)),
-                  estimated("k east", ParameterProperty::conductivity, columns_from(m, 6, 11)),
-                  estimated("sy", ParameterProperty::specific_yield, columns_from(m, 0, 11)),
-                  estimated("rain", ParameterProperty::recharge, {}, {0}),
-                  estimated("creek", ParameterProperty::river_conductance, {}, {0})};
+  s.parameters = {
+      test::multiplier_parameter("k west", ParameterProperty::conductivity,
+                                 test::cells_in_columns(m, 0, 5)),
+      test::multiplier_parameter("k east", ParameterProperty::conductivity,
+                                 test::cells_in_columns(m, 6, 11)),
+      test::multiplier_parameter("sy", ParameterProperty::specific_yield,
+                                 test::cells_in_columns(m, 0, 11)),
+      test::multiplier_parameter("rain", ParameterProperty::recharge, {}, {0}),
+      test::multiplier_parameter("creek", ParameterProperty::river_conductance, {}, {0})};
   for (std::size_t b = 0; b < m.observations.size(); ++b) {
     EstimationTarget t;
     t.name = m.observations[b].name;
@@ -147,8 +133,9 @@ TEST_CASE("estimation: K and recharge of a steady model are not separable", "[es
   Observation o2{"mid", 450.0, 250.0, m.grid.cell(2, 4), {}, {}};
   m.observations = {o, o2};
   EstimationSetup s;
-  s.parameters = {estimated("k", ParameterProperty::conductivity, columns_from(m, 0, 7)),
-                  estimated("rain", ParameterProperty::recharge, {}, {0})};
+  s.parameters = {test::multiplier_parameter("k", ParameterProperty::conductivity,
+                                             test::cells_in_columns(m, 0, 7)),
+                  test::multiplier_parameter("rain", ParameterProperty::recharge, {}, {0})};
   for (std::size_t b = 0; b < 2; ++b) {
     EstimationTarget t;
     t.name = m.observations[b].name;

@@ -165,23 +165,9 @@ TEST_CASE("interbeds: a run resumed from a checkpoint repeats the uninterrupted 
     lowered |= start.preconsolidation[i] < full.initial[i] - 0.2 - 1e-9;
   CHECK(lowered);
   test::BudgetObserver resumed(m);
-  SimulationOptions again;
-  again.start = start;
-  REQUIRE(run_simulation(m, resumed, again).converged);
-  REQUIRE(!resumed.steps.empty());
-  const std::size_t skipped = full.steps.size() - resumed.steps.size();
-  for (std::size_t k = 0; k < resumed.steps.size(); ++k) {
-    const auto& h = resumed.heads[k];
-    const auto& g = full.heads[skipped + k];
-    REQUIRE(h.size() == g.size());
-    for (std::size_t i = 0; i < h.size(); ++i)  // bit for bit (NaN only where inactive)
-      if (!std::isnan(h[i]) || !std::isnan(g[i])) CHECK(h[i] == g[i]);
-    const auto& a = resumed.preconsolidation[k];
-    const auto& b = full.preconsolidation[skipped + k];
-    REQUIRE(a.size() == b.size());
-    for (std::size_t i = 0; i < a.size(); ++i)
-      if (!std::isnan(a[i]) || !std::isnan(b[i])) CHECK(a[i] == b[i]);
-  }
+  const std::size_t skipped = test::resume_and_check_heads(m, start, full, resumed);
+  for (std::size_t k = 0; k < resumed.steps.size(); ++k)
+    test::check_same_values(resumed.preconsolidation[k], full.preconsolidation[skipped + k]);
   // A start state without preconsolidation heads is refused, saying why.
   SimulationOptions bare;
   bare.start = start;

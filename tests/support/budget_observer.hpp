@@ -61,4 +61,27 @@ class BudgetObserver : public SimulationObserver {
   bool keep_heads_;
 };
 
+/// Checks two runs' values of one step cell by cell, bit for bit (NaN matching NaN, at
+/// inactive cells).
+inline void check_same_values(const std::vector<double>& a, const std::vector<double>& b) {
+  REQUIRE(a.size() == b.size());
+  for (std::size_t i = 0; i < a.size(); ++i)
+    if (!std::isnan(a[i]) || !std::isnan(b[i])) CHECK(a[i] == b[i]);
+}
+
+/// Runs `model` again from `start` (a state the full run handed to its checkpoint callback)
+/// into `resumed`, and checks that every step of it has, bit for bit, the heads of the same
+/// step of the full run. Returns how many steps of the full run came before the start.
+inline std::size_t resume_and_check_heads(const Model& model, const StartState& start,
+                                          const BudgetObserver& full, BudgetObserver& resumed) {
+  SimulationOptions again;
+  again.start = start;
+  REQUIRE(run_simulation(model, resumed, again).converged);
+  REQUIRE(!resumed.steps.empty());
+  const std::size_t skipped = full.steps.size() - resumed.steps.size();
+  for (std::size_t k = 0; k < resumed.steps.size(); ++k)
+    check_same_values(resumed.heads[k], full.heads[skipped + k]);
+  return skipped;
+}
+
 }  // namespace aquiledger::test
