@@ -3,8 +3,11 @@
 // objective of the heads at ten bores at every step, each against the plain run, as medians
 // of repeats. Prints figures, asserts none: also the factorisations of Newton and those the
 // sensitivity solves added, a checksum of the sensitivities to compare builds, and the load
-// average at the end.
-//   sensitivity_cost [--cells N] [--parameters P] [--repeats R]
+// average at the end. With --setup, the model and parameters of an estimation set-up (the
+// parameters at their start values) instead of the basin; the adjoint is not run then.
+// --aquifer confined (or switching) runs that basin alone.
+//   sensitivity_cost [--cells N] [--parameters P] [--repeats R] [--setup FILE]
+//                    [--aquifer confined|switching]
 #include <fmt/core.h>
 
 #include <algorithm>
@@ -17,6 +20,7 @@
 
 #include "basin_generator.hpp"
 #include "io/cli/openmp_waiting.hpp"
+#include "io/model_file/estimation_reader.hpp"
 #include "solver/adjoint_gradient.hpp"
 #include "solver/forward_sensitivities.hpp"
 
@@ -97,6 +101,41 @@ std::vector<ModelParameter> strip_parameters(const Model& m, int p) {
   return params;
 }
 
+/// Prints the medians of the plain run, the run with sensitivities of params and (with an
+/// objective) the run with the adjoint gradient of model m, and their ratios to the plain run.
+/// False when a run did not converge.
+bool time_derivatives(const Model& m, const std::vector<ModelParameter>& params, int repeats,
+                      const std::string& label, AdjointObjective* objective) {
+  NoObserver none;
+  std::vector<double> t_run, t_sens, t_adj;
+  SensitivityRun sens;
+  for (int r = 0; r < repeats; ++r) {
+    auto t0 = std::chrono::steady_clock::now();
+    const RunResult plain = run_simulation(m, none);
+    t_run.push_back(seconds_since(t0));
+    t0 = std::chrono::steady_clock::now();
+    sens = run_with_sensitivities(m, params, none);
+    t_sens.push_back(seconds_since(t0));
+    if (!plain.converged || !sens.run.converged) return false;
+    if (!objective) continue;
+    t0 = std::chrono::steady_clock::now();
+    const AdjointRun adj = run_with_adjoint_gradient(m, params, *objective);
+    t_adj.push_back(seconds_since(t0));
+    if (!adj.run.converged) return false;
+  }
+  const double run = median(t_run), forward = median(t_sens);
+  const std::string adjoint = objective ? fmt::format("{:.3f}", median(t_adj)) : "-";
+  const std::string ratio = objective ? fmt::format("{:.2f}", median(t_adj) / run) : "-";
+  fmt::print(
+      "{:>10} {:>7} {:>3} {:>8.3f} {:>10.3f} {:>8.2f} {:>9.2f} {:>10} {:>8} {:>6} + {:<6} "
+      "{:>22.17g}\n",
+      label, m.grid.n_cells(), int(params.size()), run, forward, forward / run,
+      1.0 + params.size() / 4.0, adjoint, ratio,
+      sens.run.factorizations - sens.sensitivity_factorizations, sens.sensitivity_factorizations,
+      none.checksum);
+  return true;
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
@@ -105,7 +144,10 @@ int main(int argc, char** argv) {
   aquiledger::wait_passively_by_default(argv);
   double cells = 1e4;
   int p = 8, repeats = 3;
+  std::string setup_file, aquifer = "both";
   for (int i = 1; i + 1 < argc; i += 2) {
+    if (!std::strcmp(argv[i], "--aquifer")) aquifer = argv[i + 1];
+    if (!std::strcmp(argv[i], "--setup")) setup_file = argv[i + 1];
     if (!std::strcmp(argv[i], "--cells")) cells = std::atof(argv[i + 1]);
     if (!std::strcmp(argv[i], "--parameters")) p = std::atoi(argv[i + 1]);
     if (!std::strcmp(argv[i], "--repeats")) repeats = std::max(1, std::atoi(argv[i + 1]));
@@ -114,7 +156,24 @@ int main(int argc, char** argv) {
   fmt::print("{:>10} {:>7} {:>3} {:>8} {:>10} {:>8} {:>9} {:>10} {:>8} {:>14} {:>22}\n", "aquifer",
              "cells", "p", "run s", "forward s", "in runs", "1 + p/4", "adjoint s", "in runs",
              "factorisations", "sum |dh/dlnp| at end");
+  if (!setup_file.empty()) {
+    const EstimationReadResult read = read_estimation_file(setup_file);
+    if (!read.model || !read.setup) {
+      for (const Diagnostic& d : read.diagnostics) fmt::print("{}\n", d.to_string());
+      return 2;
+    }
+    std::vector<double> start;
+    std::vector<ModelParameter> params;
+    for (const EstimatedParameter& e : read.setup->parameters) {
+      start.push_back(e.start);
+      params.push_back(e.parameter);
+    }
+    const Model m = model_with_parameters(*read.model, *read.setup, start);
+    if (!time_derivatives(m, params, repeats, "set-up", nullptr)) return 1;
+  }
   for (bool switching : {false, true}) {
+    if (!setup_file.empty()) break;
+    if (aquifer != "both" && aquifer != (switching ? "switching" : "confined")) continue;
     bench::BasinSpec spec;
     spec.n_rows = spec.n_cols = static_cast<int>(std::lround(std::sqrt(cells)));
     spec.switching = switching;
@@ -122,30 +181,9 @@ int main(int argc, char** argv) {
     Model m = bench::make_basin(spec);
     m.solver.linear = LinearChoice::direct;
     const std::vector<ModelParameter> params = strip_parameters(m, p);
-    NoObserver none;
     BoreObjective objective(m);
-    std::vector<double> t_run, t_sens, t_adj;
-    SensitivityRun sens;
-    for (int r = 0; r < repeats; ++r) {
-      auto t0 = std::chrono::steady_clock::now();
-      const RunResult plain = run_simulation(m, none);
-      t_run.push_back(seconds_since(t0));
-      t0 = std::chrono::steady_clock::now();
-      sens = run_with_sensitivities(m, params, none);
-      t_sens.push_back(seconds_since(t0));
-      t0 = std::chrono::steady_clock::now();
-      const AdjointRun adj = run_with_adjoint_gradient(m, params, objective);
-      t_adj.push_back(seconds_since(t0));
-      if (!plain.converged || !sens.run.converged || !adj.run.converged) return 1;
-    }
-    const double run = median(t_run), forward = median(t_sens), adjoint = median(t_adj);
-    fmt::print(
-        "{:>10} {:>7} {:>3} {:>8.3f} {:>10.3f} {:>8.2f} {:>9.2f} {:>10.3f} {:>8.2f} {:>6} + {:<6} "
-        "{:>22.17g}\n",
-        switching ? "switching" : "confined", m.grid.n_cells(), int(params.size()), run, forward,
-        forward / run, 1.0 + params.size() / 4.0, adjoint, adjoint / run,
-        sens.run.factorizations - sens.sensitivity_factorizations, sens.sensitivity_factorizations,
-        none.checksum);
+    if (!time_derivatives(m, params, repeats, switching ? "switching" : "confined", &objective))
+      return 1;
   }
   std::ifstream load("/proc/loadavg");
   std::string one, five, fifteen;

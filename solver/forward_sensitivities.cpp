@@ -1,6 +1,7 @@
 #include "solver/forward_sensitivities.hpp"
 
 #include <cmath>
+#include <exception>
 #include <stdexcept>
 
 #include "solver/face_table.hpp"
@@ -51,7 +52,6 @@ class SensitivityTracker : public SimulationObserver {
     for (auto& s : s_)
       for (std::size_t i = 0; i < n; ++i)
         if (!model.grid.is_active(CellIndex{static_cast<std::int32_t>(i)})) s[i] = std::nan("");
-    x_.setZero(layout_.n_unknowns());
   }
 
   void converged_system(FlowSystem& system, LinearSolver& linear) override {
@@ -81,20 +81,44 @@ class SensitivityTracker : public SimulationObserver {
     const long factorized_before = linear_->factorizations();
     linear_->set_relative_tolerance(iterative_tolerance);
     const int n = layout_.n_unknowns();
+    const auto p = static_cast<int>(parameters_.size());
     if (!steady) old_head_slope(model_, layout_, dt, h_old, d_old_);
-    for (std::size_t k = 0; k < parameters_.size(); ++k) {
-      residual_log_slope(model_, layout_, parameters_[k], period, steady, dt, h_old, h, b_);
-      std::vector<double>& s = s_[k];
-      if (!steady)  // dR/dh_old s_old: the storage release's dependence on the start heads
-        for (int u = 0; u < n; ++u)
-          b_[u] += d_old_[u] * s[at(layout_.cell_of_unknown[static_cast<std::size_t>(u)])];
-      for (int u = 0; u < n; ++u)  // an iterative solver starts from the last sensitivities
-        x_[u] = s[at(layout_.cell_of_unknown[static_cast<std::size_t>(u)])];
-      if (!linear_->solve(a, b_, x_))
-        throw std::runtime_error("sensitivities: the linear solver failed");
-      ++solves_;
+    b_.resize(n, p);
+    x_.resize(n, p);
+    // The right-hand sides of the parameters are independent: one per thread at a time
+    // (residual_log_slope only reads the model and the heads).
+    std::exception_ptr error;
+#pragma omp parallel if (p > 1)
+    {
+      Eigen::VectorXd slope;
+#pragma omp for schedule(dynamic)
+      for (int k = 0; k < p; ++k) {
+        try {
+          residual_log_slope(model_, layout_, parameters_[static_cast<std::size_t>(k)], period,
+                             steady, dt, h_old, h, slope);
+        } catch (...) {
+#pragma omp critical(aquiledger_sensitivity_error)
+          error = std::current_exception();
+          continue;
+        }
+        const std::vector<double>& s = s_[static_cast<std::size_t>(k)];
+        for (int u = 0; u < n; ++u) {
+          const double s_old = s[at(layout_.cell_of_unknown[static_cast<std::size_t>(u)])];
+          // dR/dh_old s_old: the storage release's dependence on the start heads
+          b_(u, k) = steady ? slope[u] : slope[u] + d_old_[u] * s_old;
+          x_(u, k) = s_old;  // an iterative solver starts from the last sensitivities
+        }
+      }
+    }
+    if (error) std::rethrow_exception(error);
+    // All columns with one matrix: a direct solver solves them together (linear_solver.hpp).
+    if (!linear_->solve_columns(a, b_, x_))
+      throw std::runtime_error("sensitivities: the linear solver failed");
+    solves_ += p;
+    for (int k = 0; k < p; ++k) {
+      std::vector<double>& s = s_[static_cast<std::size_t>(k)];
       for (int u = 0; u < n; ++u)
-        s[at(layout_.cell_of_unknown[static_cast<std::size_t>(u)])] = x_[u];
+        s[at(layout_.cell_of_unknown[static_cast<std::size_t>(u)])] = x_(u, k);
     }
     factorizations_ += linear_->factorizations() - factorized_before;
     system_ = nullptr;
@@ -108,7 +132,8 @@ class SensitivityTracker : public SimulationObserver {
   FlowSystem* system_ = nullptr;
   LinearSolver* linear_ = nullptr;
   HeadSensitivities s_;
-  Eigen::VectorXd b_, x_, d_old_;
+  Eigen::MatrixXd b_, x_;  ///< right-hand sides and solutions, one column per parameter
+  Eigen::VectorXd d_old_;
   long solves_ = 0;
   long factorizations_ = 0;
 };
@@ -150,7 +175,25 @@ void residual_log_slope(const Model& model, const SystemLayout& layout, const Mo
   }
   const std::vector<std::uint8_t> in = cell_mask(model, p);
   if (p.property == ParameterProperty::conductivity) {
+    // Only the rows of the parameter's cells and of their neighbours carry a term: the others
+    // are skipped before their face factors are computed (a zone's parameter then costs in
+    // proportion to its cells, not to the grid).
+    std::vector<std::uint8_t> touched(static_cast<std::size_t>(n), 0);
+    auto touch = [&](int row, int col) {
+      if (row < 0 || row >= g.n_rows() || col < 0 || col >= g.n_cols()) return;
+      const int u = layout.unknown_of_cell[at(g.cell(row, col))];
+      if (u >= 0) touched[static_cast<std::size_t>(u)] = 1;
+    };
+    for (int cell : p.cells) {
+      const RowCol rc = g.row_col(CellIndex{cell});
+      touch(rc.row, rc.col);
+      touch(rc.row, rc.col - 1);
+      touch(rc.row, rc.col + 1);
+      touch(rc.row - 1, rc.col);
+      touch(rc.row + 1, rc.col);
+    }
     for (int u = 0; u < n; ++u) {
+      if (!touched[static_cast<std::size_t>(u)]) continue;
       const CellIndex c = layout.cell_of_unknown[static_cast<std::size_t>(u)];
       const int row = g.row_col(c).row;
       for_each_active_neighbour(model, c, [&](CellIndex nb, double factor) {

@@ -21,6 +21,18 @@ bool LinearSolver::factorized(const SparseMatrix& a) const {
          std::equal(a.valuePtr(), a.valuePtr() + a.nonZeros(), last_values_.begin());
 }
 
+bool LinearSolver::solve_columns(const SparseMatrix& a, const Eigen::MatrixXd& b,
+                                 Eigen::MatrixXd& x) {
+  Eigen::VectorXd bj, xj;
+  for (Eigen::Index j = 0; j < b.cols(); ++j) {
+    bj = b.col(j);
+    xj = x.col(j);
+    if (!solve(a, bj, xj)) return false;
+    x.col(j) = xj;
+  }
+  return true;
+}
+
 namespace {
 
 /// Eigen's iterative solvers, started from the previous solution. The preconditioner is

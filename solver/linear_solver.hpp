@@ -21,6 +21,11 @@ class LinearSolver {
   /// solver). The pattern of a must not change between calls (symbolic analysis runs once).
   /// Returns false when the solver failed (singular matrix, no convergence).
   virtual bool solve(const SparseMatrix& a, const Eigen::VectorXd& b, Eigen::VectorXd& x) = 0;
+  /// Solves a X = B for every column of B with one matrix (several right-hand sides, e.g. the
+  /// sensitivities of independent parameters). On entry X holds the previous solutions
+  /// (b.rows() x b.cols()). By default one solve() per column, in order; the direct backends
+  /// solve the columns together with one factorisation (sparse_direct.cpp).
+  virtual bool solve_columns(const SparseMatrix& a, const Eigen::MatrixXd& b, Eigen::MatrixXd& x);
   virtual std::string name() const = 0;
   /// True when solve() returns the solution to rounding (a direct factorisation), so that for
   /// an unchanged matrix a second Newton update could only be rounding noise.

@@ -75,25 +75,66 @@ class KeptCholesky : public Eigen::CholmodSupernodalLLT<SparseMatrix, Eigen::Low
   }
   /// x = A^-1 b; false when CHOLMOD fails (x unchanged).
   bool solve_into(const Eigen::VectorXd& b, Eigen::VectorXd& x) {
-    if (m_cholmodFactor == nullptr || info() != Eigen::Success) return false;
-    cholmod_dense rhs{};
-    rhs.nrow = rhs.d = static_cast<std::size_t>(b.size());
-    rhs.ncol = 1;
-    rhs.nzmax = rhs.nrow;
-    rhs.x = const_cast<double*>(b.data());
-    rhs.xtype = CHOLMOD_REAL;
-    rhs.dtype = CHOLMOD_DOUBLE;
-    if (!cholmod_solve2(CHOLMOD_A, m_cholmodFactor, &rhs, nullptr, &x_, nullptr, &y_, &e_,
-                        &cholmod()))
-      return false;
+    if (!solve_dense(b.data(), b.rows(), 1)) return false;
     x = Eigen::Map<const Eigen::VectorXd>(static_cast<const double*>(x_->x), b.size());
+    return true;
+  }
+  /// X = A^-1 B, every column in one call: CHOLMOD's triangular solves take the columns of a
+  /// dense right-hand side together (up to 4 a pass in the simplicial solve, a block in the
+  /// supernodal one; CHOLMOD User Guide, cholmod_solve2; from memory), so the factor is read
+  /// once for several columns. False when CHOLMOD fails (x unchanged).
+  bool solve_columns_into(const Eigen::MatrixXd& b, Eigen::MatrixXd& x) {
+    if (!solve_dense(b.data(), b.rows(), b.cols())) return false;
+    x = Eigen::Map<const Eigen::MatrixXd>(static_cast<const double*>(x_->x), b.rows(), b.cols());
     return true;
   }
 
  private:
+  /// The solution of the rows x columns right-hand side b (column-major) into x_.
+  bool solve_dense(const double* b, Eigen::Index rows, Eigen::Index columns) {
+    if (m_cholmodFactor == nullptr || info() != Eigen::Success) return false;
+    cholmod_dense rhs{};
+    rhs.nrow = rhs.d = static_cast<std::size_t>(rows);
+    rhs.ncol = static_cast<std::size_t>(columns);
+    rhs.nzmax = rhs.nrow * rhs.ncol;
+    rhs.x = const_cast<double*>(b);
+    rhs.xtype = CHOLMOD_REAL;
+    rhs.dtype = CHOLMOD_DOUBLE;
+    return cholmod_solve2(CHOLMOD_A, m_cholmodFactor, &rhs, nullptr, &x_, nullptr, &y_, &e_,
+                          &cholmod()) != 0;
+  }
+
   cholmod_dense* x_ = nullptr;
   cholmod_dense* y_ = nullptr;
   cholmod_dense* e_ = nullptr;
+};
+
+/// UMFPACK's LU whose several right-hand sides are solved in parallel, one column per thread
+/// at a time: UMFPACK has no multi-column solve, and umfpack_di_wsolve only reads the numeric
+/// factorisation and works in the workspace it is given (no allocation), so each thread
+/// keeps its own workspace (Wi: n integers, W: 5n doubles with iterative refinement, the
+/// default; UMFPACK User Guide, umfpack_wsolve; from memory).
+class KeptLU : public Eigen::UmfPackLU<SparseMatrix> {
+ public:
+  bool solve_columns_into(const Eigen::MatrixXd& b, Eigen::MatrixXd& x) {
+    if (m_numeric == nullptr || info() != Eigen::Success) return false;
+    const auto n = static_cast<std::size_t>(b.rows());
+    const auto columns = static_cast<int>(b.cols());
+    x.resize(b.rows(), b.cols());
+    int failed = 0;
+#pragma omp parallel if (columns > 1) reduction(+ : failed)
+    {
+      std::vector<int> wi(n);
+      std::vector<double> w(5 * n);
+#pragma omp for schedule(dynamic)
+      for (int j = 0; j < columns; ++j)
+        if (umfpack_di_wsolve(UMFPACK_A, mp_matrix.outerIndexPtr(), mp_matrix.innerIndexPtr(),
+                              mp_matrix.valuePtr(), x.col(j).data(), b.col(j).data(), m_numeric,
+                              m_control.data(), nullptr, wi.data(), w.data()) != UMFPACK_OK)
+          ++failed;
+    }
+    return failed == 0;
+  }
 };
 
 /// The fill-reducing ordering of a factorisation of n unknowns, set before its analysis: the
@@ -117,6 +158,24 @@ class DirectSolver final : public LinearSolver {
   DirectSolver(std::string name, CholmodOrdering ordering)
       : name_(std::move(name)), ordering_(ordering) {}
   bool solve(const SparseMatrix& a, const Eigen::VectorXd& b, Eigen::VectorXd& x) override {
+    if (!factorize(a)) return false;
+    if constexpr (requires { factorization_.solve_into(b, x); }) {
+      return factorization_.solve_into(b, x) && x.allFinite();
+    } else {
+      x = factorization_.solve(b);
+      return factorization_.info() == Eigen::Success && x.allFinite();
+    }
+  }
+  bool solve_columns(const SparseMatrix& a, const Eigen::MatrixXd& b, Eigen::MatrixXd& x) override {
+    if (!factorize(a)) return false;
+    return factorization_.solve_columns_into(b, x) && x.allFinite();
+  }
+  std::string name() const override { return name_; }
+  bool exact() const override { return true; }
+
+ private:
+  /// Symbolic analysis on the first call, numeric factorisation when the values changed.
+  bool factorize(const SparseMatrix& a) {
     set_blas_threads(1);
     if (!analysed_) {
       configure(factorization_, ordering_, a.rows());
@@ -128,17 +187,9 @@ class DirectSolver final : public LinearSolver {
     count_factorization(!changed);
     if (factorization_.info() != Eigen::Success) return false;
     count_iterations(0);
-    if constexpr (requires { factorization_.solve_into(b, x); }) {
-      return factorization_.solve_into(b, x) && x.allFinite();
-    } else {
-      x = factorization_.solve(b);
-      return factorization_.info() == Eigen::Success && x.allFinite();
-    }
+    return true;
   }
-  std::string name() const override { return name_; }
-  bool exact() const override { return true; }
 
- private:
   std::string name_;
   CholmodOrdering ordering_;
   Factorization factorization_;
@@ -305,8 +356,7 @@ std::unique_ptr<LinearSolver> make_cholmod_solver(CholmodOrdering ordering) {
 }
 
 std::unique_ptr<LinearSolver> make_umfpack_solver() {
-  return std::make_unique<DirectSolver<Eigen::UmfPackLU<SparseMatrix>>>("umfpack",
-                                                                        CholmodOrdering::automatic);
+  return std::make_unique<DirectSolver<KeptLU>>("umfpack", CholmodOrdering::automatic);
 }
 
 }  // namespace aquiledger

@@ -158,7 +158,11 @@ TEST_CASE("non-convergence is a status with a named place, steps kept", "[time_c
   CHECK(obs.periods_done.size() == 1);
 }
 
-TEST_CASE("linear backends agree on the same system", "[linear]") {
+/// Calls check(system, backends) with the drying model's system, confined and water table,
+/// assembled at a non-uniform state (so upstream choices differ across faces), and every
+/// backend that solves it.
+template <class Check>
+void with_each_drying_system(Check&& check) {
   for (Condition c : {Condition::confined, Condition::water_table}) {
     Model m = drying_model();
     m.aquifer.condition = c;
@@ -168,14 +172,20 @@ TEST_CASE("linear backends agree on the same system", "[linear]") {
     std::vector<double> head_old = m.initial.head.values();
     sys.set_step(0, false, 0.5, head_old);
     std::vector<double> head = m.initial.head.values();
-    head[7] -= 0.3;  // a non-uniform state, so upstream choices differ across faces
+    head[7] -= 0.3;
     sys.assemble(head);
-    const Eigen::VectorXd b = sys.residual();
     std::vector<std::unique_ptr<LinearSolver>> solvers;
     solvers.push_back(make_umfpack_solver());
     solvers.push_back(make_bicgstab_solver());
     if (sys.symmetric())
       solvers.push_back(make_cholmod_solver()), solvers.push_back(make_pcg_solver());
+    check(sys, solvers);
+  }
+}
+
+TEST_CASE("linear backends agree on the same system", "[linear]") {
+  with_each_drying_system([](FlowSystem& sys, std::vector<std::unique_ptr<LinearSolver>>& solvers) {
+    const Eigen::VectorXd b = sys.residual();
     Eigen::VectorXd reference;
     for (auto& s : solvers) {
       Eigen::VectorXd x = Eigen::VectorXd::Zero(b.size());
@@ -187,7 +197,34 @@ TEST_CASE("linear backends agree on the same system", "[linear]") {
       else
         CHECK((x - reference).cwiseAbs().maxCoeff() <= 1e-8 * reference.cwiseAbs().maxCoeff());
     }
-  }
+  });
+}
+
+TEST_CASE("several right-hand sides solved together equal one solve each", "[linear]") {
+  // The sensitivity columns of independent parameters go through solve_columns: the direct
+  // backends solve them together with one factorisation (CHOLMOD's multi-column solve,
+  // UMFPACK's columns in parallel), the others one solve() per column. Checked against the
+  // residual of each column (the definition of a solution) and against one solve each.
+  with_each_drying_system([](FlowSystem& sys, std::vector<std::unique_ptr<LinearSolver>>& solvers) {
+    const Eigen::Index n = sys.residual().size();
+    Eigen::MatrixXd b(n, 5);
+    for (Eigen::Index j = 0; j < b.cols(); ++j)
+      for (Eigen::Index i = 0; i < n; ++i)
+        b(i, j) = std::sin(1.0 + static_cast<double>(i * (j + 1))) * static_cast<double>(j + 1);
+    for (auto& s : solvers) {
+      INFO(s->name());
+      Eigen::MatrixXd x = Eigen::MatrixXd::Zero(n, b.cols());
+      REQUIRE(s->solve_columns(sys.matrix(), b, x));
+      if (s->exact()) CHECK(s->factorizations() == 1);  // one factorisation for every column
+      for (Eigen::Index j = 0; j < b.cols(); ++j) {
+        const Eigen::VectorXd bj = b.col(j);
+        CHECK((sys.matrix() * x.col(j) - bj).norm() <= 1e-10 * bj.norm());
+        Eigen::VectorXd one = Eigen::VectorXd::Zero(n);
+        REQUIRE(s->solve(sys.matrix(), bj, one));
+        CHECK((x.col(j) - one).cwiseAbs().maxCoeff() <= 1e-8 * one.cwiseAbs().maxCoeff());
+      }
+    }
+  });
 }
 
 TEST_CASE("linear = auto picks by symmetry and size", "[linear]") {
