@@ -19,7 +19,7 @@
 # correct fit for about 1 seed set in 90. With the bias above the coverage per seed is nearer
 # 0.93 for T (binomial (10, 0.93): P(at least 8) = 0.97). The seeds are fixed, so the outcome is the same on every
 # run; a wrong interval (e.g. s^2 left out, or the t quantile replaced by 1) covers far less
-# often (about 0.68 for one standard error), and P(at least 8 of 10) = 0.38 would show it.
+# often (about 0.68 for one standard error), and P(at least 8 of 10) = 0.33 would show it.
 #   bash estimate_theis_noisy.sh <aquiledger> <source-dir>
 set -euo pipefail
 # shellcheck source=../support/script_start.sh
