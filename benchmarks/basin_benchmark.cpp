@@ -5,6 +5,7 @@
 //   basin_benchmark [--sizes 1e4,1e5,1e6,4e6] [--steps 30] [--variant both|confined|switching]
 //                   [--threads N] [--linear auto|direct|pcg|bicgstab|multigrid] [--json FILE]
 //                   [--face-thickness mean|upstream] [--newton-limit on|off]
+//                   [--newton-estimate on|off]
 // Each case runs in its own child process (own peak memory); --steps is per period.
 #include <fmt/format.h>
 #include <sys/resource.h>
@@ -75,7 +76,8 @@ struct CaseOptions {
   int threads = 0;
   LinearChoice linear = LinearChoice::automatic;
   FaceThickness face_thickness = FaceThickness::mean;
-  bool newton_limit = true;  ///< NewtonSettings::limit_at_withdrawal_inflection
+  bool newton_limit = true;     ///< NewtonSettings::limit_at_withdrawal_inflection
+  bool newton_estimate = true;  ///< NewtonSettings::stop_on_contraction_estimate
 };
 
 CaseResult run_case(const bench::BasinSpec& spec, const CaseOptions& opt) {
@@ -85,6 +87,7 @@ CaseResult run_case(const bench::BasinSpec& spec, const CaseOptions& opt) {
   model.solver.linear = opt.linear;
   model.solver.face_thickness = opt.face_thickness;
   model.solver.limit_at_withdrawal_inflection = opt.newton_limit;
+  model.solver.stop_on_contraction_estimate = opt.newton_estimate;
   TimingObserver obs(model);
   SimulationOptions sim;
   sim.memory_bytes = usable_memory_bytes().value_or(0.0);  // as the run command does
@@ -164,6 +167,8 @@ int main(int argc, char** argv) {
       options.linear = parse_linear(value);
     else if (key == "--newton-limit")
       options.newton_limit = value != "off";
+    else if (key == "--newton-estimate")
+      options.newton_estimate = value != "off";
     else if (key == "--face-thickness")
       options.face_thickness = value == "upstream" ? FaceThickness::upstream : FaceThickness::mean;
     else {

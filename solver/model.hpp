@@ -212,6 +212,9 @@ struct SolverSettings {
   /// NewtonSettings::limit_at_withdrawal_inflection; not a model-file key (always on there),
   /// switched off only by benchmarks and tests that measure it.
   bool limit_at_withdrawal_inflection = true;
+  /// NewtonSettings::stop_on_contraction_estimate; not a model-file key either (always on
+  /// there), switched off only by benchmarks and tests that measure it.
+  bool stop_on_contraction_estimate = true;
 };
 
 /// Zone numbers of an aquifer property given as { zones, values }, kept for reports.

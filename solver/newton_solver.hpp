@@ -19,6 +19,10 @@ struct NewtonSettings {
   /// would cross it (stopped_at_inflection, newton_iteration.hpp); water-table and switching
   /// cells only.
   bool limit_at_withdrawal_inflection = true;
+  /// Converged without the proving solve when the residual test is met after a full step and
+  /// the next update, estimated from the residual's contraction (contraction_update_estimate,
+  /// newton_iteration.hpp), is below 1e-3 of head_tolerance.
+  bool stop_on_contraction_estimate = true;
 };
 
 struct NewtonResult {
@@ -73,7 +77,9 @@ ResidualNorms residual_norms(const Eigen::VectorXd& r);
 
 /// Converged when max |dh| < head_tolerance, max |R_i| <= flow_tolerance * throughflow and
 /// |sum R_i| <= 0.01 flow_tolerance * throughflow (the last closes the step's budget to
-/// 1e-6 percent with the default tolerance); or, after an exact solve of a Jacobian that the
+/// 1e-6 percent with the default tolerance); or when the residual test is met after a full
+/// step and the next update, estimated from the residual's contraction, is below 1e-3 of the
+/// head tolerance (stop_on_contraction_estimate); or, after an exact solve of a Jacobian that the
 /// new heads leave unchanged, when the residual meets 1e-3 of the flow tolerance and the next
 /// update, estimated as max |R_i| / A_ii, 1e-3 of the head tolerance. head (per grid cell) holds
 /// the start on entry and the last iterate on return; the system must have its step set.

@@ -80,7 +80,7 @@ inline RunResult starting_result(const StartState* start, std::string linear_sol
 
 inline NewtonSettings newton_settings(const Model& model) {
   return {model.solver.head_tolerance, model.solver.flow_tolerance, model.solver.max_iterations,
-          model.solver.limit_at_withdrawal_inflection};
+          model.solver.limit_at_withdrawal_inflection, model.solver.stop_on_contraction_estimate};
 }
 
 /// A stepper's memory of its last accepted step (its start heads, length and period): where
