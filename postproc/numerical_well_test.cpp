@@ -149,6 +149,10 @@ Model numerical_test_model(const PumpingTest& test, const std::vector<double>& p
   }
   QuarterRadialGridSpec spec;
   spec.inner = settings.inner_fraction * r_min;
+  // With the casing's storage the well's cell stands for the well: a square cell's head is
+  // that of a radius 0.198 of its width (Peaceman, 1978, SPE J. 18(3), from memory), set to
+  // r_w, so the casing's level follows the aquifer's head at r_w.
+  if (numerical_casing_storage(test)) spec.inner = test.pumped_well.well / 0.198;
   spec.growth = settings.width_growth;
   for (const ObservationSeries& w : test.wells) spec.anchors.push_back(w.distance);
   spec.extent = std::max(
