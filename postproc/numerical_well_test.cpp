@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <numbers>
 #include <sstream>
 #include <stdexcept>
 
@@ -74,19 +75,57 @@ EstimationSetup numerical_setup_at(const EstimationSetup& fit_setup, const Pumpi
   return s;
 }
 
+/// The storage of the pumped well's casing (Papadopulos and Cooper, 1967): the water level in
+/// a casing of radius r_c (L) falls with the aquifer's head at the well, so the well's cell
+/// stores pi r_c^2 more per unit head; the quarter grid's corner cell a quarter of it. Added
+/// to the cell's elastic storage (Ss times the thickness b, over the cell's area A) and, for
+/// water-table and switching cells, to its specific yield, so that it acts at every head.
+void add_numerical_casing_storage(Model& m, CellIndex well_cell, double casing_radius,
+                                  double thickness) {
+  const auto c = static_cast<std::size_t>(well_cell.value);
+  const double per_area =
+      0.25 * std::numbers::pi * casing_radius * casing_radius / m.grid.area(well_cell);
+  if (m.aquifer.condition != Condition::water_table)
+    m.aquifer.specific_storage[c] += per_area / thickness;
+  if (!m.aquifer.specific_yield.empty()) m.aquifer.specific_yield[c] += per_area;
+}
+
+/// Leakage through a confining bed of leakance K' / b' (1/T) from a source bed whose head
+/// stays at `source_head` (L): an exchange leakance A (source_head - h) per cell of area A
+/// (Hantush and Jacob, 1955), as one external head over every cell.
+void add_numerical_leakage(Model& m, double source_head, double leakance) {
+  ExternalHead e;
+  e.name = "leaky confining bed";
+  std::vector<double> conductance;
+  for (int c = 0; c < m.grid.n_cells(); ++c) {
+    e.cells.push_back(CellIndex{c});
+    conductance.push_back(leakance * m.grid.area(CellIndex{c}));
+  }
+  e.head = PeriodValues(source_head);
+  e.conductance = PeriodValues({std::move(conductance)}, {});
+  m.external_heads.push_back(std::move(e));
+}
+
 }  // namespace
 
 std::vector<std::string> numerical_parameter_names(const PumpingTest& test) {
+  std::vector<std::string> names;
   switch (numerical_aquifer_kind(test)) {
     case NumericalAquiferKind::confined:
-      return {"transmissivity", "storativity"};
+      names = {"transmissivity", "storativity"};
+      break;
     case NumericalAquiferKind::switching:
-      return {"transmissivity", "storativity", "specific_yield"};
+      names = {"transmissivity", "storativity", "specific_yield"};
+      break;
     case NumericalAquiferKind::water_table:
-      return {"transmissivity", "specific_yield"};
+      names = {"transmissivity", "specific_yield"};
+      break;
   }
-  return {};
+  if (test.leakance && test.leakance->fitted) names.emplace_back("leakance");
+  return names;
 }
+
+bool numerical_casing_storage(const PumpingTest& test) { return test.pumped_well.casing > 0.0; }
 
 Model numerical_test_model(const PumpingTest& test, const std::vector<double>& p,
                            double grid_transmissivity, double grid_storativity,
@@ -110,6 +149,10 @@ Model numerical_test_model(const PumpingTest& test, const std::vector<double>& p
   }
   QuarterRadialGridSpec spec;
   spec.inner = settings.inner_fraction * r_min;
+  // With the casing's storage the well's cell stands for the well: a square cell's head is
+  // that of a radius 0.198 of its width (Peaceman, 1978, SPE J. 18(3), from memory), set to
+  // r_w, so the casing's level follows the aquifer's head at r_w.
+  if (numerical_casing_storage(test)) spec.inner = test.pumped_well.well / 0.198;
   spec.growth = settings.width_growth;
   for (const ObservationSeries& w : test.wells) spec.anchors.push_back(w.distance);
   spec.extent = std::max(
@@ -147,8 +190,14 @@ Model numerical_test_model(const PumpingTest& test, const std::vector<double>& p
     }
   const double elastic = kind == NumericalAquiferKind::water_table ? 0.0 : p[1] / thickness;
   a.specific_storage.assign(n, elastic);
-  if (kind != NumericalAquiferKind::confined) a.specific_yield.assign(n, p.back());
+  if (kind != NumericalAquiferKind::confined)
+    a.specific_yield.assign(n, p[kind == NumericalAquiferKind::switching ? 2 : 1]);
   m.initial.head.assign(n, head);
+  const CellIndex well_cell = m.grid.cell(m.grid.n_rows() - 1, 0);
+  if (numerical_casing_storage(test))
+    add_numerical_casing_storage(m, well_cell, test.pumped_well.casing, thickness);
+  if (test.leakance)
+    add_numerical_leakage(m, head, test.leakance->fitted ? p.back() : test.leakance->value);
 
   // One stress period per rate step that begins before the last drawdown.
   std::vector<std::vector<double>> rates;
@@ -172,7 +221,7 @@ Model numerical_test_model(const PumpingTest& test, const std::vector<double>& p
     rates.push_back({0.25 * test.schedule[i].rate});
     table_of_period.push_back(static_cast<std::uint32_t>(rates.size() - 1));
   }
-  m.wells.push_back(Well{"pumped well", 0.0, 0.0, m.grid.cell(m.grid.n_rows() - 1, 0),
+  m.wells.push_back(Well{"pumped well", 0.0, 0.0, well_cell,
                          PeriodValues(std::move(rates), std::move(table_of_period))});
   // Each well on the x axis at its distance: on the grid's south edge, beyond the centres of
   // the first row, so its head is interpolated along that row only (ObservationSampler),
@@ -199,14 +248,24 @@ EstimationSetup numerical_test_setup(const PumpingTest& test, const Model& model
   EstimationSetup setup;
   const std::vector<int> cells = every_numerical_cell(model);
   const std::vector<std::string> names = numerical_parameter_names(test);
+  // The casing's storage is the well's, not the aquifer's: the storage multipliers leave the
+  // well's cell out (its aquifer storage, S or Sy times a cell of (inner / 2)^2, then stays
+  // at the model's value; docs/pumping-tests.md, "Well-bore storage").
+  std::vector<int> storage_cells = cells;
+  if (numerical_casing_storage(test))
+    std::erase(storage_cells, model.grid.cell(model.grid.n_rows() - 1, 0).value);
   for (std::size_t j = 0; j < names.size(); ++j) {
     EstimatedParameter e;
     e.parameter.name = names[j];
     e.parameter.property = names[j] == "transmissivity" ? ParameterProperty::conductivity
                            : names[j] == "storativity"  ? ParameterProperty::specific_storage
+                           : names[j] == "leakance"     ? ParameterProperty::external_conductance
                                                         : ParameterProperty::specific_yield;
     e.parameter.form = ParameterForm::multiplier;
-    e.parameter.cells = cells;
+    if (names[j] == "leakance")
+      e.parameter.features = {0};
+    else
+      e.parameter.cells = names[j] == "transmissivity" ? cells : storage_cells;
     e.start = 1.0;
     e.lower = std::min(lower_over_start[j], 1.0);
     e.upper = std::max(upper_over_start[j], 1.0);
@@ -231,6 +290,70 @@ EstimationSetup numerical_test_setup(const PumpingTest& test, const Model& model
   return setup;
 }
 
+namespace {
+
+/// The fit's last round: the model it ran on, the estimation and the parameters the
+/// multipliers apply to.
+struct NumericalFitRounds {
+  Model base;
+  EstimationSetup setup;
+  EstimationResult est;
+  std::vector<double> p;  ///< the model's values (multipliers 1)
+  double needed = 0.0;    ///< L, extent_factor radii of influence of the fitted values
+  int n_model_runs = 0;   ///< over every round
+};
+
+/// Fits from `start`, rebuilding the grid (at most twice) when the fitted values' cone
+/// reaches beyond it.
+NumericalFitRounds numerical_fit_rounds(const PumpingTest& test, const std::vector<double>& start,
+                                        const std::vector<double>& lower,
+                                        const std::vector<double>& upper,
+                                        const NumericalTestSettings& settings) {
+  const std::size_t k = start.size();
+  const double length = numerical_test_length(test);
+  NumericalFitRounds r;
+  r.p = start;
+  double grid_t = start[0], grid_s = spreading_storage(start);
+  for (int round = 0;; ++round) {
+    r.base = numerical_test_model(test, r.p, grid_t, grid_s, settings);
+    std::vector<double> lo(k), hi(k);
+    for (std::size_t j = 0; j < k; ++j) lo[j] = lower[j] / r.p[j], hi[j] = upper[j] / r.p[j];
+    r.setup = numerical_test_setup(test, r.base, lo, hi);
+    r.setup.max_iterations = settings.max_fit_iterations;
+    if (r.setup.n_measurements() <= static_cast<int>(k) + 1)
+      throw std::invalid_argument("numerical: only " + std::to_string(r.setup.n_measurements()) +
+                                  " usable drawdowns, more than " + std::to_string(k + 1) +
+                                  " are needed");
+    r.est = estimate_parameters(r.base, r.setup);
+    r.n_model_runs += r.est.n_model_runs;
+    std::vector<double> fitted(k);
+    for (std::size_t j = 0; j < k; ++j)
+      fitted[j] = r.p[j] * r.est.fit.parameters[static_cast<Eigen::Index>(j)];
+    r.needed =
+        settings.extent_factor * radius_of_influence(fitted[0], spreading_storage(fitted), length);
+    if (r.needed > r.base.grid.x_max() && round < 2) {  // the fitted cone reaches the edge
+      r.p = fitted;
+      grid_t = fitted[0];
+      grid_s = spreading_storage(fitted);
+      continue;
+    }
+    return r;
+  }
+}
+
+}  // namespace
+
+NumericalTestSettings coarse_numerical_settings(const NumericalTestSettings& fine) {
+  NumericalTestSettings c = fine;
+  c.inner_fraction = std::max(fine.inner_fraction, 0.25);
+  c.width_growth = std::max(fine.width_growth, 1.2);
+  c.step_growth = std::max(fine.step_growth, 1.1);
+  c.first_step_fraction = std::max(fine.first_step_fraction, 0.05);
+  c.coarse_first = false;
+  c.max_fit_iterations = std::min(fine.max_fit_iterations, 12);
+  return c;
+}
+
 ModelFit fit_numerical_pumping_test(const PumpingTest& test, const std::vector<double>& start,
                                     const std::vector<double>& lower,
                                     const std::vector<double>& upper,
@@ -239,31 +362,24 @@ ModelFit fit_numerical_pumping_test(const PumpingTest& test, const std::vector<d
   const std::size_t k = names.size();
   if (start.size() != k || lower.size() != k || upper.size() != k)
     throw std::invalid_argument("numerical: one start value and bounds per parameter expected");
-  const double length = numerical_test_length(test);
-  std::vector<double> p = start;
-  double grid_t = start[0], grid_s = spreading_storage(start);
-  for (int round = 0;; ++round) {
-    const Model base = numerical_test_model(test, p, grid_t, grid_s, settings);
-    std::vector<double> lo(k), hi(k);
-    for (std::size_t j = 0; j < k; ++j) lo[j] = lower[j] / p[j], hi[j] = upper[j] / p[j];
-    const EstimationSetup setup = numerical_test_setup(test, base, lo, hi);
-    if (setup.n_measurements() <= static_cast<int>(k) + 1)
-      throw std::invalid_argument("numerical: only " + std::to_string(setup.n_measurements()) +
-                                  " usable drawdowns, more than " + std::to_string(k + 1) +
-                                  " are needed");
-    const EstimationResult est = estimate_parameters(base, setup);
-    std::vector<double> fitted(k);
+  std::vector<double> from = start;
+  int coarse_runs = 0;
+  if (settings.coarse_first) {  // the coarse model's optimum is the fine fit's start
+    const NumericalFitRounds c =
+        numerical_fit_rounds(test, start, lower, upper, coarse_numerical_settings(settings));
+    coarse_runs = c.n_model_runs;
     for (std::size_t j = 0; j < k; ++j)
-      fitted[j] = p[j] * est.fit.parameters[static_cast<Eigen::Index>(j)];
-    const double needed =
-        settings.extent_factor * radius_of_influence(fitted[0], spreading_storage(fitted), length);
+      from[j] = std::clamp(c.p[j] * c.est.fit.parameters[static_cast<Eigen::Index>(j)], lower[j],
+                           upper[j]);
+  }
+  const NumericalFitRounds fine = numerical_fit_rounds(test, from, lower, upper, settings);
+  {
+    const Model& base = fine.base;
+    const EstimationSetup& setup = fine.setup;
+    const EstimationResult& est = fine.est;
+    const std::vector<double>& p = fine.p;
+    const double needed = fine.needed;
     const double reached = base.grid.x_max();
-    if (needed > reached && round < 2) {  // the cone of the fitted values reaches the edge
-      p = fitted;
-      grid_t = fitted[0];
-      grid_s = spreading_storage(fitted);
-      continue;
-    }
     ModelFit out;
     out.model = WellTestModel::numerical;
     out.parameter_names = names;
@@ -320,7 +436,11 @@ ModelFit fit_numerical_pumping_test(const PumpingTest& test, const std::vector<d
       << test.length_unit << " (" << reached / (needed / settings.extent_factor)
       << " radii of influence of the fitted values); " << steps << " time steps in "
       << base.periods.size() << " rate step(s), growing by " << settings.step_growth << "; "
-      << est.n_model_runs << " model runs with sensitivities";
+      << fine.n_model_runs << " model runs with sensitivities";
+    if (coarse_runs > 0)
+      d << ", after " << coarse_runs << " on a coarse model (steps growing by "
+        << coarse_numerical_settings(settings).step_growth << ", cells by "
+        << coarse_numerical_settings(settings).width_growth << ")";
     out.description = d.str();
     return out;
   }

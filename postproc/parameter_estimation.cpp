@@ -332,11 +332,19 @@ EstimationResult estimate_parameters(const Model& base, const EstimationSetup& s
       problem.prior_weights[j] = e.prior_weight;
     }
   }
+  // A run always yields the sensitivities, so the last one is kept: the fit asks for the
+  // Jacobian at a trial point it has just evaluated and accepted (bounded_least_squares.cpp),
+  // which then costs no second run (the same values, bit for bit).
+  Eigen::VectorXd last_p;
+  SimulatedTargets last_run;
   problem.model_with_jacobian = [&](const Eigen::VectorXd& p, Eigen::MatrixXd* jac) {
-    ++result.n_model_runs;
-    SimulatedTargets s = simulate_targets(base, setup, p);
-    if (jac) *jac = std::move(s.d_ln_p);
-    return s.values;
+    if (last_p.size() != p.size() || last_p != p) {
+      ++result.n_model_runs;
+      last_run = simulate_targets(base, setup, p);
+      last_p = p;
+    }
+    if (jac) *jac = last_run.d_ln_p;
+    return last_run.values;
   };
   BoundedFitSettings settings;
   settings.max_iterations = setup.max_iterations;

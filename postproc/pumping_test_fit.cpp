@@ -88,6 +88,16 @@ ParameterGuess guess_parameters(const PumpingTest& test, WellTestModel model) {
       g.lower[1] = 1e-3;
     }
   }
+  if (model == WellTestModel::numerical && test.leakance && test.leakance->fitted) {
+    // K' / b' = T / B^2 (Hantush and Jacob, 1955) with the leakage factor's start of
+    // hantush-jacob above (30 times the farthest well's distance); bounds 1e4 either side.
+    double r_max = 0.0;
+    for (const ObservationSeries& w : test.wells) r_max = std::max(r_max, w.distance);
+    const double b = std::max(30.0 * r_max, 1e-3);
+    g.start.push_back(g.start[0] / (b * b));
+    g.lower.push_back(g.start.back() * 1e-4);
+    g.upper.push_back(g.start.back() * 1e4);
+  }
   if (model == WellTestModel::neuman) {
     // The late slope sees S + Sy; start with that as Sy and the elastic S a hundredth of it.
     double r_max = 0.0;

@@ -38,6 +38,13 @@ struct TestAquiferGeometry {
   double thickness() const { return (starts_confined() ? top : static_level) - bottom; }
 };
 
+/// [aquifer].leakance: a leaky confining bed over a source bed whose head stays at the static
+/// level (Hantush and Jacob, 1955), for the numerical model.
+struct TestLeakance {
+  bool fitted = true;  ///< fitted (leakance = "fit"), else held at value
+  double value = 0.0;  ///< 1/T, K' / b' of the confining bed when held
+};
+
 /// A pumping test as read from its file.
 struct PumpingTest {
   std::string title;
@@ -47,6 +54,7 @@ struct PumpingTest {
   PumpedWellRadii pumped_well;     ///< the pumped well's radii (0 when not given)
   /// The aquifer's geometry ([aquifer]), used by the numerical model only.
   std::optional<TestAquiferGeometry> aquifer;
+  std::optional<TestLeakance> leakance;  ///< the numerical model's leakage, when given
   std::vector<ObservationSeries> wells;
   int n_observations() const;
 };

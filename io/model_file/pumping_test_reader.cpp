@@ -144,12 +144,35 @@ void read_pumped_well(ReaderContext& ctx, const toml::table& root, PumpingTest& 
   if (test.pumped_well.casing == 0.0) test.pumped_well.casing = test.pumped_well.well;
 }
 
+/// [aquifer].leakance: "fit" or a leakance K' / b' > 0 (1/T) held fixed.
+void read_test_leakance(ReaderContext& ctx, const toml::table& t, PumpingTest& test) {
+  const toml::node* node = t.get("leakance");
+  if (!node) return;
+  if (const auto word = node->value_exact<std::string>(); word && *word == "fit") {
+    test.leakance = TestLeakance{true, 0.0};
+    return;
+  }
+  const auto v = node->value<double>();
+  if (!v || !node->is_number() || !(*v > 0.0) || !std::isfinite(*v)) {
+    ctx.error(
+        *node, "[aquifer].leakance",
+        "expected \"fit\" or a leakance K'/b' > 0 1/" + ctx.time_unit + ", found " + show(*node));
+    return;
+  }
+  test.leakance = TestLeakance{false, *v};
+}
+
 /// [aquifer]: the aquifer's geometry for the numerical model (docs/pumping-tests.md): bottom
 /// and static_level (the head before pumping) required, top optional (a confining top).
 void read_test_aquifer(ReaderContext& ctx, const toml::table& root, PumpingTest& test) {
   const toml::table* t = optional_table(ctx, root, "aquifer");
   if (!t) return;
-  check_keys(ctx, *t, "[aquifer]", {"top", "bottom", "static_level"});
+  check_keys(ctx, *t, "[aquifer]", {"top", "bottom", "static_level", "leakance"});
+  read_test_leakance(ctx, *t, test);
+  // Without bottom and static_level (leakance alone) the aquifer stays the confined one of
+  // unit thickness; with either, both are needed.
+  const bool geometry = t->contains("bottom") || t->contains("static_level") || t->contains("top");
+  if (!geometry) return;
   const auto top = read_number(ctx, *t, "top", "[aquifer]", false);
   const auto bottom = read_number(ctx, *t, "bottom", "[aquifer]", true);
   const auto level = read_number(ctx, *t, "static_level", "[aquifer]", true);
@@ -164,6 +187,12 @@ void read_test_aquifer(ReaderContext& ctx, const toml::table& root, PumpingTest&
     ctx.error(*t->get("top"), "[aquifer].top",
               "expected a top above the aquifer's bottom (" + show_number(*bottom) + " " +
                   ctx.length_unit + "), found " + show_number(*top));
+    return;
+  }
+  if (test.leakance && !(top && *top < *level)) {
+    ctx.error(*t->get("leakance"), "[aquifer].leakance",
+              "a leaky confining bed needs a confined aquifer: a top below static_level, or "
+              "no bottom and static_level (a confined aquifer of unknown thickness)");
     return;
   }
   TestAquiferGeometry g;

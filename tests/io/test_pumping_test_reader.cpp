@@ -295,3 +295,36 @@ TEST_CASE("a CSV series with dates", "[pumping_test_reader]") {
   CHECK(t[3] == Approx(1.0));
   std::filesystem::remove_all(folder);
 }
+
+TEST_CASE("the leakance of a leaky confining bed for the numerical model",
+          "[pumping_test_reader]") {
+  {
+    const std::string t =
+        replace(good, "[[pumping]]", "[aquifer]\nleakance = \"fit\"\n\n[[pumping]]");
+    const PumpingTestReadResult r = read_pumping_test_text(t, "/invented/test.toml");
+    REQUIRE(r.test.has_value());
+    CHECK_FALSE(r.test->aquifer.has_value());  // confined, of unknown thickness
+    REQUIRE(r.test->leakance.has_value());
+    CHECK(r.test->leakance->fitted);
+  }
+  {
+    const std::string t = replace(good, "[[pumping]]",
+                                  "[aquifer]\ntop = -5.0\nbottom = -40.0\nstatic_level = 2.5\n"
+                                  "leakance = 3e-4\n\n[[pumping]]");
+    const PumpingTestReadResult r = read_pumping_test_text(t, "/invented/test.toml");
+    REQUIRE(r.test.has_value());
+    REQUIRE(r.test->leakance.has_value());
+    CHECK_FALSE(r.test->leakance->fitted);
+    CHECK(r.test->leakance->value == 3e-4);
+  }
+  {
+    const std::string t = replace(good, "[[pumping]]", "[aquifer]\nleakance = -1.0\n\n[[pumping]]");
+    expect_error(t, "[aquifer].leakance", line_of(t, "leakance = -1.0"), "\"fit\" or a leakance");
+  }
+  {  // a water-table aquifer has no confining bed
+    const std::string t =
+        replace(good, "[[pumping]]",
+                "[aquifer]\nbottom = -40.0\nstatic_level = 2.5\nleakance = \"fit\"\n\n[[pumping]]");
+    expect_error(t, "[aquifer].leakance", line_of(t, "leakance = \"fit\""), "confined aquifer");
+  }
+}

@@ -10,6 +10,7 @@
 #include "postproc/analytical_solutions.hpp"
 #include "postproc/numerical_well_test.hpp"
 #include "postproc/parameter_estimation.hpp"
+#include "postproc/well_test_models.hpp"
 
 using namespace aquiledger;
 
@@ -135,4 +136,78 @@ TEST_CASE("a thick water-table aquifer follows Theis with S = Sy at small drawdo
   CHECK(numerical_parameter_names(test).size() == 3);
   CHECK(numerical_test_model(test, {t, 1e-4, sy}, t, 1e-4).aquifer.condition ==
         Condition::switching);
+}
+
+namespace {
+
+/// Hantush and Jacob (1955) drawdowns, s = Q W(u, r/B) / (4 pi T), B = sqrt(T b' / K'), of a
+/// test pumped at 1200 m3/d for 1 d, wells at 25 and 80 m, 24 times from 1e-3 d (the
+/// project's hantush_jacob_drawdown, W(u, r/B) checked against scipy in
+/// test_analytical_solutions.cpp).
+PumpingTest hantush_jacob_test(double t, double s, double leakance) {
+  PumpingTest test;
+  test.schedule = {{0.0, 1200.0}};
+  const double b = std::sqrt(t / leakance);
+  for (double r : {25.0, 80.0}) {
+    ObservationSeries w;
+    w.name = "well at " + std::to_string(r);
+    w.distance = r;
+    for (int i = 0; i < 24; ++i) w.times.push_back(std::pow(10.0, -3.0 + 3.0 * i / 23.0));
+    for (double time : w.times)
+      w.drawdowns.push_back(hantush_jacob_drawdown(1200.0, t, s, b, r, time));
+    test.wells.push_back(std::move(w));
+  }
+  return test;
+}
+
+}  // namespace
+
+TEST_CASE("a leaky confining bed in the numerical model gives Hantush and Jacob's drawdowns",
+          "[numerical_well_test]") {
+  // T = 350 m2/d, S = 2e-4, K'/b' = 5e-4 1/d: B = sqrt(T b' / K') = 837 m, r/B = 0.03 and
+  // 0.096 at the wells, the drawdown levelling off within the test (Hantush and Jacob, 1955).
+  const double t = 350.0, s = 2e-4, leakance = 5e-4;
+  PumpingTest test = hantush_jacob_test(t, s, leakance);
+  test.leakance = TestLeakance{true, 0.0};
+  REQUIRE(numerical_parameter_names(test) ==
+          std::vector<std::string>{"transmissivity", "storativity", "leakance"});
+  const Model m = numerical_test_model(test, {t, s, leakance}, t, s);
+  REQUIRE(m.external_heads.size() == 1);
+  // Measured 0.94 % of Q / (4 pi T); the budget of the confined model, 1 %.
+  CHECK(worst_drawdown_error(test, m) < 0.01 * 1200.0 / (4.0 * std::numbers::pi * t));
+  // Fitted from a start a factor 2, 5 and 4 away.
+  const ModelFit fit =
+      fit_numerical_pumping_test(test, {700.0, 1e-3, 2e-3}, {1.0, 1e-7, 1e-8}, {1e5, 0.5, 1.0});
+  // Measured T +0.16 %, S -0.39 %, K'/b' -0.18 % (7 runs after 30 coarse ones).
+  CHECK(fit.fit.converged);
+  CHECK(fit.fit.parameters[0] == Approx(t).epsilon(0.01));
+  CHECK(fit.fit.parameters[1] == Approx(s).epsilon(0.01));
+  CHECK(fit.fit.parameters[2] == Approx(leakance).epsilon(0.01));
+}
+
+TEST_CASE(
+    "the pumped well's casing storage in the numerical model gives Papadopulos and Cooper's "
+    "drawdowns",
+    "[numerical_well_test]") {
+  // Papadopulos and Cooper (1967), the project's papadopulos_cooper_drawdown (Stehfest
+  // inversion, checked against its early and late limits in test_well_test_models.cpp):
+  // T = 50 m2/d, S = 1e-4, r_w = 0.2 m, r_c = 0.3 m, 500 m3/d; the casing supplies most of the
+  // rate until about 250 r_c^2 / T = 0.45 d.
+  const double t = 50.0, s = 1e-4, rw = 0.2, rc = 0.3;
+  PumpingTest test;
+  test.schedule = {{0.0, 500.0}};
+  test.pumped_well = PumpedWellRadii{rw, rc};
+  for (double r : {5.0, 20.0}) {
+    ObservationSeries w;
+    w.name = "well at " + std::to_string(r);
+    w.distance = r;
+    for (int i = 0; i < 24; ++i) w.times.push_back(std::pow(10.0, -3.0 + 3.0 * i / 23.0));
+    for (double time : w.times)
+      w.drawdowns.push_back(papadopulos_cooper_drawdown(500.0, t, s, rw, rc, r, time));
+    test.wells.push_back(std::move(w));
+  }
+  const Model m = numerical_test_model(test, {t, s}, t, s);
+  // Measured 1.9 % of Q / (4 pi T), late at 5 m: the well's cell is 5 r_w = 0.2 of the
+  // nearest distance wide there (the confined budget's share of a quarter is 2.4 %).
+  CHECK(worst_drawdown_error(test, m) < 0.02 * 500.0 / (4.0 * std::numbers::pi * t));
 }
