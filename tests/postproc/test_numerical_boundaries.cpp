@@ -21,16 +21,17 @@ namespace {
 constexpr double bounded_rate = 1200.0;  // m3/d
 
 /// An observation well at `distance` (m) and `bearing` (degrees clockwise from north) with
-/// 24 times log-spaced over 3 decades to 1 d after the start of pumping (and after its end
-/// when there is a recovery to 2 d).
-ObservationSeries bounded_well(double distance, double bearing, const PumpingTest& test) {
+/// `count` times log-spaced from `decades` decades before 1 d to 1 d after the start of each
+/// rate step.
+ObservationSeries bounded_well(double distance, double bearing, const PumpingTest& test,
+                               double decades = 3.0, int count = 24) {
   ObservationSeries w;
   w.name = std::to_string(distance) + " m at " + std::to_string(bearing);
   w.distance = distance;
   w.bearing = bearing;
   for (const RateStep& step : test.schedule)
-    for (int i = 0; i < 24; ++i)
-      w.times.push_back(step.start + std::pow(10.0, -3.0 + 3.0 * i / 23.0));
+    for (int i = 0; i < count; ++i)
+      w.times.push_back(step.start + std::pow(10.0, -decades + decades * i / (count - 1.0)));
   return w;
 }
 
@@ -123,12 +124,12 @@ TEST_CASE("two perpendicular lines: images of images, the numerical model within
 TEST_CASE("noise-free drawdowns beside a barrier fitted by the numerical model to 1 %",
           "[numerical_boundaries]") {
   // Theis (1935) with the barrier's image (Ferris et al., 1962), T = 350 m2/d, S = 2e-4, from
-  // a start a factor 2 and 5 away.
+  // a start a factor 2 and 5 away; 2 decades of data (fewer time steps keep the test short).
   const double t = 350.0, s = 2e-4;
   PumpingTest test;
   test.schedule = {{0.0, bounded_rate}};
   test.lines.push_back({TestLineKind::barrier, 150.0, 90.0});
-  test.wells = {bounded_well(25.0, 90.0, test), bounded_well(80.0, 180.0, test)};
+  test.wells = {bounded_well(25.0, 90.0, test, 2.0, 16), bounded_well(80.0, 180.0, test, 2.0, 16)};
   fill_with_images(test, t, s, {{300.0, 0.0, false}});
   const ModelFit fit = fit_numerical_pumping_test(test, {700.0, 1e-3}, {1.0, 1e-7}, {1e5, 0.5});
   CHECK(fit.fit.converged);
@@ -136,7 +137,6 @@ TEST_CASE("noise-free drawdowns beside a barrier fitted by the numerical model t
   CHECK(fit.fit.parameters[1] == Approx(s).epsilon(0.01));
   CHECK(fit.description.find("half radial grid") != std::string::npos);
   CHECK(fit.description.find("a barrier at 150") != std::string::npos);
-  WARN(fit.description);
 }
 
 TEST_CASE(
@@ -176,13 +176,14 @@ TEST_CASE(
   CHECK(m.aquifer.specific_storage[far] == Approx(4.0 * m.aquifer.specific_storage[near]));
 
   SECTION("fitted: T and S of both zones to 1 %") {
-    const ModelFit fit = fit_numerical_pumping_test(test, {700.0, 5e-4, 700.0, 5e-4},
+    // From a start a factor 1.4 to 1.5 away on each side, on all 3 decades (with only the
+    // last 2, measured: S1 -1.1 %, the early data are what set S1 apart from the zone).
+    const ModelFit fit = fit_numerical_pumping_test(test, {500.0, 3e-4, 2000.0, 1.2e-3},
                                                     {1.0, 1e-7, 1.0, 1e-7}, {1e5, 0.5, 1e5, 0.5});
     CHECK(fit.fit.converged);
     CHECK(fit.fit.parameters[0] == Approx(t1).epsilon(0.01));
     CHECK(fit.fit.parameters[1] == Approx(s1).epsilon(0.01));
     CHECK(fit.fit.parameters[2] == Approx(t2).epsilon(0.01));
     CHECK(fit.fit.parameters[3] == Approx(s2).epsilon(0.01));
-    WARN(fit.description);
   }
 }
