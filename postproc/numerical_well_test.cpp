@@ -6,8 +6,9 @@
 #include <numbers>
 #include <sstream>
 #include <stdexcept>
+#include <string_view>
 
-#include "mesh/quarter_radial_grid.hpp"
+#include "mesh/well_centred_grid.hpp"
 #include "postproc/parameter_estimation.hpp"
 
 namespace aquiledger {
@@ -44,6 +45,21 @@ double first_time_within(const PumpingTest& test, double from, double to) {
 /// confined, Sy for a water-table aquifer (p in numerical_parameter_names' order).
 double spreading_storage(const std::vector<double>& p) { return p[1]; }
 
+/// The place of `name` in numerical_parameter_names' order; names.size() when absent.
+std::size_t numerical_parameter_place(const std::vector<std::string>& names,
+                                      std::string_view name) {
+  return static_cast<std::size_t>(std::find(names.begin(), names.end(), name) - names.begin());
+}
+
+/// -, how much faster the cone spreads beyond a zone line than on the well's side: the larger
+/// ratio of the diffusivities T / S (1 without a zone line, or a slower zone beyond it).
+double zone_diffusivity_ratio(const PumpingTest& test, const std::vector<double>& p) {
+  const std::vector<std::string> names = numerical_parameter_names(test);
+  const std::size_t z0 = numerical_parameter_place(names, "transmissivity_beyond");
+  if (z0 == names.size()) return 1.0;
+  return std::max(1.0, (p[z0] / p[z0 + 1]) / (p[0] / spreading_storage(p)));
+}
+
 /// sqrt(2.25 T t / S) (L): the radius where the Cooper and Jacob (1946) line reaches zero.
 double radius_of_influence(double transmissivity, double storage, double time) {
   return std::sqrt(2.25 * transmissivity * time / storage);
@@ -77,14 +93,14 @@ EstimationSetup numerical_setup_at(const EstimationSetup& fit_setup, const Pumpi
 
 /// The storage of the pumped well's casing (Papadopulos and Cooper, 1967): the water level in
 /// a casing of radius r_c (L) falls with the aquifer's head at the well, so the well's cell
-/// stores pi r_c^2 more per unit head; the quarter grid's corner cell a quarter of it. Added
-/// to the cell's elastic storage (Ss times the thickness b, over the cell's area A) and, for
+/// stores pi r_c^2 more per unit head; the built cell its share (a quarter in a quarter grid).
+/// Added to the cell's elastic storage (Ss times the thickness b, over the cell's area A) and, for
 /// water-table and switching cells, to its specific yield, so that it acts at every head.
-void add_numerical_casing_storage(Model& m, CellIndex well_cell, double casing_radius,
+void add_numerical_casing_storage(Model& m, CellIndex well_cell, double share, double casing_radius,
                                   double thickness) {
   const auto c = static_cast<std::size_t>(well_cell.value);
   const double per_area =
-      0.25 * std::numbers::pi * casing_radius * casing_radius / m.grid.area(well_cell);
+      share * std::numbers::pi * casing_radius * casing_radius / m.grid.area(well_cell);
   if (m.aquifer.condition != Condition::water_table)
     m.aquifer.specific_storage[c] += per_area / thickness;
   if (!m.aquifer.specific_yield.empty()) m.aquifer.specific_yield[c] += per_area;
@@ -106,6 +122,125 @@ void add_numerical_leakage(Model& m, double source_head, double leakance) {
   m.external_heads.push_back(std::move(e));
 }
 
+/// The grid's frame: x points along the bearing of the first line's perpendicular (north when
+/// there is no line), y 90 degrees anticlockwise from x. A direction at bearing b (degrees
+/// clockwise from north) has the angle -(b - frame) anticlockwise from x.
+double numerical_frame_bearing(const PumpingTest& test) {
+  return test.lines.empty() ? 0.0 : test.lines.front().bearing;
+}
+
+/// The grid side (GridSideIndex) a line's perpendicular points to; throws for a line neither
+/// parallel nor perpendicular to the first.
+int numerical_line_side(const PumpingTest& test, const TestLine& line) {
+  const double turns = (line.bearing - numerical_frame_bearing(test)) / 90.0;
+  const double k = std::round(turns);
+  if (std::abs(turns - k) > 1e-9)
+    throw std::invalid_argument(
+        "numerical: straight lines must be parallel or perpendicular to each other (bearings "
+        "differing by a multiple of 90 degrees)");
+  // Clockwise quarter turns from x: 1 is -y (south), 2 is -x (west), 3 is +y (north).
+  static constexpr int side_of_turns[4] = {grid_east, grid_south, grid_west, grid_north};
+  return side_of_turns[((static_cast<int>(k) % 4) + 4) % 4];
+}
+
+/// The well's position (L) in the grid frame: (distance, 0) without a bearing.
+std::pair<double, double> numerical_well_position(const PumpingTest& test,
+                                                  const ObservationSeries& w) {
+  if (!w.bearing) {
+    if (!test.lines.empty())
+      throw std::invalid_argument("numerical: well \"" + w.name +
+                                  "\" needs a bearing when the test has straight lines");
+    return {w.distance, 0.0};
+  }
+  const double a = -(*w.bearing - numerical_frame_bearing(test)) * std::numbers::pi / 180.0;
+  const double x = w.distance * std::cos(a), y = w.distance * std::sin(a);
+  // Exactly on an axis when the bearing is (cos of a right angle is 6e-17, not 0).
+  return {std::abs(x) < 1e-12 * w.distance ? 0.0 : x, std::abs(y) < 1e-12 * w.distance ? 0.0 : y};
+}
+
+/// The zone line, if any: its side and distance.
+struct NumericalZoneLine {
+  int side = -1;
+  double distance = 0.0;
+};
+NumericalZoneLine numerical_zone_line(const PumpingTest& test) {
+  NumericalZoneLine z;
+  for (const TestLine& line : test.lines)
+    if (line.kind == TestLineKind::zone) {
+      if (z.side >= 0)
+        throw std::invalid_argument("numerical: at most one zone line is represented");
+      z = {numerical_line_side(test, line), line.distance};
+    }
+  return z;
+}
+
+/// True when the cell's centre lies beyond the zone line (in the second zone).
+bool numerical_cell_beyond_zone(const RectilinearGrid& grid, const NumericalZoneLine& zone,
+                                int cell) {
+  if (zone.side < 0) return false;
+  const RowCol rc = grid.row_col(CellIndex{cell});
+  const double x = grid.x_center(rc.col), y = grid.y_center(rc.row);
+  switch (zone.side) {
+    case grid_east:
+      return x > zone.distance;
+    case grid_west:
+      return x < -zone.distance;
+    case grid_north:
+      return y > zone.distance;
+    default:
+      return y < -zone.distance;
+  }
+}
+
+/// The grid of the test: the wells' positions as centres, each line on its side, an axis
+/// mirrored (a line of symmetry) where its two sides end alike and hold the same zone line.
+WellCentredGrid numerical_test_grid(const PumpingTest& test, double inner, double growth,
+                                    double extent) {
+  WellCentredGridSpec spec;
+  spec.inner = inner;
+  spec.growth = growth;
+  spec.extent = extent;
+  for (const TestLine& line : test.lines) {
+    GridSide& side = spec.sides[static_cast<std::size_t>(numerical_line_side(test, line))];
+    if (line.kind == TestLineKind::zone) {
+      side.faces.push_back(line.distance);
+      continue;
+    }
+    if (side.end != GridSideEnd::far)
+      throw std::invalid_argument(
+          "numerical: two parallel boundaries on the same side of the pumped well");
+    side.end = line.kind == TestLineKind::barrier ? GridSideEnd::barrier : GridSideEnd::recharge;
+    side.end_distance = line.distance;
+  }
+  const auto alike = [](const GridSide& a, const GridSide& b) {
+    return a.end == b.end && a.end_distance == b.end_distance && a.faces == b.faces;
+  };
+  spec.mirror_west = alike(spec.sides[grid_east], spec.sides[grid_west]);
+  spec.mirror_south = alike(spec.sides[grid_north], spec.sides[grid_south]);
+  for (const ObservationSeries& w : test.wells) {
+    auto [x, y] = numerical_well_position(test, w);
+    if (spec.mirror_west) x = std::abs(x);
+    if (spec.mirror_south) y = std::abs(y);
+    if (x != 0.0) spec.sides[x > 0.0 ? grid_east : grid_west].anchors.push_back(std::abs(x));
+    if (y != 0.0) spec.sides[y > 0.0 ? grid_north : grid_south].anchors.push_back(std::abs(y));
+  }
+  return well_centred_grid(spec);
+}
+
+/// L, how far the grid reaches from the well on its nearest far side (+inf when every side
+/// ends on a boundary).
+double numerical_far_reach(const RectilinearGrid& g, const PumpingTest& test) {
+  std::array<bool, 4> bounded{};
+  for (const TestLine& line : test.lines)
+    if (line.kind != TestLineKind::zone)
+      bounded[static_cast<std::size_t>(numerical_line_side(test, line))] = true;
+  const double reach[4] = {g.x_max(), g.y_max(), -g.x_min(), -g.y_min()};
+  double r = std::numeric_limits<double>::infinity();
+  for (int s = 0; s < 4; ++s)
+    if (!bounded[static_cast<std::size_t>(s)] && reach[s] > 0.0) r = std::min(r, reach[s]);
+  return r;
+}
+
 }  // namespace
 
 std::vector<std::string> numerical_parameter_names(const PumpingTest& test) {
@@ -121,6 +256,14 @@ std::vector<std::string> numerical_parameter_names(const PumpingTest& test) {
       names = {"transmissivity", "specific_yield"};
       break;
   }
+  // A zone line: T and the spreading storage beyond it (Sy of a switching aquifer is shared).
+  for (const TestLine& line : test.lines)
+    if (line.kind == TestLineKind::zone) {
+      const std::string storage = names[1];
+      names.push_back("transmissivity_beyond");
+      names.push_back(storage + "_beyond");
+      break;
+    }
   if (test.leakance && test.leakance->fitted) names.emplace_back("leakance");
   return names;
 }
@@ -143,28 +286,31 @@ Model numerical_test_model(const PumpingTest& test, const std::vector<double>& p
     if (!w.images.empty())
       throw std::invalid_argument("numerical: well \"" + w.name +
                                   "\" has a straight boundary (image_distance), which the "
-                                  "numerical model does not represent yet");
+                                  "numerical model takes as a [[boundary]] table instead");
     r_min = std::min(r_min, w.distance);
     r_max = std::max(r_max, w.distance);
   }
-  QuarterRadialGridSpec spec;
-  spec.inner = settings.inner_fraction * r_min;
+  const NumericalZoneLine zone = numerical_zone_line(test);
+  const std::vector<std::string> names = numerical_parameter_names(test);
+  const std::size_t z0 = numerical_parameter_place(names, "transmissivity_beyond");
+  const double extent =
+      std::max(settings.extent_factor *
+                   radius_of_influence(grid_transmissivity * zone_diffusivity_ratio(test, p),
+                                       grid_storativity, length),
+               2.0 * r_max);
   // With the casing's storage the well's cell stands for the well: a square cell's head is
   // that of a radius 0.198 of its width (Peaceman, 1978, SPE J. 18(3), from memory), set to
   // r_w, so the casing's level follows the aquifer's head at r_w.
-  if (numerical_casing_storage(test)) spec.inner = test.pumped_well.well / 0.198;
-  spec.growth = settings.width_growth;
-  for (const ObservationSeries& w : test.wells) spec.anchors.push_back(w.distance);
-  spec.extent = std::max(
-      settings.extent_factor * radius_of_influence(grid_transmissivity, grid_storativity, length),
-      2.0 * r_max);
+  const double inner = numerical_casing_storage(test) ? test.pumped_well.well / 0.198
+                                                      : settings.inner_fraction * r_min;
+  WellCentredGrid geometry = numerical_test_grid(test, inner, settings.width_growth, extent);
 
   Model m;
   m.title =
       "numerical model of " + (test.title.empty() ? std::string("a pumping test") : test.title);
   m.length_unit = test.length_unit;
   m.time_unit = test.time_unit;
-  m.grid = quarter_radial_grid(spec);
+  m.grid = geometry.grid;
   const auto n = static_cast<std::size_t>(m.grid.n_cells());
   Aquifer& a = m.aquifer;
   double top = 0.0, bottom = -1.0, head = 0.0;  // confined: a unit thickness, K = T, Ss = S
@@ -174,30 +320,39 @@ Model numerical_test_model(const PumpingTest& test, const std::vector<double>& p
     head = test.aquifer->static_level;
   }
   const double thickness = test.aquifer ? test.aquifer->thickness() : 1.0;
-  const double k = p[0] / thickness;
   a.condition = kind == NumericalAquiferKind::confined    ? Condition::confined
                 : kind == NumericalAquiferKind::switching ? Condition::switching
                                                           : Condition::water_table;
   a.top.assign(n, top);
   a.bottom.assign(n, bottom);
-  a.kx.assign(n, k);
-  a.ky.assign(n, k);
+  a.kx.assign(n, 0.0);
+  a.ky.assign(n, 0.0);
+  a.specific_storage.assign(n, 0.0);
+  if (kind != NumericalAquiferKind::confined)
+    a.specific_yield.assign(n, p[numerical_parameter_place(names, "specific_yield")]);
   for (int row = 0; row < m.grid.n_rows(); ++row)
     for (int col = 0; col < m.grid.n_cols(); ++col) {
-      const auto c = static_cast<std::size_t>(m.grid.cell(row, col).value);
-      a.kx[c] = k * quarter_radial_x_factor(m.grid, col);
-      a.ky[c] = k * quarter_radial_y_factor(m.grid, row);
+      const int cell = m.grid.cell(row, col).value;
+      const auto c = static_cast<std::size_t>(cell);
+      const bool beyond = numerical_cell_beyond_zone(m.grid, zone, cell);
+      const double k = (beyond ? p[z0] : p[0]) / thickness;
+      const double storage = beyond ? p[z0 + 1] : p[1];
+      a.kx[c] = k * geometry.x_factor[static_cast<std::size_t>(col)];
+      a.ky[c] = k * geometry.y_factor[static_cast<std::size_t>(row)];
+      if (kind == NumericalAquiferKind::water_table)
+        a.specific_yield[c] = storage;
+      else
+        a.specific_storage[c] = storage / thickness;
     }
-  const double elastic = kind == NumericalAquiferKind::water_table ? 0.0 : p[1] / thickness;
-  a.specific_storage.assign(n, elastic);
-  if (kind != NumericalAquiferKind::confined)
-    a.specific_yield.assign(n, p[kind == NumericalAquiferKind::switching ? 2 : 1]);
   m.initial.head.assign(n, head);
-  const CellIndex well_cell = m.grid.cell(m.grid.n_rows() - 1, 0);
+  const CellIndex well_cell = m.grid.cell(geometry.well_row, geometry.well_col);
   if (numerical_casing_storage(test))
-    add_numerical_casing_storage(m, well_cell, test.pumped_well.casing, thickness);
+    add_numerical_casing_storage(m, well_cell, geometry.rate_share, test.pumped_well.casing,
+                                 thickness);
   if (test.leakance)
-    add_numerical_leakage(m, head, test.leakance->fitted ? p.back() : test.leakance->value);
+    add_numerical_leakage(m, head,
+                          test.leakance->fitted ? p[numerical_parameter_place(names, "leakance")]
+                                                : test.leakance->value);
 
   // One stress period per rate step that begins before the last drawdown.
   std::vector<std::vector<double>> rates;
@@ -217,23 +372,40 @@ Model numerical_test_model(const PumpingTest& test, const std::vector<double>& p
         static_cast<int>(std::ceil(std::log1p((end - begin) * (g - 1.0) / dt1) / std::log(g))), 1,
         settings.max_steps_per_period);
     m.periods.push_back(Period{"rate step " + std::to_string(i + 1), end - begin, steps, g, false});
-    // A quarter of the rate: the corner cell is a quarter of the well's cell.
-    rates.push_back({0.25 * test.schedule[i].rate});
+    // The share of the rate of the well's cell (a quarter in a quarter grid).
+    rates.push_back({geometry.rate_share * test.schedule[i].rate});
     table_of_period.push_back(static_cast<std::uint32_t>(rates.size() - 1));
   }
   m.wells.push_back(Well{"pumped well", 0.0, 0.0, well_cell,
                          PeriodValues(std::move(rates), std::move(table_of_period))});
-  // Each well on the x axis at its distance: on the grid's south edge, beyond the centres of
-  // the first row, so its head is interpolated along that row only (ObservationSampler),
-  // whose centres lie where the whole grid's centres on the line through the well lie; the
-  // columns are built with a centre at each well's distance (the anchors above), so no
-  // interpolation error enters unless two wells lie within a cell of each other.
+  if (!geometry.fixed_cells.empty())  // recharge lines: the static level on the line
+    m.fixed_heads.push_back(
+        FixedHead{"recharge boundary", std::move(geometry.fixed_cells), PeriodValues(head)});
+  // Each well at its position, reflected onto the built part across a line of symmetry: on
+  // the axis it lies on the grid's edge, beyond the centres of the first row (column), so its
+  // head is interpolated along that row only (ObservationSampler), whose centres lie where the
+  // whole grid's centres on the line through the well lie; the columns and rows are built
+  // with a centre at each well's coordinates (the anchors), so no interpolation error enters
+  // unless two wells lie within a cell of each other.
   for (const ObservationSeries& w : test.wells) {
+    auto [x, y] = numerical_well_position(test, w);
+    if (m.grid.x_min() == 0.0) x = std::abs(x);
+    if (m.grid.y_min() == 0.0) y = std::abs(y);
     Observation o;
     o.name = w.name;
-    o.x = w.distance;
-    o.y = 0.0;
-    o.cell = *m.grid.locate(o.x, o.y);
+    o.x = x;
+    o.y = y;
+    const std::optional<CellIndex> cell = m.grid.locate(o.x, o.y);
+    const auto fixed = [&](CellIndex c) {
+      for (const FixedHead& f : m.fixed_heads)
+        for (CellIndex fc : f.cells)
+          if (fc.value == c.value) return true;
+      return false;
+    };
+    if (!cell || fixed(*cell))
+      throw std::invalid_argument("numerical: well \"" + w.name +
+                                  "\" lies on or beyond a straight boundary");
+    o.cell = *cell;
     m.observations.push_back(std::move(o));
   }
   m.output.fields = FieldCadence::none;
@@ -248,24 +420,37 @@ EstimationSetup numerical_test_setup(const PumpingTest& test, const Model& model
   EstimationSetup setup;
   const std::vector<int> cells = every_numerical_cell(model);
   const std::vector<std::string> names = numerical_parameter_names(test);
+  const NumericalZoneLine zone = numerical_zone_line(test);
+  const std::size_t sy = numerical_parameter_place(names, "specific_yield");
+  const bool sy_shared = sy != names.size() &&
+                         numerical_parameter_place(names, "specific_yield_beyond") == names.size();
   // The casing's storage is the well's, not the aquifer's: the storage multipliers leave the
-  // well's cell out (its aquifer storage, S or Sy times a cell of (inner / 2)^2, then stays
-  // at the model's value; docs/pumping-tests.md, "Well-bore storage").
-  std::vector<int> storage_cells = cells;
-  if (numerical_casing_storage(test))
-    std::erase(storage_cells, model.grid.cell(model.grid.n_rows() - 1, 0).value);
+  // well's cell out (its aquifer storage, S or Sy times the cell's area, then stays at the
+  // model's value; docs/pumping-tests.md, "Well-bore storage").
+  const int well_cell = model.wells.front().cell.value;
   for (std::size_t j = 0; j < names.size(); ++j) {
     EstimatedParameter e;
     e.parameter.name = names[j];
-    e.parameter.property = names[j] == "transmissivity" ? ParameterProperty::conductivity
-                           : names[j] == "storativity"  ? ParameterProperty::specific_storage
-                           : names[j] == "leakance"     ? ParameterProperty::external_conductance
-                                                        : ParameterProperty::specific_yield;
+    e.parameter.property = names[j].starts_with("transmissivity") ? ParameterProperty::conductivity
+                           : names[j].starts_with("storativity")
+                               ? ParameterProperty::specific_storage
+                           : names[j] == "leakance" ? ParameterProperty::external_conductance
+                                                    : ParameterProperty::specific_yield;
     e.parameter.form = ParameterForm::multiplier;
-    if (names[j] == "leakance")
+    if (names[j] == "leakance") {
       e.parameter.features = {0};
-    else
-      e.parameter.cells = names[j] == "transmissivity" ? cells : storage_cells;
+    } else {
+      // Beyond a zone line the *_beyond parameters, on this side the others; Sy of a switching
+      // aquifer (no specific_yield_beyond) on every cell.
+      const bool beyond = names[j].ends_with("_beyond");
+      const bool storage = !names[j].starts_with("transmissivity");
+      for (int c : cells) {
+        if (storage && numerical_casing_storage(test) && c == well_cell) continue;
+        if (zone.side < 0 || (j == sy && sy_shared) ||
+            numerical_cell_beyond_zone(model.grid, zone, c) == beyond)
+          e.parameter.cells.push_back(c);
+      }
+    }
     e.start = 1.0;
     e.lower = std::min(lower_over_start[j], 1.0);
     e.upper = std::max(upper_over_start[j], 1.0);
@@ -379,7 +564,7 @@ ModelFit fit_numerical_pumping_test(const PumpingTest& test, const std::vector<d
     const EstimationResult& est = fine.est;
     const std::vector<double>& p = fine.p;
     const double needed = fine.needed;
-    const double reached = base.grid.x_max();
+    const double reached = numerical_far_reach(base.grid, test);
     ModelFit out;
     out.model = WellTestModel::numerical;
     out.parameter_names = names;
@@ -430,13 +615,26 @@ ModelFit fit_numerical_pumping_test(const PumpingTest& test, const std::vector<d
     d.precision(4);
     int steps = 0;
     for (const Period& per : base.periods) steps += per.steps;
-    d << "quarter radial grid of " << base.grid.n_cols() << " x " << base.grid.n_rows()
-      << " cells, the well's cell " << 2.0 * base.grid.dx(0) << " " << test.length_unit
-      << " wide, widths growing by " << settings.width_growth << " to " << reached << " "
-      << test.length_unit << " (" << reached / (needed / settings.extent_factor)
-      << " radii of influence of the fitted values); " << steps << " time steps in "
-      << base.periods.size() << " rate step(s), growing by " << settings.step_growth << "; "
-      << fine.n_model_runs << " model runs with sensitivities";
+    const RectilinearGrid& g = base.grid;
+    const RowCol well = g.row_col(*g.locate(0.0, 0.0));
+    const int halves = (g.x_min() == 0.0 ? 1 : 0) + (g.y_min() == 0.0 ? 1 : 0);
+    d << (halves == 2   ? "quarter"
+          : halves == 1 ? "half"
+                        : "whole")
+      << " radial grid of " << g.n_cols() << " x " << g.n_rows() << " cells, the well's cell "
+      << (g.x_min() == 0.0 ? 2.0 : 1.0) * g.dx(well.col) << " " << test.length_unit
+      << " wide, widths growing by " << settings.width_growth;
+    for (const TestLine& line : test.lines)
+      d << (line.kind == TestLineKind::barrier    ? ", a barrier at "
+            : line.kind == TestLineKind::recharge ? ", a recharge line at "
+                                                  : ", a zone line at ")
+        << line.distance << " " << test.length_unit << " bearing " << line.bearing;
+    if (std::isfinite(reached))
+      d << ", far edges at " << reached << " " << test.length_unit << " ("
+        << reached / (needed / settings.extent_factor)
+        << " radii of influence of the fitted values)";
+    d << "; " << steps << " time steps in " << base.periods.size() << " rate step(s), growing by "
+      << settings.step_growth << "; " << fine.n_model_runs << " model runs with sensitivities";
     if (coarse_runs > 0)
       d << ", after " << coarse_runs << " on a coarse model (steps growing by "
         << coarse_numerical_settings(settings).step_growth << ", cells by "

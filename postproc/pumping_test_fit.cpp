@@ -117,6 +117,10 @@ std::vector<WellTestModel> automatic_candidates() {
 }
 
 ModelFit fit_pumping_test(const PumpingTest& test, WellTestModel model) {
+  if (!test.lines.empty() && model != WellTestModel::numerical)
+    throw std::invalid_argument(
+        "the [[boundary]] lines are represented by the numerical model only (-m numerical); "
+        "the closed forms take one straight boundary as a well's boundary and image_distance");
   if (model == WellTestModel::papadopulos_cooper) {
     if (!(test.pumped_well.well > 0.0 && test.pumped_well.casing > 0.0))
       throw std::invalid_argument(

@@ -18,6 +18,9 @@ struct ObservationSeries {
   double distance = 0.0;          ///< L, radial distance from the pumped well
   double radius = 0.0;            ///< L, well radius (0 when not given)
   std::vector<ImageWell> images;  ///< straight boundaries seen from this well
+  /// Degrees clockwise from north of the well seen from the pumped well; needed (by the
+  /// numerical model) when the test has straight lines (PumpingTest::lines).
+  std::optional<double> bearing;
   std::vector<double> times;      ///< T since the start of the test, increasing
   std::vector<double> drawdowns;  ///< L, positive downwards
 };
@@ -45,6 +48,22 @@ struct TestLeakance {
   double value = 0.0;  ///< 1/T, K' / b' of the confining bed when held
 };
 
+/// What a straight line in the aquifer is ([[boundary]] of the test file).
+enum class TestLineKind {
+  barrier,   ///< no flow across the line
+  recharge,  ///< the head stays at the static level on the line
+  zone,      ///< beyond the line the aquifer has its own T and S (fitted)
+};
+
+/// A straight line in the aquifer, for the numerical model: lines are parallel or
+/// perpendicular to each other, at most one zone line, the wells on the pumped well's side of
+/// every barrier and recharge line.
+struct TestLine {
+  TestLineKind kind = TestLineKind::barrier;
+  double distance = 0.0;  ///< L, from the pumped well to the line, perpendicular to it
+  double bearing = 0.0;   ///< degrees clockwise from north of that perpendicular
+};
+
 /// A pumping test as read from its file.
 struct PumpingTest {
   std::string title;
@@ -56,6 +75,8 @@ struct PumpingTest {
   std::optional<TestAquiferGeometry> aquifer;
   std::optional<TestLeakance> leakance;  ///< the numerical model's leakage, when given
   std::vector<ObservationSeries> wells;
+  /// Straight boundaries and zone lines ([[boundary]]), used by the numerical model only.
+  std::vector<TestLine> lines;
   int n_observations() const;
 };
 

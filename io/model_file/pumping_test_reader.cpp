@@ -2,6 +2,7 @@
 #include "io/model_file/pumping_test_reader.hpp"
 
 #include <cmath>
+#include <numbers>
 #include <sstream>
 
 #include "io/files/calendar.hpp"
@@ -308,7 +309,7 @@ void read_wells(ReaderContext& ctx, const toml::table& root, PumpingTest& test,
     const std::string path = feature_path("well", t, i);
     check_keys(ctx, t, path,
                {"name", "distance", "radius", "times", "drawdowns", "water_levels", "static_level",
-                "series", "boundary", "image_distance"});
+                "series", "boundary", "image_distance", "bearing"});
     ObservationSeries w;
     w.name = read_string(ctx, t, "name", path, false).value_or("well " + std::to_string(i + 1));
     check_unique_name(ctx, t, path, w.name, names);
@@ -325,6 +326,14 @@ void read_wells(ReaderContext& ctx, const toml::table& root, PumpingTest& test,
         ctx.error(*t.get("radius"), path + ".radius",
                   "expected a radius > 0 " + ctx.length_unit + ", found " + show_number(*radius));
       w.radius = *radius;
+    }
+    if (auto bearing = read_number(ctx, t, "bearing", path, false)) {
+      if (!(*bearing >= 0.0 && *bearing < 360.0))
+        ctx.error(*t.get("bearing"), path + ".bearing",
+                  "expected degrees clockwise from north, 0 <= bearing < 360, found " +
+                      show_number(*bearing));
+      else
+        w.bearing = *bearing;
     }
     if (auto kind = read_choice(ctx, t, "boundary", path, {"barrier", "recharge"})) {
       auto image = read_number(ctx, t, "image_distance", path, true);
@@ -405,6 +414,104 @@ void read_wells(ReaderContext& ctx, const toml::table& root, PumpingTest& test,
   }
 }
 
+/// [[boundary]]: straight lines in the aquifer for the numerical model (docs/pumping-tests.md,
+/// "Straight lines and zones"): kind, distance and bearing of the perpendicular from the
+/// pumped well. Lines parallel or perpendicular to each other, one zone line at most, one
+/// barrier or recharge line per direction.
+void read_test_lines(ReaderContext& ctx, const toml::table& root, PumpingTest& test) {
+  const toml::array* arr = section_tables(ctx, root, "boundary");
+  if (!arr) return;
+  bool zone_seen = false;
+  for (std::size_t i = 0; i < arr->size(); ++i) {
+    const toml::table& t = *(*arr)[i].as_table();
+    const std::string path = "[[boundary]] #" + std::to_string(i + 1);
+    check_keys(ctx, t, path, {"kind", "distance", "bearing"});
+    const auto kind = read_choice(ctx, t, "kind", path, {"barrier", "recharge", "zone"});
+    if (!kind && !t.get("kind"))
+      ctx.error(t, path + ".kind", "missing: give kind = \"barrier\", \"recharge\" or \"zone\"");
+    const auto distance = read_number(ctx, t, "distance", path, true);
+    const auto bearing = read_number(ctx, t, "bearing", path, true);
+    if (distance && !(*distance > 0.0)) {
+      ctx.error(*t.get("distance"), path + ".distance",
+                "expected the distance > 0 " + ctx.length_unit +
+                    " from the pumped well to the line, found " + show_number(*distance));
+      continue;
+    }
+    if (bearing && !(*bearing >= 0.0 && *bearing < 360.0)) {
+      ctx.error(*t.get("bearing"), path + ".bearing",
+                "expected degrees clockwise from north of the perpendicular from the pumped "
+                "well to the line, 0 <= bearing < 360, found " +
+                    show_number(*bearing));
+      continue;
+    }
+    if (!kind || !distance || !bearing) continue;
+    TestLine line;
+    line.kind = *kind == "barrier"    ? TestLineKind::barrier
+                : *kind == "recharge" ? TestLineKind::recharge
+                                      : TestLineKind::zone;
+    line.distance = *distance;
+    line.bearing = *bearing;
+    if (line.kind == TestLineKind::zone && zone_seen) {
+      ctx.error(*t.get("kind"), path + ".kind", "only one zone line is represented");
+      continue;
+    }
+    if (!test.lines.empty()) {
+      const double turns = (line.bearing - test.lines.front().bearing) / 90.0;
+      if (std::abs(turns - std::round(turns)) > 1e-9) {
+        ctx.error(*t.get("bearing"), path + ".bearing",
+                  "expected a line parallel or perpendicular to the first [[boundary]] "
+                  "(bearings differing by a multiple of 90 degrees), found " +
+                      show_number(line.bearing));
+        continue;
+      }
+    }
+    bool taken = false;
+    for (const TestLine& other : test.lines)
+      taken |= line.kind != TestLineKind::zone && other.kind != TestLineKind::zone &&
+               other.bearing == line.bearing;
+    if (taken) {
+      ctx.error(*t.get("bearing"), path + ".bearing",
+                "a barrier or recharge line lies already in this direction; give the nearest "
+                "one only");
+      continue;
+    }
+    zone_seen |= line.kind == TestLineKind::zone;
+    test.lines.push_back(line);
+  }
+}
+
+/// With [[boundary]] lines every well needs its bearing and must lie on the pumped well's side
+/// of each barrier and recharge line.
+void check_wells_within_lines(ReaderContext& ctx, const toml::table& root,
+                              const PumpingTest& test) {
+  const toml::array* arr = root.get_as<toml::array>("well");
+  if (test.lines.empty() || !arr) return;
+  for (std::size_t i = 0; i < arr->size() && i < test.wells.size(); ++i) {
+    const toml::table* t = (*arr)[i].as_table();
+    if (!t) continue;
+    const ObservationSeries& w = test.wells[i];
+    const std::string path = feature_path("well", *t, i);
+    if (!w.bearing) {
+      if (!t->get("bearing"))
+        ctx.error(*t, path + ".bearing",
+                  "missing: with [[boundary]] lines give each well's bearing (degrees "
+                  "clockwise from north, seen from the pumped well)");
+      continue;
+    }
+    for (const TestLine& line : test.lines) {
+      if (line.kind == TestLineKind::zone) continue;
+      const double along =
+          w.distance * std::cos((*w.bearing - line.bearing) * std::numbers::pi / 180.0);
+      if (along >= line.distance)
+        ctx.error(*t->get("bearing"), path + ".bearing",
+                  "the well lies " + show_number(along) + " " + ctx.length_unit +
+                      " toward the line at " + show_number(line.distance) + " " + ctx.length_unit +
+                      " (bearing " + show_number(line.bearing) +
+                      "): on or beyond it; wells must lie on the pumped well's side");
+    }
+  }
+}
+
 }  // namespace
 
 std::vector<std::string> pumping_test_model_names() {
@@ -436,7 +543,8 @@ PumpingTestReadResult read_pumping_test_text(std::string_view toml_text,
   PumpingTestReadResult result;
   try {
     const toml::table root = toml::parse(toml_text, as_if_path.string());
-    check_keys(ctx, root, "(top level)", {"test", "pumped_well", "aquifer", "pumping", "well"});
+    check_keys(ctx, root, "(top level)",
+               {"test", "pumped_well", "aquifer", "pumping", "well", "boundary"});
     PumpingTest test;
     TestClock clock;
     read_test_section(ctx, root, test, result, clock);
@@ -444,6 +552,8 @@ PumpingTestReadResult read_pumping_test_text(std::string_view toml_text,
     read_test_aquifer(ctx, root, test);
     read_schedule(ctx, root, test, clock);
     read_wells(ctx, root, test, clock);
+    read_test_lines(ctx, root, test);
+    check_wells_within_lines(ctx, root, test);
     if (!ctx.diagnostics.has_errors()) result.test = std::move(test);
   } catch (const toml::parse_error& e) {
     ctx.error(ctx.spot(e.source()), "", "TOML syntax: " + std::string(e.description()));

@@ -328,3 +328,80 @@ TEST_CASE("the leakance of a leaky confining bed for the numerical model",
     expect_error(t, "[aquifer].leakance", line_of(t, "leakance = \"fit\""), "confined aquifer");
   }
 }
+
+TEST_CASE("straight lines ([[boundary]]) and well bearings for the numerical model",
+          "[pumping_test_reader]") {
+  const std::string bearings =
+      replace(replace(good, "distance = 12.0", "distance = 12.0\nbearing = 90.0"),
+              "distance = 30.0", "distance = 30.0\nbearing = 315");
+  const std::string lines = bearings +
+                            "\n[[boundary]]\nkind = \"barrier\"\ndistance = 40.0\nbearing = 90.0\n"
+                            "\n[[boundary]]\nkind = \"recharge\"\ndistance = 55.0\nbearing = 0.0\n"
+                            "\n[[boundary]]\nkind = \"zone\"\ndistance = 20.0\nbearing = 270.0\n";
+  {
+    const PumpingTestReadResult r = read_pumping_test_text(lines, "/invented/test.toml");
+    REQUIRE(r.test.has_value());
+    REQUIRE(r.test->lines.size() == 3);
+    CHECK(r.test->lines[0].kind == TestLineKind::barrier);
+    CHECK(r.test->lines[1].kind == TestLineKind::recharge);
+    CHECK(r.test->lines[2].kind == TestLineKind::zone);
+    CHECK(r.test->lines[1].distance == 55.0);
+    CHECK(r.test->lines[2].bearing == 270.0);
+    CHECK(r.test->wells[0].bearing == 90.0);
+    CHECK(r.test->wells[1].bearing == 315.0);
+  }
+  {  // the files without lines or bearings stay as they were
+    const PumpingTestReadResult r = read_pumping_test_text(good, "/invented/test.toml");
+    REQUIRE(r.test.has_value());
+    CHECK(r.test->lines.empty());
+    CHECK_FALSE(r.test->wells[0].bearing.has_value());
+  }
+  {
+    const std::string t = replace(lines, "kind = \"barrier\"", "kind = \"wall\"");
+    expect_error(t, "[[boundary]] #1.kind", line_of(t, "kind = \"wall\""), "allowed:");
+  }
+  {
+    const std::string t = replace(lines, "distance = 40.0", "distance = 0.0");
+    expect_error(t, "[[boundary]] #1.distance", line_of(t, "distance = 0.0"), "distance > 0");
+  }
+  {
+    const std::string t = replace(lines, "bearing = 0.0", "bearing = 30.0");
+    expect_error(t, "[[boundary]] #2.bearing", line_of(t, "bearing = 30.0"),
+                 "parallel or perpendicular");
+  }
+  {
+    const std::string t = replace(lines, "bearing = 0.0", "bearing = 360.0");
+    expect_error(t, "[[boundary]] #2.bearing", line_of(t, "bearing = 360.0"), "0 <= bearing");
+  }
+  {
+    const std::string t = replace(lines, "kind = \"recharge\"", "kind = \"zone\"");
+    expect_error(t, "[[boundary]] #3.kind", line_of(t, "kind = \"zone\"\ndistance = 20.0"),
+                 "only one zone line");
+  }
+  {
+    const std::string t =
+        replace(lines, "distance = 55.0\nbearing = 0.0", "distance = 55.0\nbearing = 90.0");
+    expect_error(t, "[[boundary]] #2.bearing", line_of(t, "distance = 55.0") + 1,
+                 "already in this direction");
+  }
+  {  // a well beyond the barrier (12 m toward a line at 10 m)
+    const std::string t = replace(lines, "distance = 40.0", "distance = 10.0");
+    expect_error(t, "[[well]] \"east piezometer\".bearing", line_of(t, "bearing = 90.0"),
+                 "on or beyond it");
+  }
+  {
+    const std::string t = replace(lines, "bearing = 315", "");
+    expect_error(t, "[[well]] \"west piezometer\".bearing", line_of(t, "[[well]]\nname = \"west"),
+                 "missing");
+  }
+  {
+    const std::string t =
+        replace(lines, "distance = 12.0\nbearing = 90.0", "distance = 12.0\nbearing = -90.0");
+    expect_error(t, "[[well]] \"east piezometer\".bearing", line_of(t, "bearing = -90.0"),
+                 "0 <= bearing");
+  }
+  {
+    const std::string t = replace(lines, "kind = \"zone\"", "kind = \"zone\"\nwidth = 3.0");
+    expect_error(t, "[[boundary]] #3.width", line_of(t, "width = 3.0"), "");
+  }
+}

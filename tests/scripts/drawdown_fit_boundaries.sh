@@ -1,0 +1,80 @@
+#!/usr/bin/env bash
+# `aquiledger drawdown-fit` with [[boundary]] lines: noise-free drawdowns beside a barrier
+# 60 m east and a recharge line 90 m south of the pumped well, computed here as Theis (1935)
+# with scipy.special.exp1 plus the image wells of the method of images (Ferris et al., 1962,
+# USGS Water-Supply Paper 1536-E): (120, 0) for the barrier (+), (0, -180) for the recharge
+# line (-), and (120, -180), the image of each image (sign the product, -). T = 120 m2/d,
+# S = 5e-4, Q = 800 m3/d for 1 d, wells at 15 m bearing 45 and 40 m bearing 270, 3 decades.
+# With AQUILEDGER_SLOW_TESTS set, the numerical model gives T and S back within 1 %
+# (docs/pumping-tests.md, "Straight lines and zones") and the description names the whole
+# grid and the lines. Always: a closed form refuses the lines, and a well beyond the barrier
+# is refused with file, line and key, nothing written.
+#   bash drawdown_fit_boundaries.sh <aquiledger> <source-dir>
+set -euo pipefail
+exe=${1:?usage: drawdown_fit_boundaries.sh <aquiledger> <source-dir>}
+out=$(mktemp -d)
+trap 'rm -rf "$out"' EXIT
+fail() { echo "FAIL: $*"; exit 1; }
+if ! /usr/bin/python3 -c "import scipy.special" 2> /dev/null; then
+  echo "SKIPPED: /usr/bin/python3 has no scipy (Debian's python3-scipy)"
+  exit 0
+fi
+
+/usr/bin/python3 - "$out/test.toml" <<'PY'
+import math, sys
+from scipy.special import exp1
+T, S, Q = 120.0, 5.0e-4, 800.0
+times = [10 ** (-3 + 3 * i / 23) for i in range(24)]
+images = [(120.0, 0.0, 1.0), (0.0, -180.0, -1.0), (120.0, -180.0, -1.0)]
+def theis(r, t):
+    return Q / (4 * math.pi * T) * exp1(r * r * S / (4 * T * t))
+with open(sys.argv[1], "w") as f:
+    f.write('[test]\ntitle = "synthetic test between two lines"\nmodel = "numerical"\n\n'
+            "[[pumping]]\ntime = 0.0\nrate = 800.0\n\n"
+            '[[boundary]]\nkind = "barrier"\ndistance = 60.0\nbearing = 90.0\n\n'
+            '[[boundary]]\nkind = "recharge"\ndistance = 90.0\nbearing = 180.0\n\n')
+    for r, bearing in ((15.0, 45.0), (40.0, 270.0)):
+        x, y = r * math.sin(math.radians(bearing)), r * math.cos(math.radians(bearing))
+        s = [theis(r, t) + sum(sign * theis(math.hypot(ix - x, iy - y), t)
+                               for ix, iy, sign in images) for t in times]
+        f.write(f'[[well]]\nname = "at {r:g} m"\ndistance = {r!r}\nbearing = {bearing!r}\n'
+                f"times = [{', '.join(map(repr, times))}]\n"
+                f"drawdowns = [{', '.join(map(repr, s))}]\n\n")
+PY
+# The whole fit ("$exe" drawdown-fit "$out/test.toml") is left out: it took 7 min 32 s wall
+# (2 min 53 s CPU) on the loaded 2-core machine (T 120.07, S 4.983e-4, both within 1 %); see
+# "Not yet done" in docs/pumping-tests.md. Reading the file is checked here.
+if [[ -n "${AQUILEDGER_SLOW_TESTS:-}" ]]; then
+  "$exe" drawdown-fit "$out/test.toml" -o "$out/fit" > "$out/stdout"
+  /usr/bin/python3 - "$out/fit" <<'PY2'
+import csv, json, os, sys
+d = sys.argv[1]
+rows = {r["parameter"]: r for r in csv.DictReader(open(os.path.join(d, "parameters.csv")))}
+for name, truth in (("transmissivity", 120.0), ("storativity", 5.0e-4)):
+    v = float(rows[name]["value"])
+    assert abs(v / truth - 1) < 0.01, (name, v)
+c = json.load(open(os.path.join(d, "fit.json")))["candidates"][0]
+assert c["converged"] is True
+for words in ("whole radial grid", "a barrier at 60", "a recharge line at 90"):
+    assert words in c["description"], c["description"]
+print("fitted T", rows["transmissivity"]["value"], "S", rows["storativity"]["value"])
+PY2
+fi
+# The closed forms refuse the lines, naming the numerical model.
+sed 's/model = "numerical"/model = "theis"/' "$out/test.toml" > "$out/theis.toml"
+if "$exe" drawdown-fit "$out/theis.toml" -o "$out/theis" > "$out/theis.out" 2>&1; then
+  fail "a closed form accepted [[boundary]] lines"
+fi
+grep -q "numerical model only" "$out/theis.out" || fail "$(cat "$out/theis.out")"
+
+# The first well moved beyond the barrier (80 m east of the pumped well, the line at 60 m).
+/usr/bin/python3 -c 'import sys; t = sys.stdin.read(); print(t.replace("distance = 15.0\nbearing = 45.0", "distance = 80.0\nbearing = 90.0"), end="")' \
+  < "$out/test.toml" > "$out/beyond.toml"
+if "$exe" drawdown-fit "$out/beyond.toml" -o "$out/beyond" > "$out/beyond.out" 2>&1; then
+  fail "a well beyond the barrier was accepted"
+fi
+line=$(grep -n "bearing = 90.0$" "$out/beyond.toml" | sed -n 2p | cut -d: -f1)
+grep -q "beyond.toml:$line:.*\[\[well\]\] \"at 15 m\".bearing: .*on or beyond it" "$out/beyond.out" ||
+  fail "the error does not name file, line and key: $(cat "$out/beyond.out")"
+[[ ! -e "$out/beyond" ]] || fail "files were written for a refused test"
+echo "drawdown-fit boundaries: all checks passed"
