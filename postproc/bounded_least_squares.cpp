@@ -164,7 +164,15 @@ BoundedFitResult fit_bounded_least_squares(const BoundedFitProblem& problem,
         result.cost_history.push_back(cost);
         lambda = std::max(lambda / 3.0, 1e-12);
         accepted = true;
-        if (step_norm < settings.relative_step_tolerance || small_cost) result.converged = true;
+        const std::size_t n_costs = result.cost_history.size();
+        const bool stalled =
+            settings.stall_window > 0 &&
+            n_costs > static_cast<std::size_t>(settings.stall_window) &&
+            result.cost_history[n_costs - 1 - static_cast<std::size_t>(settings.stall_window)] -
+                    cost <=
+                settings.stall_relative_decrease * cost;
+        if (step_norm < settings.relative_step_tolerance || small_cost || stalled)
+          result.converged = true;
       } else {
         lambda *= 4.0;
       }

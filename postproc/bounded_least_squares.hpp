@@ -42,6 +42,10 @@ struct BoundedFitSettings {
   double relative_step_tolerance = 1e-10;  ///< stop when |d log p| < this
   double relative_cost_tolerance = 1e-14;  ///< stop when the cost decreases less than this
   double finite_difference_step = 1e-6;    ///< step in log p for the Jacobian
+  /// Stop when the last `stall_window` accepted steps together lowered the cost by less than
+  /// `stall_relative_decrease` of it: a slow creep along a flat valley (0: never).
+  int stall_window = 0;
+  double stall_relative_decrease = 0.0;
 };
 
 /// The fitted parameters with their statistics. The intervals are 95 % intervals from the

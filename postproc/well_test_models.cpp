@@ -1,5 +1,7 @@
 #include "postproc/well_test_models.hpp"
 
+#include <algorithm>
+#include <boost/math/special_functions/bessel.hpp>
 #include <cassert>
 #include <cmath>
 #include <numbers>
@@ -170,26 +172,38 @@ double hantush_aquitard_storage_drawdown(double q, double transmissivity, double
 
 namespace {
 
-/// The root of e tan e = alpha (alpha >= 0) in [n pi, n pi + pi/2]: Newton on
-/// h(e) = e sin e - alpha cos e, kept inside a bracket that bisection narrows.
+/// The root of e tan e = alpha (alpha >= 0) in [n pi, n pi + pi/2), written as
+/// g(e) = e - n pi - atan(alpha / e) = 0 (tan e = tan(e - n pi)): g rises (g' = 1 +
+/// alpha / (e^2 + alpha^2) lies in [1, 2]) and is concave from g(n pi) <= 0 to
+/// g(n pi + pi/2) >= 0, so Newton, kept in the bracket, converges from either side; one atan a
+/// step. Start: for alpha above m = n pi + pi/2 the root lies just below m, where
+/// tan e ~ 1 / (m - e) gives e ~ m alpha / (alpha + 1); below it, near n pi, where
+/// tan e ~ e - n pi gives e ~ n pi + alpha / (n pi) (for n = 0, e ~ sqrt(alpha)).
 double neuman_eigenvalue(int n, double alpha) {
-  double lo = n * std::numbers::pi, hi = lo + 0.5 * std::numbers::pi;
-  auto h = [&](double e) { return e * std::sin(e) - alpha * std::cos(e); };
-  const double h_lo = h(lo);
-  double e = n == 0 ? std::min(std::sqrt(alpha), 0.5 * (lo + hi)) : 0.5 * (lo + hi);
-  for (int k = 0; k < 100; ++k) {
-    const double he = h(e);
-    if ((he < 0.0) == (h_lo < 0.0))
-      lo = e;
-    else
-      hi = e;
-    const double dh = (1.0 + alpha) * std::sin(e) + e * std::cos(e);
-    double next = e - he / dh;
-    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+  const double lo = n * std::numbers::pi, hi = lo + 0.5 * std::numbers::pi;
+  if (alpha == 0.0) return lo;
+  double e =
+      alpha > hi ? hi * alpha / (alpha + 1.0) : (n == 0 ? std::sqrt(alpha) : lo + alpha / lo);
+  e = std::clamp(e, n == 0 ? 1e-300 : lo, hi);
+  for (int k = 0; k < 60; ++k) {
+    const double g = e - lo - std::atan(alpha / e);
+    const double next = std::clamp(e - g / (1.0 + alpha / (e * e + alpha * alpha)), lo, hi);
     if (std::abs(next - e) <= 1e-15 * std::max(1.0, e)) return next;
     e = next;
   }
   return e;
+}
+
+/// The weight of the n-th term, 2 sin^2 e / (e (e + sin e cos e)), from tan e = alpha / e
+/// alone: sin^2 e = alpha^2 / (e^2 + alpha^2) and sin e cos e = alpha e / (e^2 + alpha^2), so
+/// the weight is 2 alpha^2 / (e^2 (e^2 + alpha^2 + alpha)); it tends to 1 for n = 0 as
+/// alpha -> 0 (e^2 -> alpha) and is 0 for n > 0 at alpha = 0.
+using neuman_bessel_policy =
+    boost::math::policies::policy<boost::math::policies::promote_double<false>>;
+
+double neuman_term_weight(double e, double alpha) {
+  if (alpha == 0.0) return e == 0.0 ? 1.0 : 0.0;
+  return 2.0 * alpha * alpha / (e * e * (e * e + alpha * alpha + alpha));
 }
 
 }  // namespace
@@ -201,11 +215,12 @@ double neuman_laplace_drawdown(double transmissivity, double storativity, double
   double sum = 0.0;
   for (int n = 0; n < 400; ++n) {
     const double e = neuman_eigenvalue(n, alpha);
-    const double weight =
-        e > 0.0 ? 2.0 * std::sin(e) * std::sin(e) / (e * (e + std::sin(e) * std::cos(e))) : 1.0;
-    const double term =
-        weight * std::cyl_bessel_k(
-                     0.0, r * std::sqrt(e * e / (drainage_length * drainage_length) + elastic));
+    // K0 from Boost.Math's double-precision rational approximations (no promotion to long
+    // double): measured on cases/03, far faster than std::cyl_bessel_k (docs/pumping-tests.md).
+    const double term = neuman_term_weight(e, alpha) *
+                        boost::math::cyl_bessel_k(
+                            0, r * std::sqrt(e * e / (drainage_length * drainage_length) + elastic),
+                            neuman_bessel_policy{});
     sum += term;
     if (n > 2 && term < 1e-13 * sum) break;
   }

@@ -28,7 +28,7 @@ assert fit["chosen_model"] == "theis", fit["chosen_model"]
 assert fit["automatic_choice"] is True
 assert any("confined" in s for s in fit["classification"])
 models = [c["model"] for c in fit["candidates"]]
-assert models == ["theis", "hantush-jacob"], models
+assert models == ["theis", "hantush-jacob", "neuman"], models
 series = list(csv.DictReader(open(os.path.join(d, "fit_series.csv"))))
 assert list(series[0].keys()) == ["well", "time", "measured", "fitted", "residual", "derivative"]
 assert len(series) == 80, len(series)
