@@ -4,6 +4,7 @@
 #include <cmath>
 #include <limits>
 #include <numbers>
+#include <sstream>
 #include <stdexcept>
 
 #include "postproc/numerical_well_test.hpp"
@@ -242,32 +243,41 @@ PumpingTestInterpretation interpret_pumping_test(const PumpingTest& test,
 std::vector<std::string> classify_aquifer(const PumpingTest& test, const ModelFit& fit,
                                           const std::vector<std::vector<double>>& derivatives) {
   std::vector<std::string> text;
-  // Neuman's model carries the water-table storage in Sy (its third parameter).
-  // Neuman's model and the numerical one of a switching aquifer carry the water-table storage
-  // in Sy (their third parameter).
-  const double s = fit.fit.parameters.size() > 2 && (fit.model == WellTestModel::neuman ||
-                                                     fit.model == WellTestModel::numerical)
-                       ? fit.fit.parameters[2]
-                       : fit.fit.parameters[1];
+  // The water-table storage is Sy where the model has one (Neuman's, the numerical model of a
+  // water-table or switching aquifer), otherwise the storativity (second parameter).
+  const auto sy = std::find(fit.parameter_names.begin(), fit.parameter_names.end(),
+                            std::string("specific_yield"));
+  const bool named_sy = sy != fit.parameter_names.end();
+  const bool has_sy = named_sy || (fit.parameter_names.empty() &&
+                                   fit.model == WellTestModel::neuman);  // T, S, Sy, L_v
+  const Eigen::Index place = named_sy ? static_cast<Eigen::Index>(sy - fit.parameter_names.begin())
+                             : has_sy ? 2
+                                      : 1;
+  const double s = fit.fit.parameters[place];
+  std::ostringstream fitted;
+  fitted.precision(3);
+  fitted << "The fitted " << (has_sy ? "specific yield" : "storativity") << " (" << s << ")";
   // Ranges: common practice (about 1e-5..1e-3 confined, 0.01..0.3 specific yield).
   if (s < 1e-5)
     text.push_back(
-        "The fitted storativity is below the range usual for confined aquifers (about 1e-5 to "
+        fitted.str() +
+        " is below the range usual for confined aquifers (about 1e-5 to "
         "1e-3); this may point to a thin or stiff aquifer, or to a distance or rate worth "
         "checking.");
   else if (s <= 1e-3)
-    text.push_back(
-        "The fitted storativity lies in the range usual for confined aquifers (about 1e-5 to "
-        "1e-3): the test may reflect confined conditions.");
+    text.push_back(fitted.str() +
+                   " lies in the range usual for confined aquifers (about 1e-5 to "
+                   "1e-3): the test may reflect confined conditions.");
   else if (s < 0.01)
     text.push_back(
-        "The fitted storativity lies between the usual confined (about 1e-5 to 1e-3) and "
+        fitted.str() +
+        " lies between the usual confined (about 1e-5 to 1e-3) and "
         "water-table (about 0.01 to 0.3) ranges: semi-confined conditions, or a water-table "
         "aquifer still in its early, elastic response, may be worth considering.");
   else
-    text.push_back(
-        "The fitted storativity lies in the range of specific yields (about 0.01 to 0.3): the "
-        "test may reflect water-table (unconfined) conditions.");
+    text.push_back(fitted.str() +
+                   " lies in the range of specific yields (about 0.01 to 0.3): the "
+                   "test may reflect water-table (unconfined) conditions.");
   // The derivative's shape over the first pumping step, in thirds of ln t.
   const double end = first_step_end(test);
   for (std::size_t w = 0; w < test.wells.size() && w < derivatives.size(); ++w) {
