@@ -19,7 +19,7 @@ for case in 02-hollin-ford-confined-test 03-brackwater-water-table-test; do
   "$exe" drawdown-fit "$src/cases/$case/test.toml" -o "$out" -q
   page="$out/interpretation.html"
   check_page "$page" 3
-  dom=$(browse "$page" --dump-dom)
+  dom=$page_dom
   for heading in "About this test" "Fitted values" "Model comparison" "What the fit suggests" \
     "Diagnostic plots"; do
     if ! grep -q "<h2>$heading" <<<"$dom"; then

@@ -20,7 +20,7 @@ case_dir="$src/cases/06-larkmoor-calibration"
 "$exe" estimate "$case_dir/setup.toml" -o "$tmp/fit" -q
 page="$tmp/fit/estimate.html"
 check_page "$page" 3
-dom=$(browse "$page" --dump-dom)
+dom=$page_dom
 for heading in "About this calibration" "Estimates" "Correlations" \
   "Composite scaled sensitivities" "Residuals" "Objective history"; do
   if ! grep -q "<h2>$heading" <<<"$dom"; then
@@ -74,7 +74,7 @@ done
 "$exe" estimate "$tmp/steady.toml" -o "$tmp/steady" -q 2> /dev/null
 page="$tmp/steady/estimate.html"
 check_page "$page" 3
-dom=$(browse "$page" --dump-dom)
+dom=$page_dom
 for text in 'Warning: parameters "K upland" and "recharge multiplier" are correlated' \
   "(not identifiable)"; do
   if ! grep -qF "$text" <<<"$dom"; then

@@ -21,7 +21,7 @@ source "$src/tests/support/browser_page.sh"
 # Demo report: volumes and mean rates, storage, imbalance, converted cells, 3 hydrographs,
 # calibration scatter and residual map, and the 4 maps at the last output time.
 check_page "$tmp/report.html" 14
-dom=$(browse "$tmp/report.html" --dump-dom)
+dom=$page_dom
 for heading in "About this run" "Stress periods" "Water budget by stress period" "Mass balance" \
   "Cells converted between confined, water table and dry" "Well shortfall" \
   "Hydrographs at the bores" "Calibration: simulated against measured heads" "Maps at time"; do
@@ -58,7 +58,7 @@ fi
 "$exe" run "$src/cases/05-quillon-vale-subsidence/model.toml" --output "$tmp/sub" --quiet
 "$exe" report "$tmp/sub" --maps-at 1460,2190 --quiet
 check_page "$tmp/sub/report.html" 18
-sub_dom=$(browse "$tmp/sub/report.html" --dump-dom)
+sub_dom=$page_dom
 check_visible_text "$sub_dom"
 for text in "<h2>Subsidence at the subsidence points" \
   "Subsidence at Sallow Cross extensometer (60 measured values, 60 inside the run)" \
@@ -72,8 +72,12 @@ if (($(grep -o "Subsidence (total lowering of the land surface" <<<"$sub_dom" | 
   echo "FAILED: expected a subsidence map at each of the 2 --maps-at times" >&2
   exit 1
 fi
-browse "$tmp/sub/report.html" --window-size=1100,12000 --screenshot="$tmp/subsidence.png" >/dev/null
-if [[ -n "${REPORT_SCREENSHOT:-}" ]]; then cp "$tmp/subsidence.png" "${REPORT_SCREENSHOT%.png}-subsidence.png"; fi
+# The subsidence page's screenshot only when asked for (one Chromium start less); the demo's
+# below is always taken and checked.
+if [[ -n "${REPORT_SCREENSHOT:-}" ]]; then
+  browse "$tmp/sub/report.html" --window-size=1100,12000 --screenshot="$tmp/subsidence.png" >/dev/null
+  cp "$tmp/subsidence.png" "${REPORT_SCREENSHOT%.png}-subsidence.png"
+fi
 
 browse "$tmp/report.html" --window-size=1100,9000 --screenshot="$tmp/report.png" >/dev/null
 if [[ -n "${REPORT_SCREENSHOT:-}" ]]; then cp "$tmp/report.png" "$REPORT_SCREENSHOT"; fi

@@ -2,7 +2,10 @@
 # and check that it rendered. Source it after setting $tmp (a scratch folder) and $chromium.
 #   browse <page> <extra chromium args...>   prints what Chromium prints (e.g. --dump-dom)
 #   check_page <page> <minimum charts>       the status marker reads "ok" and every chart
-#                                            container holds a rendered SVG; exits 1 otherwise
+#                                            container holds a rendered SVG; exits 1 otherwise.
+#                                            Leaves the rendered DOM in `page_dom`, so a script
+#                                            reads the page once (each Chromium start costs
+#                                            several seconds, more under the sanitizers)
 #   check_visible_text <dom>                 no "nan", "undefined" or "error:" in visible text
 
 browse() {
@@ -18,6 +21,7 @@ browse() {
 check_page() {
   local page=$1 minimum=$2 dom
   dom=$(browse "$page" --dump-dom)
+  page_dom=$dom
   local status charts rendered
   status=$(grep -o '<p id="render-status">[^<]*' <<<"$dom" | sed 's/.*>//')
   charts=$(grep -o '<div class="chart" id="chart-[0-9]*"' <<<"$dom" | wc -l)
