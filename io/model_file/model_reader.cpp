@@ -50,6 +50,7 @@ void read_sections(ReaderContext& ctx, const toml::table& root, Model& model) {
   read_external_heads(ctx, root, model);
   read_evapotranspiration(ctx, root, model);
   read_leakage(ctx, root, model);
+  check_steady_has_set_level(ctx, root, model);
   read_observations(ctx, root, model);
   read_subsidence_points(ctx, root, model);
   read_output(ctx, root, model);

@@ -222,4 +222,35 @@ void read_periods(ReaderContext& ctx, const toml::table& root, Model& model) {
   }
 }
 
+void check_steady_has_set_level(ReaderContext& ctx, const toml::table& root, const Model& model) {
+  // Where the steady flag is, to point at it: [initial].steady, else the first steady period.
+  const toml::node* at = nullptr;
+  std::string key;
+  if (const toml::table* initial = root["initial"].as_table(); initial && model.initial.steady) {
+    at = initial->get("steady");
+    key = "[initial].steady";
+  }
+  if (const toml::array* periods = root["period"].as_array(); periods && !at)
+    for (std::size_t i = 0; i < periods->size() && !at; ++i)
+      if (const toml::table* t = (*periods)[i].as_table())
+        if (const auto steady = (*t)["steady"].value<bool>(); steady && *steady) {
+          at = t->get("steady");
+          key = feature_path("period", *t, i) + ".steady";
+        }
+  if (!at) return;
+  // Every stress that ties a cell's flow to a level: with none, a steady state either does not
+  // exist (recharge or pumping with no way out) or is any constant head (nothing at all).
+  bool any_set_level = model.leakage && !model.leakage->cells.empty();
+  for (const auto& f : model.fixed_heads) any_set_level |= !f.cells.empty();
+  for (const auto& f : model.rivers) any_set_level |= !f.cells.empty();
+  for (const auto& f : model.drains) any_set_level |= !f.cells.empty();
+  for (const auto& f : model.external_heads) any_set_level |= !f.cells.empty();
+  for (const auto& f : model.evapotranspiration) any_set_level |= !f.cells.empty();
+  if (!any_set_level)
+    ctx.error(*at, key,
+              "a steady state needs somewhere water leaves or enters at a set level, and the "
+              "model has none: add a [[fixed_head]], [[river]], [[drain]], [[external_head]], "
+              "[[evapotranspiration]] or [leakage], or make the period transient");
+}
+
 }  // namespace aquiledger

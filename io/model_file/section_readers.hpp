@@ -30,6 +30,9 @@ void read_external_heads(ReaderContext& ctx, const toml::table& root, Model& mod
 void read_evapotranspiration(ReaderContext& ctx, const toml::table& root, Model& model);
 void read_rivers(ReaderContext& ctx, const toml::table& root, Model& model);
 void read_leakage(ReaderContext& ctx, const toml::table& root, Model& model);
+/// After every stress is read: a steady period (or [initial] steady = true) needs a cell whose
+/// water can leave or enter at a set level; without one its heads are not determined.
+void check_steady_has_set_level(ReaderContext& ctx, const toml::table& root, const Model& model);
 void read_observations(ReaderContext& ctx, const toml::table& root, Model& model);
 void read_subsidence_points(ReaderContext& ctx, const toml::table& root, Model& model);
 void read_output(ReaderContext& ctx, const toml::table& root, Model& model);

@@ -156,6 +156,28 @@ TEST_CASE("bad 26: initial head and steady together", "[reader][errors]") {
                   {"either head or steady"});
 }
 
+// A steady state needs a set level somewhere: without one, the heads of a closed aquifer with
+// recharge never settle, and without any stress every constant head is a solution (the
+// Neumann problem of the flow equation fixes the head only up to a constant; a fact of the
+// trade, e.g. Bear, Hydraulics of Groundwater, 1979, on boundary conditions, from memory).
+TEST_CASE("bad 26a: a steady state in a model with no set level anywhere", "[reader][errors]") {
+  const std::string steady_period = edit(base, "steps = 2", "steps = 1\nsteady = true");
+  expect_rejected(steady_period, "[[period]] \"first\".steady",
+                  {"a steady state needs somewhere water leaves or enters at a set level"},
+                  line_of(steady_period, "steady = true"));
+  const std::string steady_start = edit(base, "head = 9.0", "steady = true");
+  expect_rejected(steady_start, "[initial].steady", {"[[fixed_head]]", "make the period transient"},
+                  line_of(steady_start, "steady = true"));
+  // One fixed-head edge is enough; so is a drain.
+  for (const std::string feature :
+       {"[[fixed_head]]\nname = \"lake\"\nedge = \"west\"\nhead = 8.0\n",
+        "[[drain]]\nname = \"tiles\"\ncells = [[1, 1]]\nelevation = 8.0\nconductance = 5.0\n"}) {
+    const auto r = read(steady_period + "\n" + feature);
+    INFO(all_messages(r));
+    CHECK(r.ok());
+  }
+}
+
 // --- periods (contract [[period]]) ---
 TEST_CASE("bad 27: steps below 1", "[reader][errors]") {
   const std::string text = edit(base, "steps = 2", "steps = 0");
