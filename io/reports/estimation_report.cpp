@@ -176,7 +176,7 @@ HtmlReport estimation_page(const Model& model, const EstimationSetup& setup,
     page.add_chart(
         "The objective (weighted sum of squares with the prior terms) at the start (iteration "
         "0) and after each accepted step of the bounded Levenberg-Marquardt iteration.",
-        line_chart_spec({s}, {"iteration", false}, {"objective (-)", true}, 620, 240));
+        line_chart_spec({s}, {"iteration", false, true}, {"objective (-)", true}, 620, 240));
   }
   page.add_paragraph(
       "Every value is also in estimate.json and the CSV files beside this page "

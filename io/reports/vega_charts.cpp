@@ -48,6 +48,9 @@ std::string small_values_format(const std::vector<ChartSeries>& series, bool x_a
   return largest > 0.0 && largest < 1e-3 ? R"J(,"format":"~e")J" : "";
 }
 
+/// The axis entries of a count: no tick between whole numbers, integer labels.
+constexpr const char* whole_number_ticks = R"J(,"tickMinStep":1,"format":"d")J";
+
 std::string y_scale_with_rules(bool log) {
   return fmt::format(
       R"J({{"name":"y","type":"{}","domain":{{"fields":[{{"data":"all","field":"y"}},{{"data":"hrules","field":"y"}}]}},"range":"height","nice":true,"zero":false}})J",
@@ -127,8 +130,8 @@ std::string line_chart_spec(const std::vector<ChartSeries>& series, const AxisOp
       fmt::arg("vrules", vrules), fmt::arg("bands", bands), fmt::arg("hrules", hrules),
       fmt::arg("labels", labels), fmt::arg("palette", palette),
       fmt::arg("xt", vega_json_string(x.title)), fmt::arg("yt", vega_json_string(y.title)),
-      fmt::arg("xf", small_values_format(series, true)),
-      fmt::arg("yf", small_values_format(series, false)));
+      fmt::arg("xf", x.whole ? whole_number_ticks : small_values_format(series, true)),
+      fmt::arg("yf", y.whole ? whole_number_ticks : small_values_format(series, false)));
 }
 
 std::string stacked_bar_spec(const std::vector<BarValue>& values, const std::string& x_title,

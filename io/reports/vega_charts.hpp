@@ -18,8 +18,9 @@ struct ChartSeries {
 };
 
 struct AxisOptions {
-  std::string title;  ///< with unit, e.g. "time (d)"
-  bool log = false;   ///< logarithmic scale (non-positive values are left out)
+  std::string title;   ///< with unit, e.g. "time (d)"
+  bool log = false;    ///< logarithmic scale (non-positive values are left out)
+  bool whole = false;  ///< counts (iterations): ticks only at whole numbers, labelled as such
 };
 
 /// A labelled mark across a chart: a vertical rule at x0 (x1 NaN), or a shaded band from

@@ -24,6 +24,19 @@ TEST_CASE("an axis of values all below 1e-3 is labelled in exponent form", "[io]
   CHECK(line_chart_spec({heads}, {"time (d)"}, {"head (m)"}).find("~e") == std::string::npos);
 }
 
+TEST_CASE("an axis of counts has ticks at whole numbers only", "[io][charts]") {
+  // Three iterations of an estimation: an axis of 0..2 would otherwise be ticked at 0.5 steps.
+  const ChartSeries objective{"objective", {0.0, 1.0, 2.0}, {9.0, 2.0, 1.5}};
+  const std::string spec =
+      line_chart_spec({objective}, {"iteration", false, true}, {"objective (-)", true});
+  CHECK(
+      spec.find(
+          R"J("title":"iteration","grid":true,"gridOpacity":0.25,"tickMinStep":1,"format":"d")J") !=
+      std::string::npos);
+  CHECK(spec.find(R"J("title":"objective (-)","grid":true,"gridOpacity":0.25})J") !=
+        std::string::npos);
+}
+
 TEST_CASE("a period boundary's label carries the next boundary, to stop before it",
           "[io][charts]") {
   const double nan = std::nan("");
