@@ -38,16 +38,7 @@ Model adjoint_basin(Condition condition) {
     m.initial.head.assign(m.initial.head.size(), 19.0);
     m.drains[0].elevation = PeriodValues(18.5);
   }
-  const double xs[] = {250.0, 450.0, 650.0, 1050.0};
-  const double ys[] = {250.0, 650.0, 450.0, 850.0};
-  for (int b = 0; b < 4; ++b) {
-    Observation o;
-    o.name = "bore " + std::to_string(b + 1);
-    o.x = xs[b];
-    o.y = ys[b];
-    o.cell = *m.grid.locate(o.x, o.y);
-    m.observations.push_back(o);
-  }
+  test::add_bores(m, {{250.0, 250.0}, {450.0, 650.0}, {650.0, 450.0}, {1050.0, 850.0}});
   return m;
 }
 

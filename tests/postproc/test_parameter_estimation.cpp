@@ -20,16 +20,12 @@ Model basin() {
   m.aquifer.skeleton_share.clear();
   m.solver.head_tolerance = 1e-9;
   m.solver.flow_tolerance = 1e-11;
-  const double xs[] = {250.0, 450.0, 650.0, 1050.0, 350.0, 750.0};
-  const double ys[] = {250.0, 650.0, 450.0, 850.0, 850.0, 150.0};
-  for (int b = 0; b < 6; ++b) {
-    Observation o;
-    o.name = "bore " + std::to_string(b + 1);
-    o.x = xs[b];
-    o.y = ys[b];
-    o.cell = *m.grid.locate(o.x, o.y);
-    m.observations.push_back(o);
-  }
+  test::add_bores(m, {{250.0, 250.0},
+                      {450.0, 650.0},
+                      {650.0, 450.0},
+                      {1050.0, 850.0},
+                      {350.0, 850.0},
+                      {750.0, 150.0}});
   return m;
 }
 

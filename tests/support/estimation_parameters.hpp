@@ -1,7 +1,7 @@
 #pragma once
 // Parameters for the estimation tests (tests/postproc/test_parameter_estimation.cpp,
-// test_adjoint_gradient.cpp): a multiplier on cells or features, and the cells of a band of
-// columns to put one on.
+// test_adjoint_gradient.cpp): a multiplier on cells or features, the cells of a band of
+// columns to put one on, and bores to measure heads at.
 #include <string>
 #include <utility>
 #include <vector>
@@ -31,6 +31,18 @@ inline std::vector<int> cells_in_columns(const Model& m, int first, int last) {
     if (col >= first && col <= last) cells.push_back(c);
   }
   return cells;
+}
+
+/// Bores "bore 1", "bore 2", ... at the given points, each in the cell holding it.
+inline void add_bores(Model& m, const std::vector<std::pair<double, double>>& points) {
+  for (std::size_t b = 0; b < points.size(); ++b) {
+    Observation o;
+    o.name = "bore " + std::to_string(b + 1);
+    o.x = points[b].first;
+    o.y = points[b].second;
+    o.cell = *m.grid.locate(o.x, o.y);
+    m.observations.push_back(o);
+  }
 }
 
 }  // namespace aquiledger::test
