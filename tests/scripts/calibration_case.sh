@@ -8,11 +8,9 @@
 # time of the calibration (a figure, not a check).
 #   bash calibration_case.sh <aquiledger> <source-dir>
 set -euo pipefail
-exe=${1:?usage: calibration_case.sh <aquiledger> <source-dir>}
-src=${2:?usage: calibration_case.sh <aquiledger> <source-dir>}
-out=$(mktemp -d)
-trap 'rm -rf "$out"' EXIT
-fail() { echo "FAIL: $*"; exit 1; }
+# shellcheck source=../support/script_start.sh
+source "${BASH_SOURCE[0]%/*}/../support/script_start.sh"
+make_scratch out
 case_dir="$src/cases/06-larkmoor-calibration"
 
 # The documented script makes exactly the committed inputs.

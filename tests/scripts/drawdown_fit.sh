@@ -5,11 +5,9 @@
 # docs/pumping-tests.md; a bad file is refused with exit status 1 naming file, line and key.
 #   bash drawdown_fit.sh <aquiledger> <source-dir>
 set -euo pipefail
-exe=${1:?usage: drawdown_fit.sh <aquiledger> <source-dir>}
-src=${2:?usage: drawdown_fit.sh <aquiledger> <source-dir>}
-out=$(mktemp -d)
-trap 'rm -rf "$out"' EXIT
-fail() { echo "FAIL: $*"; exit 1; }
+# shellcheck source=../support/script_start.sh
+source "${BASH_SOURCE[0]%/*}/../support/script_start.sh"
+make_scratch out
 
 "$exe" drawdown-fit "$src/tests/data/pumping/theis_recovery.toml" -m auto -o "$out/fit" -q
 python3 - "$out/fit" <<'PY'
