@@ -147,6 +147,7 @@ BoundedFitResult fit_bounded_least_squares(const BoundedFitProblem& problem,
     Eigen::VectorXd scale = jtwj.diagonal().cwiseMax(1e-12 * jtwj.diagonal().maxCoeff() + 1e-300);
     bool accepted = false;
     double step_norm = 0.0;
+    Eigen::VectorXd accepted_model;  // the model at the accepted trial, not run again below
     for (int tries = 0; tries < 30 && !accepted; ++tries) {
       Eigen::MatrixXd a = jtwj;
       a.diagonal() += lambda * scale;
@@ -159,6 +160,7 @@ BoundedFitResult fit_bounded_least_squares(const BoundedFitProblem& problem,
         step_norm = (xt - x).cwiseAbs().maxCoeff();
         const double decrease = cost - ct;
         x = xt;
+        accepted_model = std::move(mt);
         const bool small_cost = decrease <= settings.relative_cost_tolerance * (cost + 1e-300);
         cost = ct;
         result.cost_history.push_back(cost);
@@ -181,7 +183,14 @@ BoundedFitResult fit_bounded_least_squares(const BoundedFitProblem& problem,
       result.converged = true;
       break;
     }
-    model_x = model_and_jacobian(x, jac);
+    // Exact derivatives come with a model run of their own (callers cache a repeated point);
+    // differences start from the accepted trial's values.
+    if (problem.model_with_jacobian) {
+      model_x = evaluate(x, &jac);
+    } else {
+      model_x = std::move(accepted_model);
+      jac = difference_jacobian(x, model_x);
+    }
     r = observed - model_x;
     cost = weighted_cost(r, w);
     if (result.converged) break;
