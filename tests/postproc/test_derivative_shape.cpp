@@ -5,10 +5,10 @@
 //
 // Why "at least 9 of 10" seeds: the noise is normal with a standard deviation of 1 cm on
 // drawdowns of one to a few metres (a water-level dipper reads to about 1 cm; common practice,
-// from memory), 0.3 to 1 % of the largest drawdown. Each bin median of the derivative rests on
+// from memory), 0.03 to 1 % of the largest drawdown. Each bin median of the derivative rests on
 // about 3 to 8 points whose scatter the chosen window brings to about a tenth of the derivative, so
 // a bin median is off by 10 % or more in a few per cent of bins; a reading errs only when such a
-// bin sits where a threshold (30 % dip, 60 % fall, 15 % flat, 50 % rise) is nearly met. One seed in
+// bin sits where a threshold (30 % dip, 60 % fall, 20 % flat, 50 % rise) is nearly met. One seed in
 // ten is allowed that chance; a rule that misread the shape itself would fail every seed, as the
 // thirds-of-ln-t rule it replaces failed the clean cases/03 curves.
 #include <catch2/catch.hpp>
