@@ -236,12 +236,120 @@ PumpingTestInterpretation interpret_pumping_test(const PumpingTest& test,
         "lowest AICc (Hurvich and Tsai, 1989); a simpler model within 2 of the lowest is kept "
         "(Burnham and Anderson, 2002; common practice)";
   }
-  out.classification = classify_aquifer(test, out.chosen_fit(), out.derivatives);
+  out.classification = classify_aquifer(test, out.chosen_fit());
   return out;
 }
 
-std::vector<std::string> classify_aquifer(const PumpingTest& test, const ModelFit& fit,
-                                          const std::vector<std::vector<double>>& derivatives) {
+DerivativeReading read_derivative_shape(const std::vector<double>& times,
+                                        const std::vector<double>& drawdowns) {
+  DerivativeReading out;
+  const std::size_t n = times.size();
+  if (n < 12 || drawdowns.size() != n) return out;
+  std::vector<double> x(n);
+  for (std::size_t i = 0; i < n; ++i) x[i] = std::log(times[i]);
+  // The scatter: each point against the straight line through its neighbours (in ln t). For
+  // equal spacing the residual's variance is 1.5 sigma^2; the median absolute residual over
+  // 0.6745 estimates its standard deviation for normal errors (a robust scale; common
+  // practice). The smooth curve's own curvature adds little at the spacing of a test.
+  std::vector<double> residual;
+  for (std::size_t i = 1; i + 1 < n; ++i) {
+    const double span = x[i + 1] - x[i - 1];
+    if (!(span > 0.0)) continue;
+    const double line =
+        (drawdowns[i - 1] * (x[i + 1] - x[i]) + drawdowns[i + 1] * (x[i] - x[i - 1])) / span;
+    residual.push_back(std::abs(drawdowns[i] - line));
+  }
+  const double sigma = median(residual) / 0.6745 / std::sqrt(1.5);
+  // Bourdet's window L: the derivative's scatter is about sigma sqrt(2) / L; L is chosen to
+  // bring it to a tenth of the typical derivative, within Bourdet et al.'s (1989) range of
+  // 0.1 to 0.5 log cycle (0.23 to 1.15 in ln t).
+  std::vector<double> rough = logarithmic_derivative(times, drawdowns, 0.5);
+  std::vector<double> magnitude;
+  for (double d : rough)
+    if (std::isfinite(d)) magnitude.push_back(std::abs(d));
+  const double level = median(magnitude);
+  if (!(level > 0.0)) return out;
+  const double l_min = 0.1 * std::numbers::ln10, l_max = 0.5 * std::numbers::ln10;
+  out.smoothing = std::clamp(10.0 * std::sqrt(2.0) * sigma / level, l_min, l_max);
+  const std::vector<double> d = logarithmic_derivative(times, drawdowns, out.smoothing);
+  // The derivative summarised by medians over bins of ln t, one window wide (at least a 16th
+  // of the record): a single wild point moves no median.
+  const double width = std::max(out.smoothing, (x.back() - x.front()) / 16.0);
+  std::vector<double> bin_d, bin_s;
+  for (std::size_t i = 0; i < n;) {
+    std::vector<double> dd, ss;
+    const double start = x[i];
+    for (; i < n && x[i] < start + width; ++i)
+      if (std::isfinite(d[i])) {
+        dd.push_back(d[i]);
+        ss.push_back(drawdowns[i]);
+      }
+    if (dd.empty()) continue;
+    bin_d.push_back(median(dd));
+    bin_s.push_back(median(ss));
+  }
+  // Well-bore storage: at first the well's own storage gives the water, s grows as t and
+  // ds/d ln t = s (a unit slope on the log-log chart; Papadopulos and Cooper, 1967). Read as
+  // ds/d ln t within 30 % of s over the first three bins or more (Theis' early derivative
+  // e^-u / W(u) passes through that band within 0.7 in ln t; Abramowitz and Stegun, 1964,
+  // 5.1). Radial flow is looked for only 1.5 log cycles after the unit slope ends (the
+  // one-and-a-half log cycle rule; common practice, from memory).
+  std::size_t first = 0;
+  while (first < bin_d.size() && bin_s[first] > 0.0 && bin_d[first] > 0.7 * bin_s[first] &&
+         bin_d[first] < 1.3 * bin_s[first])
+    ++first;
+  if (first >= 3) {
+    out.unit_slope_start = true;
+    first += static_cast<std::size_t>(std::ceil(1.5 * std::numbers::ln10 / width));
+  } else {
+    first = 0;
+  }
+  if (first + 5 > bin_d.size()) {
+    out.shape = DerivativeShape::too_few_points;
+    return out;
+  }
+  const std::vector<double> b(bin_d.begin() + static_cast<long>(first), bin_d.end());
+  const std::size_t k = b.size();
+  const double peak = *std::max_element(b.begin(), b.end());
+  const double last = b[k - 1];
+  if (!(peak > 0.0)) {
+    out.shape = DerivativeShape::unclear;
+    return out;
+  }
+  // A dip and a return: some bin 30 % below the highest bin before it and below the last bin
+  // (Neuman's, 1974, trough between the elastic and the late plateau, both at Q / (4 pi T)).
+  for (std::size_t m = 1; m + 1 < k; ++m) {
+    const double before = *std::max_element(b.begin(), b.begin() + static_cast<long>(m));
+    if (b[m] < 0.7 * before && b[m] < 0.7 * last && last > 0.5 * peak) {
+      out.shape = DerivativeShape::dip_and_return;
+      return out;
+    }
+  }
+  // A fall: the last bin below 60 % of the highest (towards zero: Hantush and Jacob, 1955, or
+  // a recharge image, Ferris et al., 1962).
+  if (last < 0.6 * peak) {
+    out.shape = DerivativeShape::falls_off;
+    return out;
+  }
+  // A late rise: two neighbouring bins within 20 % of each other, then the last bin 50 % above
+  // both (one barrier image doubles the slope; Ferris et al., 1962). Theis' own rise e^-u
+  // (Theis, 1935) gains under 20 % once two bins a window apart are within 20 %.
+  for (std::size_t m = 0; m + 2 < k; ++m) {
+    const double lo = std::min(b[m], b[m + 1]), hi = std::max(b[m], b[m + 1]);
+    if (lo > 0.0 && hi < 1.2 * lo && last > 1.5 * hi) {
+      out.shape = DerivativeShape::rises_late;
+      return out;
+    }
+  }
+  // A plateau: the last three bins within 20 % of each other and near the highest.
+  const double lo = std::min({b[k - 3], b[k - 2], b[k - 1]});
+  const double hi = std::max({b[k - 3], b[k - 2], b[k - 1]});
+  out.shape = lo > 0.0 && hi < 1.2 * lo && last > 0.8 * peak ? DerivativeShape::plateau
+                                                             : DerivativeShape::unclear;
+  return out;
+}
+
+std::vector<std::string> classify_aquifer(const PumpingTest& test, const ModelFit& fit) {
   std::vector<std::string> text;
   // The water-table storage is Sy where the model has one (Neuman's, the numerical model of a
   // water-table or switching aquifer), otherwise the storativity (second parameter).
@@ -278,44 +386,52 @@ std::vector<std::string> classify_aquifer(const PumpingTest& test, const ModelFi
     text.push_back(fitted.str() +
                    " lies in the range of specific yields (about 0.01 to 0.3): the "
                    "test may reflect water-table (unconfined) conditions.");
-  // The derivative's shape over the first pumping step, in thirds of ln t.
+  // The derivative's shape over the first pumping step (read_derivative_shape).
   const double end = first_step_end(test);
-  for (std::size_t w = 0; w < test.wells.size() && w < derivatives.size(); ++w) {
-    const ObservationSeries& well = test.wells[w];
-    std::vector<double> lt, d;
+  for (const ObservationSeries& well : test.wells) {
+    std::vector<double> t, s_well;
     for (std::size_t i = 0; i < well.times.size(); ++i)
       if (well.times[i] > test.schedule.front().start && well.times[i] <= end &&
-          std::isfinite(derivatives[w][i])) {
-        lt.push_back(std::log(well.times[i] - test.schedule.front().start));
-        d.push_back(derivatives[w][i]);
+          std::isfinite(well.drawdowns[i])) {
+        t.push_back(well.times[i] - test.schedule.front().start);
+        s_well.push_back(well.drawdowns[i]);
       }
-    if (d.size() < 9) continue;
-    const double a = lt.front(), b = lt.back();
-    std::vector<double> thirds[3];
-    for (std::size_t i = 0; i < d.size(); ++i)
-      thirds[std::min(2, static_cast<int>(3.0 * (lt[i] - a) / (b - a)))].push_back(d[i]);
-    // The early third's largest value: its first points still rise towards the elastic plateau.
-    const double early = *std::max_element(thirds[0].begin(), thirds[0].end());
-    const double mid = median(thirds[1]), late = median(thirds[2]);
+    const DerivativeReading reading = read_derivative_shape(t, s_well);
     const std::string who = "At " + well.name + " the logarithmic derivative ";
-    if (mid < 0.6 * early && late > 1.4 * mid)
+    if (reading.unit_slope_start)
       text.push_back(who +
-                     "dips and rises again, the trough typical of delayed yield from a "
-                     "water-table aquifer (Neuman, 1974); a delayed-yield model may be worth "
-                     "fitting.");
-    else if (late < 0.5 * std::max(early, mid))
-      text.push_back(who +
-                     "falls off at late time, as leakage through an aquitard or a recharge "
-                     "boundary would cause; a leaky model or a recharge image may be worth "
-                     "trying.");
-    else if (late > 1.6 * mid && mid > 0.0)
-      text.push_back(who +
-                     "rises at late time, as a barrier boundary (about doubling for one straight "
-                     "barrier) or the end of a shallow delayed-yield trough would cause; a "
-                     "barrier image or a delayed-yield model may be worth trying.");
-    else
-      text.push_back(who +
-                     "levels off, as radial flow in an extensive aquifer would (Theis, 1935).");
+                     "first rises as fast as the drawdown itself (a unit slope on the log-log "
+                     "chart), as the storage of a large-diameter well would cause "
+                     "(Papadopulos and Cooper, 1967); a model with well-bore storage may be "
+                     "worth fitting.");
+    switch (reading.shape) {
+      case DerivativeShape::dip_and_return:
+        text.push_back(who +
+                       "dips and rises again, the trough typical of delayed yield from a "
+                       "water-table aquifer (Neuman, 1974), or of a double-porosity aquifer; a "
+                       "delayed-yield model may be worth fitting.");
+        break;
+      case DerivativeShape::falls_off:
+        text.push_back(who +
+                       "falls off at late time, as leakage through an aquitard (Hantush and "
+                       "Jacob, 1955) or a recharge boundary would cause; a leaky model or a "
+                       "recharge image may be worth trying.");
+        break;
+      case DerivativeShape::rises_late:
+        text.push_back(who +
+                       "levels off and then rises at late time, as a barrier boundary (about "
+                       "doubling for one straight barrier; Ferris et al., 1962) or the end of a "
+                       "shallow delayed-yield trough would cause; a barrier image or a "
+                       "delayed-yield model may be worth trying.");
+        break;
+      case DerivativeShape::plateau:
+        text.push_back(who +
+                       "levels off, as radial flow in an extensive aquifer would (Theis, 1935).");
+        break;
+      case DerivativeShape::too_few_points:
+      case DerivativeShape::unclear:
+        break;
+    }
   }
   text.push_back(
       "These are suggestions from the curve shapes and ranges of common practice, to be weighed "

@@ -134,10 +134,35 @@ std::vector<WellTestModel> automatic_candidates();
 PumpingTestInterpretation interpret_pumping_test(const PumpingTest& test,
                                                  std::optional<WellTestModel> model);
 
+/// What the logarithmic derivative of one well's drawdowns over a constant-rate step looks
+/// like, read as a hydrogeologist reads it on a log-log chart (Bourdet et al., 1989).
+enum class DerivativeShape {
+  too_few_points,  ///< too few points (or too short a record) to read a shape
+  plateau,         ///< levels off: radial flow (Theis, 1935; Cooper and Jacob, 1946)
+  dip_and_return,  ///< a trough, then a return: delayed yield (Neuman, 1974), double porosity
+  falls_off,       ///< falls towards zero: leakage (Hantush and Jacob, 1955) or a recharge line
+  rises_late,      ///< a plateau, then a rise: a barrier (Ferris et al., 1962, images)
+  unclear,         ///< none of these
+};
+
+/// The reading of one well's derivative: an early unit slope (well-bore storage, Papadopulos
+/// and Cooper, 1967) and the shape of what follows it.
+struct DerivativeReading {
+  bool unit_slope_start = false;  ///< ds/d ln t about equal to s over the early record
+  DerivativeShape shape = DerivativeShape::too_few_points;
+  double smoothing = 0.0;  ///< Bourdet's window L (in ln t) chosen from the data's scatter
+};
+
+/// Reads the shape of the logarithmic derivative of drawdowns `drawdowns` (L) at times
+/// `times` (T since the start of a constant-rate step, increasing, > 0). The smoothing window
+/// is chosen from the scatter of the drawdowns, the derivative is summarised by medians over
+/// bins of ln t, and the shape is read from those medians (docs/pumping-tests.md).
+DerivativeReading read_derivative_shape(const std::vector<double>& times,
+                                        const std::vector<double>& drawdowns);
+
 /// Sentences suggesting what the fitted storativity and the derivative's shape may mean.
 /// Ranges of storativity are common practice: about 1e-5..1e-3 confined, 0.01..0.3 water
 /// table (specific yield).
-std::vector<std::string> classify_aquifer(const PumpingTest& test, const ModelFit& fit,
-                                          const std::vector<std::vector<double>>& derivatives);
+std::vector<std::string> classify_aquifer(const PumpingTest& test, const ModelFit& fit);
 
 }  // namespace aquiledger

@@ -68,6 +68,15 @@ void expect_error(const std::string& text, const std::string& key, int line,
   CHECK(found);
 }
 
+/// `base` with `from` replaced by `to` is refused with an error at `key`, on the line that holds
+/// `at` in the replaced text, whose message holds `fragment`.
+void expect_replaced_error(const std::string& base, const std::string& from, const std::string& to,
+                           const std::string& key, const std::string& at,
+                           const std::string& fragment) {
+  const std::string t = replace(base, from, to);
+  expect_error(t, key, line_of(t, at), fragment);
+}
+
 }  // namespace
 
 TEST_CASE("a good test file is read whole", "[pumping_test_reader]") {
@@ -102,16 +111,11 @@ TEST_CASE("the pumped well's radii for the large-diameter model", "[pumping_test
     REQUIRE(r.test.has_value());
     CHECK(r.test->pumped_well.casing == 0.4);
   }
-  {
-    const std::string t = replace(
-        good, "[[pumping]]", "[pumped_well]\nradius = 0.6\ncasing_radius = 0.0\n\n[[pumping]]");
-    expect_error(t, "[pumped_well].casing_radius", line_of(t, "casing_radius"), "radius > 0");
-  }
-  {
-    const std::string t =
-        replace(good, "[[pumping]]", "[pumped_well]\ncasing_radius = 0.4\n\n[[pumping]]");
-    expect_error(t, "[pumped_well].radius", line_of(t, "[pumped_well]"), "missing");
-  }
+  expect_replaced_error(good, "[[pumping]]",
+                        "[pumped_well]\nradius = 0.6\ncasing_radius = 0.0\n\n[[pumping]]",
+                        "[pumped_well].casing_radius", "casing_radius", "radius > 0");
+  expect_replaced_error(good, "[[pumping]]", "[pumped_well]\ncasing_radius = 0.4\n\n[[pumping]]",
+                        "[pumped_well].radius", "[pumped_well]", "missing");
 }
 
 TEST_CASE("the aquifer's geometry for the numerical model", "[pumping_test_reader]") {
@@ -138,22 +142,14 @@ TEST_CASE("the aquifer's geometry for the numerical model", "[pumping_test_reade
     CHECK_FALSE(r.test->aquifer->starts_confined());
     CHECK(r.test->aquifer->thickness() == 42.5);  // water table: static level - bottom
   }
-  {
-    const std::string t =
-        replace(good, "[[pumping]]", "[aquifer]\nbottom = 4.0\nstatic_level = 2.5\n\n[[pumping]]");
-    expect_error(t, "[aquifer].static_level", line_of(t, "static_level = 2.5"), "above the");
-  }
-  {
-    const std::string t =
-        replace(good, "[[pumping]]",
-                "[aquifer]\ntop = -50.0\nbottom = -40.0\nstatic_level = 2.5\n\n[[pumping]]");
-    expect_error(t, "[aquifer].top", line_of(t, "top = -50.0"), "above the");
-  }
-  {
-    const std::string t =
-        replace(good, "[[pumping]]", "[aquifer]\nstatic_level = 2.5\n\n[[pumping]]");
-    expect_error(t, "[aquifer].bottom", line_of(t, "[aquifer]"), "missing");
-  }
+  expect_replaced_error(good, "[[pumping]]",
+                        "[aquifer]\nbottom = 4.0\nstatic_level = 2.5\n\n[[pumping]]",
+                        "[aquifer].static_level", "static_level = 2.5", "above the");
+  expect_replaced_error(good, "[[pumping]]",
+                        "[aquifer]\ntop = -50.0\nbottom = -40.0\nstatic_level = 2.5\n\n[[pumping]]",
+                        "[aquifer].top", "top = -50.0", "above the");
+  expect_replaced_error(good, "[[pumping]]", "[aquifer]\nstatic_level = 2.5\n\n[[pumping]]",
+                        "[aquifer].bottom", "[aquifer]", "missing");
   {
     const std::string t =
         replace(good, "[[pumping]]",
@@ -179,36 +175,21 @@ TEST_CASE("a series read from a CSV file", "[pumping_test_reader]") {
 }
 
 TEST_CASE("bad test files give file, line and key", "[pumping_test_reader]") {
-  {
-    const std::string t = replace(good, "distance = 12.0", "distance = -12.0");
-    expect_error(t, "[[well]] \"east piezometer\".distance", line_of(t, "distance = -12.0"),
-                 "distance > 0");
-  }
-  {
-    const std::string t = replace(good, "time = 100.0", "time = -1.0");
-    expect_error(t, "[[pumping]] #2.time", line_of(t, "time = -1.0"), "after the previous");
-  }
-  {
-    const std::string t =
-        replace(good, "drawdowns = [0.1, 0.2, 0.3, 0.4, 0.1]", "drawdowns = [0.1, 0.2, 0.3, 0.4]");
-    expect_error(t, "[[well]] \"east piezometer\".drawdowns", line_of(t, "drawdowns = [0.1"),
-                 "as many values as times");
-  }
-  {
-    const std::string t = replace(good, "radius = 0.05", "radios = 0.05");
-    expect_error(t, "[[well]] \"west piezometer\".radios", line_of(t, "radios"),
-                 "did you mean 'radius'");
-  }
-  {
-    const std::string t =
-        replace(good, "time_unit = \"min\"", "time_unit = \"min\"\nmodel = \"thies\"");
-    expect_error(t, "[test].model", line_of(t, "model ="), "expected one of");
-  }
-  {
-    const std::string t = replace(good, "static_level = 10.0\n", "");
-    expect_error(t, "[[well]] \"west piezometer\".static_level",
-                 line_of(t, "[[well]]\nname = \"west"), "missing");
-  }
+  expect_replaced_error(good, "distance = 12.0", "distance = -12.0",
+                        "[[well]] \"east piezometer\".distance", "distance = -12.0",
+                        "distance > 0");
+  expect_replaced_error(good, "time = 100.0", "time = -1.0", "[[pumping]] #2.time", "time = -1.0",
+                        "after the previous");
+  expect_replaced_error(
+      good, "drawdowns = [0.1, 0.2, 0.3, 0.4, 0.1]", "drawdowns = [0.1, 0.2, 0.3, 0.4]",
+      "[[well]] \"east piezometer\".drawdowns", "drawdowns = [0.1", "as many values as times");
+  expect_replaced_error(good, "radius = 0.05", "radios = 0.05",
+                        "[[well]] \"west piezometer\".radios", "radios", "did you mean 'radius'");
+  expect_replaced_error(good, "time_unit = \"min\"", "time_unit = \"min\"\nmodel = \"thies\"",
+                        "[test].model", "model =", "expected one of");
+  expect_replaced_error(good, "static_level = 10.0\n", "",
+                        "[[well]] \"west piezometer\".static_level", "[[well]]\nname = \"west",
+                        "missing");
 }
 
 TEST_CASE("times as dates since the stated start of pumping", "[pumping_test_reader]") {
@@ -258,22 +239,12 @@ drawdowns = [0.1, 0.2, 0.3, 0.4]
     CHECK(r.test->schedule[0].start == Approx(30.0));
     CHECK(r.test->schedule[1].start == Approx(60.0));
   }
-  {
-    const std::string t = replace(dated, "pumping_started = 2028-02-28T12:00:00\n", "");
-    expect_error(t, "[[pumping]] #1.time", line_of(t, "time = 2028-02-28T12:00:00"),
-                 "pumping_started");
-  }
-  {
-    const std::string t =
-        replace(dated, "time = \"2028-03-01T12:00\"", "time = \"2028-03-01T12:00Z\"");
-    expect_error(t, "[[pumping]] #2.time", line_of(t, "time = \"2028-03-01T12:00Z\""),
-                 "UTC offset");
-  }
-  {
-    const std::string t = replace(dated, "\"2028-02-28 12:02:30\"", "\"28/02/2028 12:02\"");
-    expect_error(t, "[[well]] \"east piezometer\".times[1]", line_of(t, "times = ["),
-                 "a date and time");
-  }
+  expect_replaced_error(dated, "pumping_started = 2028-02-28T12:00:00\n", "", "[[pumping]] #1.time",
+                        "time = 2028-02-28T12:00:00", "pumping_started");
+  expect_replaced_error(dated, "time = \"2028-03-01T12:00\"", "time = \"2028-03-01T12:00Z\"",
+                        "[[pumping]] #2.time", "time = \"2028-03-01T12:00Z\"", "UTC offset");
+  expect_replaced_error(dated, "\"2028-02-28 12:02:30\"", "\"28/02/2028 12:02\"",
+                        "[[well]] \"east piezometer\".times[1]", "times = [", "a date and time");
 }
 
 TEST_CASE("a CSV series with dates", "[pumping_test_reader]") {
@@ -317,16 +288,13 @@ TEST_CASE("the leakance of a leaky confining bed for the numerical model",
     CHECK_FALSE(r.test->leakance->fitted);
     CHECK(r.test->leakance->value == 3e-4);
   }
-  {
-    const std::string t = replace(good, "[[pumping]]", "[aquifer]\nleakance = -1.0\n\n[[pumping]]");
-    expect_error(t, "[aquifer].leakance", line_of(t, "leakance = -1.0"), "\"fit\" or a leakance");
-  }
-  {  // a water-table aquifer has no confining bed
-    const std::string t =
-        replace(good, "[[pumping]]",
-                "[aquifer]\nbottom = -40.0\nstatic_level = 2.5\nleakance = \"fit\"\n\n[[pumping]]");
-    expect_error(t, "[aquifer].leakance", line_of(t, "leakance = \"fit\""), "confined aquifer");
-  }
+  expect_replaced_error(good, "[[pumping]]", "[aquifer]\nleakance = -1.0\n\n[[pumping]]",
+                        "[aquifer].leakance", "leakance = -1.0", "\"fit\" or a leakance");
+  // a water-table aquifer has no confining bed
+  expect_replaced_error(
+      good, "[[pumping]]",
+      "[aquifer]\nbottom = -40.0\nstatic_level = 2.5\nleakance = \"fit\"\n\n[[pumping]]",
+      "[aquifer].leakance", "leakance = \"fit\"", "confined aquifer");
 }
 
 TEST_CASE("straight lines ([[boundary]]) and well bearings for the numerical model",
@@ -356,52 +324,31 @@ TEST_CASE("straight lines ([[boundary]]) and well bearings for the numerical mod
     CHECK(r.test->lines.empty());
     CHECK_FALSE(r.test->wells[0].bearing.has_value());
   }
-  {
-    const std::string t = replace(lines, "kind = \"barrier\"", "kind = \"wall\"");
-    expect_error(t, "[[boundary]] #1.kind", line_of(t, "kind = \"wall\""), "allowed:");
-  }
-  {
-    const std::string t = replace(lines, "distance = 40.0", "distance = 0.0");
-    expect_error(t, "[[boundary]] #1.distance", line_of(t, "distance = 0.0"), "distance > 0");
-  }
-  {
-    const std::string t = replace(lines, "bearing = 0.0", "bearing = 30.0");
-    expect_error(t, "[[boundary]] #2.bearing", line_of(t, "bearing = 30.0"),
-                 "parallel or perpendicular");
-  }
-  {
-    const std::string t = replace(lines, "bearing = 0.0", "bearing = 360.0");
-    expect_error(t, "[[boundary]] #2.bearing", line_of(t, "bearing = 360.0"), "0 <= bearing");
-  }
-  {
-    const std::string t = replace(lines, "kind = \"recharge\"", "kind = \"zone\"");
-    expect_error(t, "[[boundary]] #3.kind", line_of(t, "kind = \"zone\"\ndistance = 20.0"),
-                 "only one zone line");
-  }
+  expect_replaced_error(lines, "kind = \"barrier\"", "kind = \"wall\"", "[[boundary]] #1.kind",
+                        "kind = \"wall\"", "allowed:");
+  expect_replaced_error(lines, "distance = 40.0", "distance = 0.0", "[[boundary]] #1.distance",
+                        "distance = 0.0", "distance > 0");
+  expect_replaced_error(lines, "bearing = 0.0", "bearing = 30.0", "[[boundary]] #2.bearing",
+                        "bearing = 30.0", "parallel or perpendicular");
+  expect_replaced_error(lines, "bearing = 0.0", "bearing = 360.0", "[[boundary]] #2.bearing",
+                        "bearing = 360.0", "0 <= bearing");
+  expect_replaced_error(lines, "kind = \"recharge\"", "kind = \"zone\"", "[[boundary]] #3.kind",
+                        "kind = \"zone\"\ndistance = 20.0", "only one zone line");
   {
     const std::string t =
         replace(lines, "distance = 55.0\nbearing = 0.0", "distance = 55.0\nbearing = 90.0");
     expect_error(t, "[[boundary]] #2.bearing", line_of(t, "distance = 55.0") + 1,
                  "already in this direction");
   }
-  {  // a well beyond the barrier (12 m toward a line at 10 m)
-    const std::string t = replace(lines, "distance = 40.0", "distance = 10.0");
-    expect_error(t, "[[well]] \"east piezometer\".bearing", line_of(t, "bearing = 90.0"),
-                 "on or beyond it");
-  }
-  {
-    const std::string t = replace(lines, "bearing = 315", "");
-    expect_error(t, "[[well]] \"west piezometer\".bearing", line_of(t, "[[well]]\nname = \"west"),
-                 "missing");
-  }
-  {
-    const std::string t =
-        replace(lines, "distance = 12.0\nbearing = 90.0", "distance = 12.0\nbearing = -90.0");
-    expect_error(t, "[[well]] \"east piezometer\".bearing", line_of(t, "bearing = -90.0"),
-                 "0 <= bearing");
-  }
-  {
-    const std::string t = replace(lines, "kind = \"zone\"", "kind = \"zone\"\nwidth = 3.0");
-    expect_error(t, "[[boundary]] #3.width", line_of(t, "width = 3.0"), "");
-  }
+  // a well beyond the barrier (12 m toward a line at 10 m)
+  expect_replaced_error(lines, "distance = 40.0", "distance = 10.0",
+                        "[[well]] \"east piezometer\".bearing", "bearing = 90.0",
+                        "on or beyond it");
+  expect_replaced_error(lines, "bearing = 315", "", "[[well]] \"west piezometer\".bearing",
+                        "[[well]]\nname = \"west", "missing");
+  expect_replaced_error(lines, "distance = 12.0\nbearing = 90.0",
+                        "distance = 12.0\nbearing = -90.0", "[[well]] \"east piezometer\".bearing",
+                        "bearing = -90.0", "0 <= bearing");
+  expect_replaced_error(lines, "kind = \"zone\"", "kind = \"zone\"\nwidth = 3.0",
+                        "[[boundary]] #3.width", "width = 3.0", "");
 }

@@ -26,6 +26,12 @@ TEST_CASE("Neuman tends to Theis with S without drainage and with S + Sy late", 
       CHECK(neuman_drawdown(1.0, t_aq, s_el, s_y, 3000.0, r_obs, t) ==
             Approx(theis_drawdown(1.0, t_aq, s_el, r_obs, t)).epsilon(1e-2));
   }
+  // A drainage length far beyond the wells (r / L_v = 1.5e-5, the series' tail integral): no
+  // water from the water table within the test, Theis with S (Neuman, 1974), to the 1e-3 of
+  // Stehfest's 12 terms as for Sy -> 0 above.
+  for (double t : {1e-4, 1e-2, 1.0})
+    CHECK(neuman_drawdown(1.0, t_aq, s_el, s_y, 1e6, r_obs, t) ==
+          Approx(theis_drawdown(1.0, t_aq, s_el, r_obs, t)).epsilon(1e-3));
   // Late time: Theis with S + Sy (Neuman, 1974; Neuman, 1975).
   CHECK(neuman_drawdown(1.0, t_aq, s_el, s_y, l_v, r_obs, 100.0) ==
         Approx(theis_drawdown(1.0, t_aq, s_el + s_y, r_obs, 100.0)).epsilon(1e-3));

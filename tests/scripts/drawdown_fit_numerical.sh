@@ -1,5 +1,6 @@
 #!/usr/bin/env bash
-# `aquiledger drawdown-fit -m numerical`: noise-free Theis (1935) drawdowns computed here with
+# `aquiledger drawdown-fit -m numerical`: noise-free Theis (1935) drawdowns computed by
+# tests/data/pumping/write_theis_test.py with
 # scipy.special.exp1 (s = Q / (4 pi T) E1(r^2 S / (4 T t)); T = 120 m2/d, S = 5e-4,
 # Q = 800 m3/d for 1 d, wells at 15 and 60 m, 3 decades) are fitted by the program's own flow
 # model on its radial-telescoping grid: T and S come back within 1 % (the discretisation
@@ -7,6 +8,7 @@
 #   bash drawdown_fit_numerical.sh <aquiledger> <source-dir>
 set -euo pipefail
 exe=${1:?usage: drawdown_fit_numerical.sh <aquiledger> <source-dir>}
+src=${2:?usage: drawdown_fit_numerical.sh <aquiledger> <source-dir>}
 out=$(mktemp -d)
 trap 'rm -rf "$out"' EXIT
 fail() { echo "FAIL: $*"; exit 1; }
@@ -15,20 +17,8 @@ if ! /usr/bin/python3 -c "import scipy.special" 2> /dev/null; then
   exit 0
 fi
 
-/usr/bin/python3 - "$out/test.toml" <<'PY'
-import math, sys
-from scipy.special import exp1
-T, S, Q = 120.0, 5.0e-4, 800.0
-times = [10 ** (-3 + 3 * i / 23) for i in range(24)]
-with open(sys.argv[1], "w") as f:
-    f.write('[test]\ntitle = "synthetic Theis test"\nmodel = "numerical"\n\n'
-            "[[pumping]]\ntime = 0.0\nrate = 800.0\n\n")
-    for r in (15.0, 60.0):
-        s = [Q / (4 * math.pi * T) * exp1(r * r * S / (4 * T * t)) for t in times]
-        f.write(f'[[well]]\nname = "at {r:g} m"\ndistance = {r!r}\n'
-                f"times = [{', '.join(map(repr, times))}]\n"
-                f"drawdowns = [{', '.join(map(repr, s))}]\n\n")
-PY
+/usr/bin/python3 "$src/tests/data/pumping/write_theis_test.py" "$out/test.toml" \
+  "synthetic Theis test" --well 15 --well 60
 "$exe" drawdown-fit "$out/test.toml" -o "$out/fit" > "$out/stdout"
 grep -q "numerical" "$out/stdout" || fail "the terminal summary does not name the model"
 grep -q "radii of influence" "$out/stdout" || fail "the terminal summary does not state the grid"
