@@ -397,7 +397,7 @@ std::vector<std::string> classify_aquifer(const PumpingTest& test, const ModelFi
         s_well.push_back(well.drawdowns[i]);
       }
     const DerivativeReading reading = read_derivative_shape(t, s_well);
-    const std::string who = "At " + well.name + " the logarithmic derivative ";
+    const std::string who = "At \"" + well.name + "\", the logarithmic derivative ";
     if (reading.unit_slope_start)
       text.push_back(who +
                      "first rises as fast as the drawdown itself (a unit slope on the log-log "
