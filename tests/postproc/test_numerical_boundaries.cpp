@@ -4,7 +4,8 @@
 // perpendicular lines (Ferris et al., 1962, USGS Water-Supply Paper 1536-E, the method of
 // images; the project's schedule_drawdown of postproc/well_test_models.hpp), and for a zone
 // line between aquifers of equal diffusivity T / S an image of strength (T1 - T2) / (T1 + T2)
-// (derived in docs/pumping-tests.md, "Zone line").
+// (derived in docs/pumping-tests.md, "Zone line"); a barrier with leakage (Hantush and Jacob,
+// 1955) and with casing storage (Papadopulos and Cooper, 1967), each with its image.
 #include <catch2/catch.hpp>
 #include <cmath>
 #include <numbers>

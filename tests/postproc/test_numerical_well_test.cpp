@@ -1,7 +1,10 @@
 // The numerical model of a pumping test (postproc/numerical_well_test.hpp) against Theis
 // (1935): its drawdowns at the true T and S (the discretisation error budget), a fit of
 // noise-free Theis drawdowns from a distant start, and a water-table aquifer against the late
-// Theis curve with S = Sy.
+// Theis curve with S = Sy; leakage against Hantush and Jacob (1955), casing storage against
+// Papadopulos and Cooper (1967) (with a fit, and the pumped well's own drawdown), and a
+// confined aquifer converting to a water table against Moench and Prickett (1972) (with a fit
+// of T, S and Sy).
 #include <catch2/catch.hpp>
 #include <cmath>
 #include <numbers>
