@@ -4,7 +4,8 @@
 // perpendicular lines (Ferris et al., 1962, USGS Water-Supply Paper 1536-E, the method of
 // images; the project's schedule_drawdown of postproc/well_test_models.hpp), and for a zone
 // line between aquifers of equal diffusivity T / S an image of strength (T1 - T2) / (T1 + T2)
-// (derived in docs/pumping-tests.md, "Zone line").
+// (derived in docs/pumping-tests.md, "Zone line"); a barrier with leakage (Hantush and Jacob,
+// 1955) and with casing storage (Papadopulos and Cooper, 1967), each with its image.
 #include <catch2/catch.hpp>
 #include <cmath>
 #include <numbers>
@@ -51,10 +52,12 @@ double bounded_worst_error(const PumpingTest& test, const Model& model) {
   return (sim.values - measured_targets(setup).observed).cwiseAbs().maxCoeff();
 }
 
-/// Fills every well's drawdowns with Theis (1935) at T, S and the rate schedule, plus the
-/// images of `images` (x, y of the image well in m, recharge or not) (Ferris et al., 1962).
-void fill_with_images(PumpingTest& test, double t, double s,
-                      const std::vector<std::tuple<double, double, bool>>& images) {
+/// Fills every well's drawdowns with `model` (the project's schedule_drawdown) at its
+/// parameters and the rate schedule, plus the images of `images` (x, y of the image well in m,
+/// recharge or not; Ferris et al., 1962), each a well of the pumped well's construction.
+void fill_with_model_images(PumpingTest& test, WellTestModel model,
+                            const std::vector<double>& parameters,
+                            const std::vector<std::tuple<double, double, bool>>& images) {
   for (ObservationSeries& w : test.wells) {
     const auto [x, y] = bounded_position(w);
     std::vector<ImageWell> seen;
@@ -62,9 +65,15 @@ void fill_with_images(PumpingTest& test, double t, double s,
       seen.push_back({std::hypot(ix - x, iy - y), recharge});
     w.drawdowns.clear();
     for (double time : w.times)
-      w.drawdowns.push_back(
-          schedule_drawdown(WellTestModel::theis, {t, s}, test.schedule, w.distance, time, seen));
+      w.drawdowns.push_back(schedule_drawdown(model, parameters, test.schedule, w.distance, time,
+                                              seen, test.pumped_well));
   }
+}
+
+/// Theis (1935) with the images of `images` (fill_with_model_images).
+void fill_with_images(PumpingTest& test, double t, double s,
+                      const std::vector<std::tuple<double, double, bool>>& images) {
+  fill_with_model_images(test, WellTestModel::theis, {t, s}, images);
 }
 
 }  // namespace
@@ -186,4 +195,57 @@ TEST_CASE(
     CHECK(fit.fit.parameters[2] == Approx(t2).epsilon(0.01));
     CHECK(fit.fit.parameters[3] == Approx(s2).epsilon(0.01));
   }
+}
+
+TEST_CASE("leakage beside a barrier: the numerical model within 1 % of Hantush-Jacob's images",
+          "[numerical_boundaries]") {
+  // Hantush and Jacob (1955) (the project's W(u, r/B), checked against scipy in
+  // test_analytical_solutions.cpp) with the barrier's image (Ferris et al., 1962): leakage
+  // from a bed at the static level is linear in the drawdown and the same on both sides of
+  // the line, so the image method holds as for Theis. T = 350 m2/d, S = 2e-4, K'/b' = 5e-4
+  // 1/d (B = 837 m, held), a barrier 150 m east. Budget 1 % of Q / (4 pi T), the confined
+  // model's (neither the leakage nor the line alone adds a measured share, above).
+  const double t = 350.0, s = 2e-4, leakance = 5e-4;
+  PumpingTest test;
+  test.schedule = {{0.0, bounded_rate}};
+  test.leakance = TestLeakance{false, leakance};
+  test.lines.push_back({TestLineKind::barrier, 150.0, 90.0});
+  test.wells = {bounded_well(25.0, 90.0, test), bounded_well(80.0, 180.0, test),
+                bounded_well(60.0, 300.0, test)};
+  fill_with_model_images(test, WellTestModel::hantush_jacob, {t, s, std::sqrt(t / leakance)},
+                         {{300.0, 0.0, false}});
+  // With the default widths (growing by 1.1) measured 1.08 %, over the budget: late at
+  // 25 m, toward the barrier, where the leaky cone's steady part is resolved by the widths
+  // (steps growing by 1.01 instead of 1.02: 1.23 %; the far edge at 5 radii instead of 3:
+  // unchanged). With widths growing by 1.05 it is 0.65 %, checked here against the budget,
+  // so that the model converges to the images; the default's shortfall is in
+  // docs/pumping-tests.md ("Not yet done").
+  NumericalTestSettings finer;
+  finer.width_growth = 1.05;
+  const Model m = numerical_test_model(test, {t, s}, t, s, finer);
+  REQUIRE(m.external_heads.size() == 1);
+  const double slope = bounded_rate / (4.0 * std::numbers::pi * t);
+  CHECK(bounded_worst_error(test, m) < 0.01 * slope);
+}
+
+TEST_CASE("casing storage beside a barrier: the numerical model within 2 % of the images",
+          "[numerical_boundaries]") {
+  // Papadopulos and Cooper (1967) (the project's closed form) at each well plus the same at
+  // its image across the barrier (Ferris et al., 1962). The image of a large-diameter well is
+  // a large-diameter well; the sum leaves out that each casing also feeds the other's
+  // drawdown at the well: the casing then supplies pi r_c^2 d(s_image)/dt more, a share of
+  // the rate of r_c^2 exp(-u) / (4 T t) with u = R^2 S / (4 T t) of the image at R, at most
+  // r_c^2 / (e R^2 S) = 0.37 % (u = 1) for R = 300 m (derived here). T = 50 m2/d, S = 1e-4,
+  // r_w = 0.2, r_c = 0.3 m, 500 m3/d, a barrier 150 m east, wells at 10 and 30 m. Budget the
+  // casing model's 2 % of Q / (4 pi T) (test_numerical_well_test.cpp). Measured 1.96 %.
+  const double t = 50.0, s = 1e-4;
+  PumpingTest test;
+  test.schedule = {{0.0, 500.0}};
+  test.pumped_well = PumpedWellRadii{0.2, 0.3};
+  test.lines.push_back({TestLineKind::barrier, 150.0, 90.0});
+  test.wells = {bounded_well(10.0, 90.0, test), bounded_well(30.0, 180.0, test)};
+  fill_with_model_images(test, WellTestModel::papadopulos_cooper, {t, s}, {{300.0, 0.0, false}});
+  const Model m = numerical_test_model(test, {t, s}, t, s);
+  const double slope = 500.0 / (4.0 * std::numbers::pi * t);
+  CHECK(bounded_worst_error(test, m) < 0.02 * slope);
 }

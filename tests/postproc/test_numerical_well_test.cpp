@@ -1,7 +1,10 @@
 // The numerical model of a pumping test (postproc/numerical_well_test.hpp) against Theis
 // (1935): its drawdowns at the true T and S (the discretisation error budget), a fit of
 // noise-free Theis drawdowns from a distant start, and a water-table aquifer against the late
-// Theis curve with S = Sy.
+// Theis curve with S = Sy; leakage against Hantush and Jacob (1955), casing storage against
+// Papadopulos and Cooper (1967) (with a fit, and the pumped well's own drawdown), and a
+// confined aquifer converting to a water table against Moench and Prickett (1972) (with a fit
+// of T, S and Sy).
 #include <catch2/catch.hpp>
 #include <cmath>
 #include <numbers>
@@ -185,19 +188,19 @@ TEST_CASE("a leaky confining bed in the numerical model gives Hantush and Jacob'
   CHECK(fit.fit.parameters[2] == Approx(leakance).epsilon(0.01));
 }
 
-TEST_CASE(
-    "the pumped well's casing storage in the numerical model gives Papadopulos and Cooper's "
-    "drawdowns",
-    "[numerical_well_test]") {
-  // Papadopulos and Cooper (1967), the project's papadopulos_cooper_drawdown (Stehfest
-  // inversion, checked against its early and late limits in test_well_test_models.cpp):
-  // T = 50 m2/d, S = 1e-4, r_w = 0.2 m, r_c = 0.3 m, 500 m3/d; the casing supplies most of the
-  // rate until about 250 r_c^2 / T = 0.45 d.
+namespace {
+
+/// Papadopulos and Cooper (1967) drawdowns of a large-diameter well (the project's
+/// papadopulos_cooper_drawdown: Stehfest inversion, checked against its early and late limits
+/// in test_well_test_models.cpp): T = 50 m2/d, S = 1e-4, r_w = 0.2 m, r_c = 0.3 m, 500 m3/d
+/// for 1 d, wells at `distances`, 24 times log-spaced from 1e-3 d. The casing supplies most of
+/// the rate until about 250 r_c^2 / T = 0.45 d.
+PumpingTest casing_test(const std::vector<double>& distances) {
   const double t = 50.0, s = 1e-4, rw = 0.2, rc = 0.3;
   PumpingTest test;
   test.schedule = {{0.0, 500.0}};
   test.pumped_well = PumpedWellRadii{rw, rc};
-  for (double r : {5.0, 20.0}) {
+  for (double r : distances) {
     ObservationSeries w;
     w.name = "well at " + std::to_string(r);
     w.distance = r;
@@ -206,8 +209,157 @@ TEST_CASE(
       w.drawdowns.push_back(papadopulos_cooper_drawdown(500.0, t, s, rw, rc, r, time));
     test.wells.push_back(std::move(w));
   }
+  return test;
+}
+
+}  // namespace
+
+TEST_CASE(
+    "the pumped well's casing storage in the numerical model gives Papadopulos and Cooper's "
+    "drawdowns",
+    "[numerical_well_test]") {
+  const double t = 50.0, s = 1e-4;
+  const PumpingTest test = casing_test({5.0, 20.0});
   const Model m = numerical_test_model(test, {t, s}, t, s);
   // Measured 1.9 % of Q / (4 pi T), late at 5 m: the well's cell is 5 r_w = 0.2 of the
   // nearest distance wide there (the confined budget's share of a quarter is 2.4 %).
   CHECK(worst_drawdown_error(test, m) < 0.02 * 500.0 / (4.0 * std::numbers::pi * t));
+}
+
+TEST_CASE("noise-free Papadopulos-Cooper drawdowns fitted by the numerical model give T and S",
+          "[numerical_well_test]") {
+  // The drawdowns above at wells 10 and 30 m away, fitted from a start a factor 2 and 5 away.
+  // Budget 2 %, the casing model's (above): a drawdown error e shifts ln S by about
+  // e / (Q / (4 pi T)) (Cooper and Jacob, 1946); here the model's worst error is 1.4 % of
+  // Q / (4 pi T) (measured; the well's cell, r_w / 0.198 wide, is a tenth of 10 m). Measured
+  // T +0.33 %, S -1.5 % (5 runs after 13 coarse ones). With wells at 5 and 20 m (error 1.9 %)
+  // S came out -2.1 %, beyond the budget: a fit needs wells farther than about 50 r_w.
+  const PumpingTest test = casing_test({10.0, 30.0});
+  const double slope = 500.0 / (4.0 * std::numbers::pi * 50.0);
+  CHECK(worst_drawdown_error(test, numerical_test_model(test, {50.0, 1e-4}, 50.0, 1e-4)) <
+        0.02 * slope);
+  const ModelFit fit = fit_numerical_pumping_test(test, {100.0, 5e-4}, {1e-2, 1e-8}, {1e5, 0.5});
+  CHECK(fit.fit.converged);
+  CHECK(fit.fit.parameters[0] == Approx(50.0).epsilon(0.02));
+  CHECK(fit.fit.parameters[1] == Approx(1e-4).epsilon(0.02));
+}
+
+TEST_CASE("the pumped well's own drawdown in the numerical model follows Theis's slope at r_w",
+          "[numerical_well_test]") {
+  // A well at r_w = 0.2 m is the pumped well: its head is that of the well's cell, r_w / 0.198
+  // wide so that it stands for the head at r_w (Peaceman, 1978, from memory). Reference: the
+  // Papadopulos and Cooper (1967) drawdown at r = r_w, which late (t > 250 r_c^2 / T =
+  // 0.45 d) is Theis's (1935) at r_w. Checks: (1) late, the rise from 0.41 to 1 d,
+  // which gives T (Cooper and Jacob, 1946), within the confined budget of 1 % of
+  // Q / (4 pi T); measured 0.15 %. The drawdown level itself is not checked: it is 9.3 % of
+  // Q / (4 pi T) high late (0.07 m of 13.7 m), of which about 1.8 % is the cone's error seen at
+  // 5 m and the rest the well's cell, not yet explained (docs/pumping-tests.md, "Well-bore
+  // storage" and "Not yet done"); no budget derived from the method covers it.
+  const double t = 50.0, s = 1e-4;
+  const double slope = 500.0 / (4.0 * std::numbers::pi * t);
+  const PumpingTest test = casing_test({0.2, 5.0});
+  const Model m = numerical_test_model(test, {t, s}, t, s);
+  CHECK(m.observations[0].cell.value == m.wells.front().cell.value);
+  const EstimationSetup setup = numerical_test_setup(test, m, {0.1, 0.1}, {10.0, 10.0});
+  const SimulatedTargets sim = simulate_targets(m, setup, Eigen::VectorXd::Ones(2));
+  const MeasuredTargets ref = measured_targets(setup);
+  REQUIRE(test.wells[0].times[20] > 0.4);
+  CHECK(std::abs((sim.values[23] - sim.values[20]) - (ref.observed[23] - ref.observed[20])) <
+        0.01 * slope);
+}
+
+namespace {
+
+/// Moench and Prickett (1972), Water Resour. Res. 8(2) 494-499 (the form from memory; the
+/// similarity derivation is in docs/pumping-tests.md, "Conversion"): a line sink of rate Q in
+/// an aquifer confined (storativity S) until the drawdown reaches s_c (the static level above
+/// the confining top), water-table (Sy) within the front r < R(t) = sqrt(4 T t a), with T the
+/// same in both zones. Inside s = s_c + Q / (4 pi T) [E1(r^2 Sy / (4 T t)) - E1(a Sy)],
+/// outside s = s_c E1(r^2 S / (4 T t)) / E1(a S), a the root of the flux's continuity at the
+/// front, Q / (4 pi T) exp(-a Sy) = s_c exp(-a S) / E1(a S). E1 the project's
+/// theis_well_function (Boost.Math, checked against scipy.special.exp1 in
+/// test_analytical_solutions.cpp).
+double moench_prickett_drawdown(double q, double t, double s, double sy, double s_c, double r,
+                                double time) {
+  const double slope = q / (4.0 * std::numbers::pi * t);
+  const auto gap = [&](double a) {
+    return slope * std::exp(-a * sy) - s_c * std::exp(-a * s) / theis_well_function(a * s);
+  };
+  // The gap falls from slope > 0 at a -> 0 to below 0: bisection on ln a.
+  double lo = std::log(1e-12 / s), hi = std::log(50.0 / s);
+  for (int i = 0; i < 200; ++i) {
+    const double mid = 0.5 * (lo + hi);
+    (gap(std::exp(mid)) > 0.0 ? lo : hi) = mid;
+  }
+  const double a = std::exp(0.5 * (lo + hi));
+  const double u = r * r / (4.0 * t * time);
+  if (u < a)  // inside the front
+    return s_c + slope * (theis_well_function(u * sy) - theis_well_function(a * sy));
+  return s_c * theis_well_function(u * s) / theis_well_function(a * s);
+}
+
+/// A conversion test: 800 m3/d for 1 d into an aquifer of T = 120 m2/d, S = 5e-4, Sy = 0.1
+/// whose confining top lies s_c = 1 m below the static level (0) and base 200 m below it; wells
+/// at 15 and 60 m, 24 times log-spaced from 1e-3 d. The front passes 15 m at about 0.05 d and
+/// 60 m at about 0.8 d, so both wells see both storages (the design of docs/pumping-tests.md,
+/// "Conversion").
+PumpingTest conversion_test() {
+  PumpingTest test;
+  test.schedule = {{0.0, 800.0}};
+  test.aquifer = TestAquiferGeometry{true, -1.0, -200.0, 0.0};
+  for (double r : {15.0, 60.0}) {
+    ObservationSeries w;
+    w.name = "well at " + std::to_string(r);
+    w.distance = r;
+    for (int i = 0; i < 24; ++i) w.times.push_back(std::pow(10.0, -3.0 + 3.0 * i / 23.0));
+    for (double time : w.times)
+      w.drawdowns.push_back(moench_prickett_drawdown(800.0, 120.0, 5e-4, 0.1, 1.0, r, time));
+    test.wells.push_back(std::move(w));
+  }
+  return test;
+}
+
+}  // namespace
+
+TEST_CASE("a confined aquifer converting to a water table gives Moench and Prickett's drawdowns",
+          "[numerical_well_test]") {
+  const double t = 120.0, s = 5e-4, sy = 0.1, s_c = 1.0, b = 199.0;
+  const double slope = 800.0 / (4.0 * std::numbers::pi * t);
+  // The reference's own limits: before the front arrives the outer form holds, and far out
+  // early it tends to zero; inside, it exceeds s_c.
+  CHECK(moench_prickett_drawdown(800.0, t, s, sy, s_c, 15.0, 1.0) > s_c);
+  CHECK(moench_prickett_drawdown(800.0, t, s, sy, s_c, 60.0, 1e-3) < 0.01);
+  PumpingTest test = conversion_test();
+  const Model m = numerical_test_model(test, {t, s, sy}, t, s);
+  REQUIRE(m.aquifer.condition == Condition::switching);
+  const EstimationSetup setup = numerical_test_setup(test, m, {0.1, 0.1, 0.1}, {10.0, 10.0, 10.0});
+  const SimulatedTargets sim = simulate_targets(m, setup, Eigen::VectorXd::Ones(3));
+  const MeasuredTargets measured = measured_targets(setup);
+  // Budget per drawdown: the confined model's 1 % of Q / (4 pi T) (above), plus the water
+  // table's thinning, which the reference leaves out (T the same in both zones): the model's T
+  // falls with the saturated thickness b - (s - s_c) below the top, and its drawdown exceeds a
+  // constant-T one by about (s - s_c)^2 / (2 b) (Jacob, 1944, the correction s - s^2 / (2 b) of
+  // an unconfined drawdown; from memory). Measured worst 0.96 % of Q / (4 pi T) at 15 m at
+  // 0.04 d, as the front nears the well, and 0.0042 m at 15 m at 1 d (s = 2.21 m).
+  for (Eigen::Index i = 0; i < sim.values.size(); ++i) {
+    const double thinning = std::pow(std::max(0.0, measured.observed[i] - s_c), 2) / (2.0 * b);
+    INFO("drawdown " << i << " reference " << measured.observed[i]);
+    CHECK(std::abs(sim.values[i] - measured.observed[i]) < 0.01 * slope + thinning);
+  }
+}
+
+TEST_CASE("noise-free conversion drawdowns fitted by the numerical model give T, S and Sy to 1 %",
+          "[numerical_well_test]") {
+  // Moench and Prickett (1972) drawdowns (above) fitted from a start a factor 2 away in each
+  // parameter. Budget: the drawdown budget of 1 % of Q / (4 pi T) shifts ln S (early, before
+  // the front) and ln Sy (late, inside it) by about 1 % each (Cooper and Jacob, 1946), and T
+  // by less. Measured T +0.17 %, S +0.54 %, Sy +0.30 % (5 runs after 18 coarse ones).
+  const ModelFit fit = fit_numerical_pumping_test(conversion_test(), {240.0, 1e-3, 0.05},
+                                                  {1.0, 1e-7, 1e-3}, {1e5, 0.5, 0.5});
+  CHECK(fit.fit.converged);
+  REQUIRE(fit.parameter_names ==
+          std::vector<std::string>{"transmissivity", "storativity", "specific_yield"});
+  CHECK(fit.fit.parameters[0] == Approx(120.0).epsilon(0.01));
+  CHECK(fit.fit.parameters[1] == Approx(5e-4).epsilon(0.01));
+  CHECK(fit.fit.parameters[2] == Approx(0.1).epsilon(0.01));
 }
