@@ -70,7 +70,19 @@ void use_simplicial(cholmod_common& c) {
   c.final_resymbol = 1;
 }
 
+/// Share of explicit zeros CHOLMOD may add when it merges supernodes of up to 4, 16 and 48
+/// columns (its defaults 0.8, 0.1, 0.05; CHOLMOD User Guide, Common->zrelax; from memory),
+/// halved for the large factors METIS orders. At 1e6 confined cells the factor then holds
+/// 46.6 million values instead of 52.6 (a 0.4 GiB factor loses 46 MB, the run's peak 48 bytes
+/// per cell) in 303,000 supernodes instead of 182,000; the kept factor's solve pair costs the
+/// same (0.081 to 0.085 s of CPU), analysis and factorisation about as much within the noise
+/// of a loaded machine (benchmarks/cholesky_solve_cost, docs/performance.md, "Eighth pass").
+void use_fewer_stored_zeros(cholmod_common& c) {
+  c.zrelax[0] = 0.4, c.zrelax[1] = 0.05, c.zrelax[2] = 0.02;
+}
+
 void use_metis(cholmod_common& c) {
+  use_fewer_stored_zeros(c);
   c.nmethods = 1;
   c.method[0].ordering = CHOLMOD_METIS;
   c.postorder = 1;
