@@ -6,8 +6,8 @@
 // Why our own loops: CHOLMOD 3.0 solves supernode by supernode with one BLAS call (dtrsv,
 // dgemv) each, and on the small supernodes of a 2D grid the calls' set-up (OpenBLAS locks a
 // mutex per call for its buffer) and the single thread, not the memory traffic, set the time:
-// at 1e6 confined cells its solve took 0.11 s against the about 0.015 s the factor's 0.3 GB
-// need at the measured bandwidth (docs/performance.md, "Eighth pass").
+// at 1e6 confined cells its solve pair took 0.11 s against the 0.022 to 0.032 s in which the
+// triad bandwidth streams the factor's 0.42 GB twice (docs/performance.md, "Eighth pass").
 #include <cstdint>
 #include <vector>
 
