@@ -11,30 +11,11 @@
 #include <vector>
 
 #include "benchmarks/bench_support.hpp"
+#include "benchmarks/grid_matrix.hpp"
 
 namespace {
 
 using Matrix = Eigen::SparseMatrix<double>;
-
-/// Unit conductance between neighbours and storage s on the diagonal: the confined system.
-Matrix grid_matrix(int n, double storage) {
-  std::vector<Eigen::Triplet<double>> entries;
-  const auto cell = [n](int i, int j) { return i * n + j; };
-  for (int i = 0; i < n; ++i)
-    for (int j = 0; j < n; ++j) {
-      double diagonal = storage;
-      const int neighbours[4][2] = {{i - 1, j}, {i + 1, j}, {i, j - 1}, {i, j + 1}};
-      for (const auto& [r, c] : neighbours) {
-        if (r < 0 || r >= n || c < 0 || c >= n) continue;
-        entries.emplace_back(cell(i, j), cell(r, c), -1.0);
-        diagonal += 1.0;
-      }
-      entries.emplace_back(cell(i, j), cell(i, j), diagonal);
-    }
-  Matrix a(n * n, n * n);
-  a.setFromTriplets(entries.begin(), entries.end());
-  return a;
-}
 
 /// Median seconds of factorise-and-solve, the values changed a little each time as a time
 /// step's would be.
@@ -67,7 +48,7 @@ int main(int argc, char** argv) {
   std::printf("%10s %16s %16s %8s\n", "cells", "supernodal_ms", "simplicial_ms", "ratio");
   for (const double cells : sizes) {
     const int n = static_cast<int>(std::lround(std::sqrt(cells)));
-    const Matrix a = grid_matrix(n, 1e-2);
+    const Matrix a = aquiledger::bench::storage_grid_matrix(n, 1e-2);
     const double super =
         factorise_and_solve<Eigen::CholmodSupernodalLLT<Matrix, Eigen::Lower>>(a, repeats);
     const double simple =

@@ -1,13 +1,17 @@
 // The direct backends. This is the only file that includes SuiteSparse headers.
 #include <dlfcn.h>
+#include <malloc.h>
+#include <omp.h>
 
 #include <Eigen/CholmodSupport>
 #include <Eigen/IterativeLinearSolvers>
 #include <Eigen/UmfPackSupport>
 #include <algorithm>
+#include <memory>
 #include <vector>
 
 #include "solver/linear_solver.hpp"
+#include "solver/supernodal_solve.hpp"
 
 namespace aquiledger {
 
@@ -23,6 +27,18 @@ void set_blas_threads(int n) {
   static const auto set =
       reinterpret_cast<SetThreads>(dlsym(RTLD_DEFAULT, "openblas_set_num_threads"));
   if (set) set(n);
+}
+
+/// Hands the heap's free memory back to the system. METIS's ordering of a large graph frees
+/// its arrays before the factorisation, but the C library keeps much of the freed space in
+/// the heap (its mmap threshold rises with each large block freed), and the factor then comes
+/// on top: at 1e6 confined cells the process held 105 MiB more after the analysis than
+/// before it, 21 MiB less with this call, and its peak fell from 1011 to 970 MB
+/// (docs/performance.md, "Eighth pass").
+void return_freed_memory() {
+#ifdef __GLIBC__
+  malloc_trim(0);
+#endif
 }
 
 /// From this many unknowns CHOLMOD's automatic choice of ordering is replaced by METIS nested
@@ -54,7 +70,19 @@ void use_simplicial(cholmod_common& c) {
   c.final_resymbol = 1;
 }
 
+/// Share of explicit zeros CHOLMOD may add when it merges supernodes of up to 4, 16 and 48
+/// columns (its defaults 0.8, 0.1, 0.05; CHOLMOD User Guide, Common->zrelax; from memory),
+/// halved for the large factors METIS orders. At 1e6 confined cells the factor then holds
+/// 46.6 million values instead of 52.6 (a 0.4 GiB factor loses 46 MB, the run's peak 48 bytes
+/// per cell) in 303,000 supernodes instead of 182,000; the kept factor's solve pair costs the
+/// same (0.081 to 0.085 s of CPU), analysis and factorisation about as much within the noise
+/// of a loaded machine (benchmarks/cholesky_solve_cost, docs/performance.md, "Eighth pass").
+void use_fewer_stored_zeros(cholmod_common& c) {
+  c.zrelax[0] = 0.4, c.zrelax[1] = 0.05, c.zrelax[2] = 0.02;
+}
+
 void use_metis(cholmod_common& c) {
+  use_fewer_stored_zeros(c);
   c.nmethods = 1;
   c.method[0].ordering = CHOLMOD_METIS;
   c.postorder = 1;
@@ -73,8 +101,20 @@ class KeptCholesky : public Eigen::CholmodSupernodalLLT<SparseMatrix, Eigen::Low
     cholmod_free_dense(&y_, &cholmod());
     cholmod_free_dense(&e_, &cholmod());
   }
-  /// x = A^-1 b; false when CHOLMOD fails (x unchanged).
+  /// x = A^-1 b; false when CHOLMOD fails (x unchanged). A supernodal factor is solved by our
+  /// own substitution on the threads OpenMP has (solver/supernodal_solve.hpp: at 1e6 confined
+  /// cells 0.080 s of CPU against CHOLMOD's 0.110 on one thread, docs/performance.md).
   bool solve_into(const Eigen::VectorXd& b, Eigen::VectorXd& x) {
+    if (m_cholmodFactor != nullptr && info() == Eigen::Success && m_cholmodFactor->is_super &&
+        m_cholmodFactor->is_ll && m_cholmodFactor->xtype == CHOLMOD_REAL &&
+        m_cholmodFactor->itype == CHOLMOD_INT) {
+      const SupernodalFactor f = supernodal_view();
+      if (!substitution_)
+        substitution_ = std::make_unique<SupernodalSolve>(f, omp_get_max_threads());
+      x.resize(b.size());
+      substitution_->solve(f, b.data(), x.data());
+      return true;
+    }
     if (!solve_dense(b.data(), b.rows(), 1)) return false;
     x = Eigen::Map<const Eigen::VectorXd>(static_cast<const double*>(x_->x), b.size());
     return true;
@@ -90,6 +130,19 @@ class KeptCholesky : public Eigen::CholmodSupernodalLLT<SparseMatrix, Eigen::Low
   }
 
  private:
+  SupernodalFactor supernodal_view() const {
+    const cholmod_factor& l = *m_cholmodFactor;
+    SupernodalFactor f;
+    f.n = static_cast<int>(l.n);
+    f.n_supernodes = static_cast<int>(l.nsuper);
+    f.first_column = static_cast<const int*>(l.super);
+    f.row_start = static_cast<const int*>(l.pi);
+    f.value_start = static_cast<const int*>(l.px);
+    f.rows = static_cast<const int*>(l.s);
+    f.values = static_cast<const double*>(l.x);
+    f.permutation = static_cast<const int*>(l.Perm);
+    return f;
+  }
   /// The solution of the rows x columns right-hand side b (column-major) into x_.
   bool solve_dense(const double* b, Eigen::Index rows, Eigen::Index columns) {
     if (m_cholmodFactor == nullptr || info() != Eigen::Success) return false;
@@ -104,6 +157,7 @@ class KeptCholesky : public Eigen::CholmodSupernodalLLT<SparseMatrix, Eigen::Low
                           &cholmod()) != 0;
   }
 
+  std::unique_ptr<SupernodalSolve> substitution_;  ///< the plan, kept with the pattern
   cholmod_dense* x_ = nullptr;
   cholmod_dense* y_ = nullptr;
   cholmod_dense* e_ = nullptr;
@@ -181,6 +235,7 @@ class DirectSolver final : public LinearSolver {
       configure(factorization_, ordering_, a.rows());
       factorization_.analyzePattern(a);
       analysed_ = true;
+      if (a.rows() >= simplicial_below) return_freed_memory();
     }
     const bool changed = values_changed(a);
     if (changed) factorization_.factorize(a);
