@@ -386,6 +386,24 @@ std::vector<std::string> classify_aquifer(const PumpingTest& test, const ModelFi
     text.push_back(fitted.str() +
                    " lies in the range of specific yields (about 0.01 to 0.3): the "
                    "test may reflect water-table (unconfined) conditions.");
+  // What the fitted model already represents, so that a suggestion is not made for it.
+  const bool numerical = fit.model == WellTestModel::numerical;
+  const auto has_line = [&](TestLineKind kind, bool recharge_image) {
+    if (!numerical)  // the closed forms add the wells' images; the numerical model its lines
+      for (const ObservationSeries& well : test.wells)
+        for (const ImageWell& image : well.images)
+          if (image.recharge == recharge_image) return true;
+    return numerical && std::any_of(test.lines.begin(), test.lines.end(),
+                                    [&](const TestLine& line) { return line.kind == kind; });
+  };
+  const bool fits_casing = fit.model == WellTestModel::papadopulos_cooper ||
+                           (numerical && test.pumped_well.casing > 0.0);
+  const bool fits_leakage = fit.model == WellTestModel::hantush_jacob ||
+                            fit.model == WellTestModel::hantush_aquitard_storage ||
+                            (numerical && test.leakance.has_value());
+  const bool fits_recharge = has_line(TestLineKind::recharge, true);
+  const bool fits_barrier = has_line(TestLineKind::barrier, false);
+  const std::string fitted_has = "; the fitted model (" + model_name(fit.model) + ") includes ";
   // The derivative's shape over the first pumping step (read_derivative_shape).
   const double end = first_step_end(test);
   for (const ObservationSeries& well : test.wells) {
@@ -402,27 +420,35 @@ std::vector<std::string> classify_aquifer(const PumpingTest& test, const ModelFi
       text.push_back(who +
                      "first rises as fast as the drawdown itself (a unit slope on the log-log "
                      "chart), as the storage of a large-diameter well would cause "
-                     "(Papadopulos and Cooper, 1967); a model with well-bore storage may be "
-                     "worth fitting.");
+                     "(Papadopulos and Cooper, 1967)" +
+                     (fits_casing ? fitted_has + "it."
+                                  : "; a model with well-bore storage may be worth fitting."));
     switch (reading.shape) {
       case DerivativeShape::dip_and_return:
         text.push_back(who +
                        "dips and rises again, the trough typical of delayed yield from a "
-                       "water-table aquifer (Neuman, 1974), or of a double-porosity aquifer; a "
-                       "delayed-yield model may be worth fitting.");
+                       "water-table aquifer (Neuman, 1974), or of a double-porosity aquifer" +
+                       (has_sy ? fitted_has + "delayed yield."
+                               : "; a delayed-yield model may be worth fitting."));
         break;
       case DerivativeShape::falls_off:
         text.push_back(who +
                        "falls off at late time, as leakage through an aquitard (Hantush and "
-                       "Jacob, 1955) or a recharge boundary would cause; a leaky model or a "
-                       "recharge image may be worth trying.");
+                       "Jacob, 1955) or a recharge boundary would cause" +
+                       (fits_leakage    ? fitted_has + "leakage."
+                        : fits_recharge ? fitted_has + "a recharge boundary."
+                                        : "; a leaky model or a recharge image may be worth "
+                                          "trying."));
         break;
       case DerivativeShape::rises_late:
         text.push_back(who +
                        "levels off and then rises at late time, as a barrier boundary (about "
                        "doubling for one straight barrier; Ferris et al., 1962) or the end of a "
-                       "shallow delayed-yield trough would cause; a barrier image or a "
-                       "delayed-yield model may be worth trying.");
+                       "shallow delayed-yield trough would cause" +
+                       (fits_barrier ? fitted_has + "a barrier."
+                        : has_sy     ? fitted_has + "delayed yield."
+                                     : "; a barrier image or a delayed-yield model may be "
+                                       "worth trying."));
         break;
       case DerivativeShape::plateau:
         text.push_back(who +

@@ -80,4 +80,8 @@ TEST_CASE("noise-free Neuman test is recovered to 0.5 %", "[neuman][pumping_test
     trough = trough || s.find("delayed yield") != std::string::npos;
   INFO(result.classification[1]);
   CHECK(trough);
+  // The fitted model already has delayed yield: the sentence says so instead of suggesting it.
+  CHECK(result.classification[1].find("the fitted model (neuman) includes delayed yield") !=
+        std::string::npos);
+  CHECK(result.classification[1].find("may be worth") == std::string::npos);
 }

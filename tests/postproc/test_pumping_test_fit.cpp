@@ -137,14 +137,28 @@ TEST_CASE("classification words storativity ranges and derivative shapes as sugg
       synthesise(WellTestModel::hantush_jacob, {250.0, 1.0e-4, 150.0}), std::nullopt);
   bool falls = false;
   for (const std::string& s : leaky.classification)
-    falls = falls || s.find("falls off") != std::string::npos;
+    if (s.find("falls off") != std::string::npos) {
+      falls = true;
+      // auto chose the leaky model, so the sentence does not suggest fitting one.
+      CHECK(s.find("the fitted model (hantush-jacob) includes leakage.") != std::string::npos);
+    }
   CHECK(falls);
+  const PumpingTestInterpretation leaky_theis = interpret_pumping_test(
+      synthesise(WellTestModel::hantush_jacob, {250.0, 1.0e-4, 150.0}), WellTestModel::theis);
+  bool suggests_leaky = false;
+  for (const std::string& s : leaky_theis.classification)
+    suggests_leaky = suggests_leaky || s.find("a leaky model or a recharge image may be worth "
+                                              "trying") != std::string::npos;
+  CHECK(suggests_leaky);
   // A barrier: the derivative rises at late time (Ferris et al., 1962: the slope doubles). The
   // image at 400 m acts (u_image = 0.033 d / t < 1) over the last third of the first step.
   const PumpingTestInterpretation barrier = interpret_pumping_test(
       synthesise(WellTestModel::theis, {600.0, 5.0e-4}, {{400.0, false}}), WellTestModel::theis);
   bool rises = false;
   for (const std::string& s : barrier.classification)
-    rises = rises || s.find("rises at late time") != std::string::npos;
+    if (s.find("rises at late time") != std::string::npos) {
+      rises = true;
+      CHECK(s.find("the fitted model (theis) includes a barrier.") != std::string::npos);
+    }
   CHECK(rises);
 }
