@@ -147,8 +147,9 @@ TEST_CASE("classification words storativity ranges and derivative shapes as sugg
       synthesise(WellTestModel::hantush_jacob, {250.0, 1.0e-4, 150.0}), WellTestModel::theis);
   bool suggests_leaky = false;
   for (const std::string& s : leaky_theis.classification)
-    suggests_leaky = suggests_leaky || s.find("a leaky model or a recharge image may be worth "
-                                              "trying") != std::string::npos;
+    suggests_leaky = suggests_leaky || s.find(
+                                           "a leaky model or a recharge image may be worth "
+                                           "trying") != std::string::npos;
   CHECK(suggests_leaky);
   // A barrier: the derivative rises at late time (Ferris et al., 1962: the slope doubles). The
   // image at 400 m acts (u_image = 0.033 d / t < 1) over the last third of the first step.
