@@ -64,9 +64,10 @@ int main(int argc, char** argv) {
     for (std::size_t j = 0; j < guess.start.size() && 3 + j < static_cast<std::size_t>(argc); ++j)
       guess.start[j] = std::atof(argv[3 + j]);
   fmt::print("parameters:");
+  const std::vector<std::string> names = numerical_parameter_names(test);
   for (std::size_t j = 0; j < guess.start.size(); ++j)
-    fmt::print(" {} {:.4g}", numerical_parameter_names(test)[j], guess.start[j]);
-  fmt::print(" (start values)\n");
+    fmt::print(" {} {:.4g}", names[j], guess.start[j]);
+  fmt::print(at ? " (given with --at)\n" : " (start values)\n");
   const Model m = numerical_test_model(test, guess.start, guess.start[0], guess.start[1], settings);
   NumericalCostObserver obs;
   const auto t0 = std::chrono::steady_clock::now();
