@@ -67,7 +67,7 @@ int main(int argc, char** argv) {
   const std::vector<std::string> names = numerical_parameter_names(test);
   for (std::size_t j = 0; j < guess.start.size(); ++j)
     fmt::print(" {} {:.4g}", names[j], guess.start[j]);
-  fmt::print(at ? " (given with --at)\n" : " (start values)\n");
+  fmt::print("{}\n", at ? " (given with --at)" : " (start values)");
   const Model m = numerical_test_model(test, guess.start, guess.start[0], guess.start[1], settings);
   NumericalCostObserver obs;
   const auto t0 = std::chrono::steady_clock::now();
