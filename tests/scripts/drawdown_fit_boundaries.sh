@@ -12,15 +12,10 @@
 # is refused with file, line and key, nothing written.
 #   bash drawdown_fit_boundaries.sh <aquiledger> <source-dir>
 set -euo pipefail
-exe=${1:?usage: drawdown_fit_boundaries.sh <aquiledger> <source-dir>}
-src=${2:?usage: drawdown_fit_boundaries.sh <aquiledger> <source-dir>}
-out=$(mktemp -d)
-trap 'rm -rf "$out"' EXIT
-fail() { echo "FAIL: $*"; exit 1; }
-if ! /usr/bin/python3 -c "import scipy.special" 2> /dev/null; then
-  echo "SKIPPED: /usr/bin/python3 has no scipy (Debian's python3-scipy)"
-  exit 0
-fi
+# shellcheck source=../support/script_start.sh
+source "${BASH_SOURCE[0]%/*}/../support/script_start.sh"
+skip_unless_scipy
+make_scratch out
 
 /usr/bin/python3 "$src/tests/data/pumping/write_theis_test.py" "$out/test.toml" \
   "synthetic test between two lines" --well 15:45 --well 40:270 --barrier 60:90 --recharge 90:180

@@ -7,15 +7,10 @@
 # budget of docs/pumping-tests.md), and the files and the page name the model.
 #   bash drawdown_fit_numerical.sh <aquiledger> <source-dir>
 set -euo pipefail
-exe=${1:?usage: drawdown_fit_numerical.sh <aquiledger> <source-dir>}
-src=${2:?usage: drawdown_fit_numerical.sh <aquiledger> <source-dir>}
-out=$(mktemp -d)
-trap 'rm -rf "$out"' EXIT
-fail() { echo "FAIL: $*"; exit 1; }
-if ! /usr/bin/python3 -c "import scipy.special" 2> /dev/null; then
-  echo "SKIPPED: /usr/bin/python3 has no scipy (Debian's python3-scipy)"
-  exit 0
-fi
+# shellcheck source=../support/script_start.sh
+source "${BASH_SOURCE[0]%/*}/../support/script_start.sh"
+skip_unless_scipy
+make_scratch out
 
 /usr/bin/python3 "$src/tests/data/pumping/write_theis_test.py" "$out/test.toml" \
   "synthetic Theis test" --well 15 --well 60
