@@ -86,21 +86,33 @@ TEST_CASE("noise-free Hantush 1960 test is recovered to 0.5 %",
   // beta = r / (4 B) sqrt(S' / S) of 0.06..0.24, so the aquitard's storage shows; the data run
   // well past S' B^2 / T = 1.6 d, when the far side's constant head is felt: before it only
   // sqrt(S') / B enters (Hantush, 1960) and B and S' cannot be told apart.
+  // The drawdowns are also rounded in their last digits (a relative 1e-9, seeds 1 to 8): a fit
+  // from one start once ended in another valley of this model (T 6 to 131 against 100) for 16
+  // of 40 such roundings; every one must be recovered.
   const std::vector<double> truth{t_aq, s_aq, 400.0, 1e-3};
-  PumpingTest test;
-  test.schedule = {{0.0, 1200.0}};
-  for (double r : {30.0, 120.0}) {
-    ObservationSeries w;
-    w.name = "well";
-    w.distance = r;
-    for (int i = 0; i <= 48; ++i) w.times.push_back(1e-4 * std::pow(10.0, i / 8.0));
-    for (double t : w.times)
-      w.drawdowns.push_back(
-          schedule_drawdown(WellTestModel::hantush_aquitard_storage, truth, test.schedule, r, t));
-    test.wells.push_back(std::move(w));
+  for (unsigned seed = 0; seed <= 8; ++seed) {
+    PumpingTest test;
+    test.schedule = {{0.0, 1200.0}};
+    unsigned state = 12345u + 977u * seed;  // a linear congruential generator (Numerical Recipes)
+    for (double r : {30.0, 120.0}) {
+      ObservationSeries w;
+      w.name = "well";
+      w.distance = r;
+      for (int i = 0; i <= 48; ++i) w.times.push_back(1e-4 * std::pow(10.0, i / 8.0));
+      for (double t : w.times) {
+        state = state * 1664525u + 1013904223u;
+        const double rounding =
+            seed == 0 ? 0.0 : 1e-9 * (static_cast<double>(state >> 8) / (1u << 24) - 0.5);
+        w.drawdowns.push_back(
+            (1.0 + rounding) *
+            schedule_drawdown(WellTestModel::hantush_aquitard_storage, truth, test.schedule, r, t));
+      }
+      test.wells.push_back(std::move(w));
+    }
+    const ModelFit fit = fit_pumping_test(test, WellTestModel::hantush_aquitard_storage);
+    INFO("seed " << seed);
+    CHECK(fit.fit.converged);
+    for (std::size_t j = 0; j < truth.size(); ++j)
+      CHECK(fit.fit.parameters[static_cast<Eigen::Index>(j)] == Approx(truth[j]).epsilon(0.005));
   }
-  const ModelFit fit = fit_pumping_test(test, WellTestModel::hantush_aquitard_storage);
-  CHECK(fit.fit.converged);
-  for (std::size_t j = 0; j < truth.size(); ++j)
-    CHECK(fit.fit.parameters[static_cast<Eigen::Index>(j)] == Approx(truth[j]).epsilon(0.005));
 }
