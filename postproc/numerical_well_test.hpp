@@ -8,6 +8,7 @@
 #include <string>
 #include <vector>
 
+#include "mesh/well_centred_grid.hpp"
 #include "postproc/estimation_setup.hpp"
 #include "postproc/pumping_test_fit.hpp"
 #include "solver/model.hpp"
@@ -58,6 +59,12 @@ NumericalTestSettings coarse_numerical_settings(const NumericalTestSettings& fin
 /// geometry), with specific_yield (switching), or transmissivity and specific_yield (water
 /// table).
 std::vector<std::string> numerical_parameter_names(const PumpingTest& test);
+
+/// The radius (L) whose head the well's cell of `geometry` (its width `inner`, L) holds,
+/// measured by a steady solve (numerical_well_test.cpp). numerical_test_model sizes the
+/// well's cell from it when the casing's storage is modelled, so that the cell holds the head
+/// at the well's radius.
+double numerical_well_cell_radius(const WellCentredGrid& geometry, double inner);
 
 /// The flow model of the test with parameters p (in the order of numerical_parameter_names;
 /// T in L2/T, S and Sy -) on a grid reaching extent_factor radii of influence for
