@@ -7,6 +7,7 @@
 // of T, S and Sy).
 #include <catch2/catch.hpp>
 #include <cmath>
+#include <functional>
 #include <numbers>
 
 #include "mesh/quarter_radial_grid.hpp"
@@ -19,6 +20,20 @@
 using namespace aquiledger;
 
 namespace {
+
+/// Wells at `distances` (named by their distance) of a test of one rate step from time 0, each
+/// with 24 times log-spaced from 1e-3 to 1 d and the drawdowns drawdown(r, t) of a closed form.
+void add_one_step_wells(PumpingTest& test, const std::vector<double>& distances,
+                        const std::function<double(double, double)>& drawdown) {
+  for (double r : distances) {
+    ObservationSeries w;
+    w.name = "well at " + std::to_string(r);
+    w.distance = r;
+    for (int i = 0; i < 24; ++i) w.times.push_back(std::pow(10.0, -3.0 + 3.0 * i / 23.0));
+    for (double time : w.times) w.drawdowns.push_back(drawdown(r, time));
+    test.wells.push_back(std::move(w));
+  }
+}
 
 /// Theis (1935) drawdowns of a test pumped at 1200 m3/d for 1 d and then (with recovery)
 /// recovering to 2 d, wells at 25 and 80 m, 24 times log-spaced from 1e-4 d (1e-3 d without
@@ -152,15 +167,9 @@ PumpingTest hantush_jacob_test(double t, double s, double leakance) {
   PumpingTest test;
   test.schedule = {{0.0, 1200.0}};
   const double b = std::sqrt(t / leakance);
-  for (double r : {25.0, 80.0}) {
-    ObservationSeries w;
-    w.name = "well at " + std::to_string(r);
-    w.distance = r;
-    for (int i = 0; i < 24; ++i) w.times.push_back(std::pow(10.0, -3.0 + 3.0 * i / 23.0));
-    for (double time : w.times)
-      w.drawdowns.push_back(hantush_jacob_drawdown(1200.0, t, s, b, r, time));
-    test.wells.push_back(std::move(w));
-  }
+  add_one_step_wells(test, {25.0, 80.0}, [&](double r, double time) {
+    return hantush_jacob_drawdown(1200.0, t, s, b, r, time);
+  });
   return test;
 }
 
@@ -201,15 +210,9 @@ PumpingTest casing_test(const std::vector<double>& distances) {
   PumpingTest test;
   test.schedule = {{0.0, 500.0}};
   test.pumped_well = PumpedWellRadii{rw, rc};
-  for (double r : distances) {
-    ObservationSeries w;
-    w.name = "well at " + std::to_string(r);
-    w.distance = r;
-    for (int i = 0; i < 24; ++i) w.times.push_back(std::pow(10.0, -3.0 + 3.0 * i / 23.0));
-    for (double time : w.times)
-      w.drawdowns.push_back(papadopulos_cooper_drawdown(500.0, t, s, rw, rc, r, time));
-    test.wells.push_back(std::move(w));
-  }
+  add_one_step_wells(test, distances, [&](double r, double time) {
+    return papadopulos_cooper_drawdown(500.0, t, s, rw, rc, r, time);
+  });
   return test;
 }
 
@@ -335,15 +338,9 @@ PumpingTest conversion_test() {
   PumpingTest test;
   test.schedule = {{0.0, 800.0}};
   test.aquifer = TestAquiferGeometry{true, -1.0, -200.0, 0.0};
-  for (double r : {15.0, 60.0}) {
-    ObservationSeries w;
-    w.name = "well at " + std::to_string(r);
-    w.distance = r;
-    for (int i = 0; i < 24; ++i) w.times.push_back(std::pow(10.0, -3.0 + 3.0 * i / 23.0));
-    for (double time : w.times)
-      w.drawdowns.push_back(moench_prickett_drawdown(800.0, 120.0, 5e-4, 0.1, 1.0, r, time));
-    test.wells.push_back(std::move(w));
-  }
+  add_one_step_wells(test, {15.0, 60.0}, [](double r, double time) {
+    return moench_prickett_drawdown(800.0, 120.0, 5e-4, 0.1, 1.0, r, time);
+  });
   return test;
 }
 
