@@ -137,10 +137,11 @@ LinearChoice parse_linear(const std::string& v) {
 
 }  // namespace
 
+// As the program runs (io/cli/main.cpp): OpenMP threads wait passively unless the environment
+// says otherwise.
+AQUILEDGER_WAIT_PASSIVELY_BY_DEFAULT;
+
 int main(int argc, char** argv) {
-  // As the program runs (io/cli/main.cpp): OpenMP threads wait passively unless the
-  // environment says otherwise.
-  wait_passively_by_default(argv);
   std::vector<double> sizes = {1e4, 1e5, 1e6, 4e6};
   int steps = 30;
   CaseOptions options;

@@ -138,10 +138,11 @@ bool time_derivatives(const Model& m, const std::vector<ModelParameter>& params,
 
 }  // namespace
 
+// As the program runs (io/cli/main.cpp): OpenMP threads wait passively unless the environment
+// says otherwise.
+AQUILEDGER_WAIT_PASSIVELY_BY_DEFAULT;
+
 int main(int argc, char** argv) {
-  // As the program runs (io/cli/main.cpp): OpenMP threads wait passively unless the
-  // environment says otherwise.
-  aquiledger::wait_passively_by_default(argv);
   double cells = 1e4;
   int p = 8, repeats = 3;
   std::string setup_file, aquifer = "both";

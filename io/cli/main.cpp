@@ -12,9 +12,12 @@
 #include "io/cli/openmp_waiting.hpp"
 #include "io/cli/sources_command.hpp"
 
+// OpenMP threads wait passively unless the user chose otherwise: the program starts itself
+// again, once, before any library initialises (io/cli/openmp_waiting.hpp).
+AQUILEDGER_WAIT_PASSIVELY_BY_DEFAULT;
+
 int main(int argc, char** argv) {
   using namespace aquiledger;
-  wait_passively_by_default(argv);
   // Past a file-size limit (ulimit -f) a write then fails with EFBIG, reported like a full
   // disk, instead of the signal killing the program mid-file.
   std::signal(SIGXFSZ, SIG_IGN);

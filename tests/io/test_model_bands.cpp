@@ -14,6 +14,7 @@
 
 #include "io/model_file/field_value.hpp"
 #include "io/model_file/model_reader.hpp"
+#include "tests/io/small_model.hpp"
 
 using namespace aquiledger;
 
@@ -22,12 +23,9 @@ namespace {
 constexpr int n_rows = 5;
 constexpr int n_cols = 3;
 
-/// A scratch folder holding the array files of one test.
+/// A scratch folder holding the array files of one test, removed when the test program exits.
 std::filesystem::path scratch(const std::string& name) {
-  const auto dir = std::filesystem::temp_directory_path() / ("aquiledger_bands_" + name);
-  std::filesystem::remove_all(dir);
-  std::filesystem::create_directories(dir);
-  return dir;
+  return aquiledger::testing::scratch_folder("bands-" + name);
 }
 
 void write(const std::filesystem::path& file, const std::string& text) {

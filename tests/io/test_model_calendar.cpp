@@ -11,6 +11,7 @@
 #include "io/results/result_tables.hpp"
 #include "solver/simulation.hpp"
 #include "tests/io/reader_test_support.hpp"
+#include "tests/io/small_model.hpp"
 #include "tests/support/budget_observer.hpp"
 
 using namespace reader_test;
@@ -18,12 +19,11 @@ using namespace aquiledger;
 
 namespace {
 
-/// A scratch folder for one test's CSV files; the model is read as if it were model.toml here.
+/// A scratch folder for one test's CSV files, removed when the test program exits (one per
+/// process: two tests of one name may run at once); the model is read as if it were model.toml
+/// here.
 std::filesystem::path scratch(const std::string& name) {
-  const auto dir = std::filesystem::temp_directory_path() / ("aquiledger_calendar_" + name);
-  std::filesystem::remove_all(dir);
-  std::filesystem::create_directories(dir);
-  return dir;
+  return aquiledger::testing::scratch_folder("calendar-" + name);
 }
 
 void write(const std::filesystem::path& file, const std::string& text) {

@@ -1,8 +1,11 @@
 # Shared by the browser tests (tests/scripts/*_browser.sh): open a page in headless Chromium
 # and check that it rendered. Source it after setting $tmp (a scratch folder) and $chromium.
 #   browse <page> <extra chromium args...>   prints what Chromium prints (e.g. --dump-dom)
-#   check_page <page> <minimum charts>       the status marker reads "ok" and every chart
+#   check_page <page> <minimum charts> [extra chromium args...]
+#                                            the status marker reads "ok" and every chart
 #                                            container holds a rendered SVG; exits 1 otherwise.
+#                                            Extra arguments go to the same Chromium start
+#                                            (--screenshot=FILE takes the page's picture too)
 #                                            Leaves the rendered DOM in `page_dom`, so a script
 #                                            reads the page once (each Chromium start costs
 #                                            several seconds, more under the sanitizers)
@@ -20,7 +23,8 @@ browse() {
 
 check_page() {
   local page=$1 minimum=$2 dom
-  dom=$(browse "$page" --dump-dom)
+  shift 2
+  dom=$(browse "$page" --dump-dom "$@")
   page_dom=$dom
   local status charts rendered
   status=$(grep -o '<p id="render-status">[^<]*' <<<"$dom" | sed 's/.*>//')
