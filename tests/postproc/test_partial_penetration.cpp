@@ -1,12 +1,15 @@
 // Hantush (1961) partial penetration: the cosine series against an independent scipy
 // computation with image sinks (tests/data/pumping/partial_penetration_reference.py), and the
 // facts it must obey.
+#include <algorithm>
 #include <catch2/catch.hpp>
 #include <cmath>
 #include <numbers>
+#include <optional>
 
 #include "postproc/analytical_solutions.hpp"
 #include "postproc/partial_penetration.hpp"
+#include "postproc/pumping_test_fit.hpp"
 #include "postproc/well_test_models.hpp"
 
 using namespace aquiledger;
@@ -102,4 +105,74 @@ TEST_CASE("the partial-penetration effect fades beyond 1.5 b sqrt(K_r / K_z)",
       }
     }
   }
+}
+
+namespace {
+
+/// A test whose drawdowns are Hantush's (1961) for T = 200 m2/d, S = 2e-4, K_z / K_r = 0.2 in
+/// a confined aquifer 30 m thick (top -5 m): the pumped well screened over the top 10 m,
+/// 1000 m3/d for 0.5 d then recovery to 1 d; a piezometer at 8 m with its tip 25 m deep and a
+/// well at 20 m screened 15 to 21 m deep.
+PumpingTest partial_penetration_test(std::optional<double> held_ratio) {
+  PumpingTest test;
+  test.schedule = {{0.0, 1000.0}, {0.5, 0.0}};
+  TestAquiferGeometry aquifer;
+  aquifer.has_top = true;
+  aquifer.top = -5.0;
+  aquifer.bottom = -35.0;
+  aquifer.static_level = 2.0;
+  test.aquifer = aquifer;
+  test.pumped_screen = WellScreen{-5.0, -15.0};
+  test.anisotropy_ratio = held_ratio;
+  ObservationSeries piezometer, well;
+  piezometer.name = "piezometer";
+  piezometer.distance = 8.0;
+  piezometer.screen = WellScreen{-30.0, -30.0};
+  well.name = "well";
+  well.distance = 20.0;
+  well.screen = WellScreen{-20.0, -26.0};
+  test.wells = {piezometer, well};
+  const std::vector<double> truth{200.0, 2e-4, 0.2};
+  for (ObservationSeries& w : test.wells)
+    for (int i = 0; i < 24; ++i) {
+      const double t = 1e-4 * std::pow(1e4, i / 23.0);
+      w.times.push_back(t);
+      w.drawdowns.push_back(schedule_drawdown(WellTestModel::hantush_partial_penetration, truth,
+                                              test.schedule, w.distance, t, {}, {},
+                                              partial_penetration_of(test, w)));
+    }
+  return test;
+}
+
+}  // namespace
+
+TEST_CASE("noise-free partial-penetration tests are recovered to 0.5 %", "[partial_penetration]") {
+  for (std::optional<double> held : {std::optional<double>{0.2}, std::optional<double>{}}) {
+    const PumpingTest test = partial_penetration_test(held);
+    const ModelFit fit = fit_pumping_test(test, WellTestModel::hantush_partial_penetration);
+    REQUIRE(fit.parameter_names.size() == (held ? 2u : 3u));
+    CHECK(fit.fit.parameters[0] == Approx(200.0).epsilon(0.005));
+    CHECK(fit.fit.parameters[1] == Approx(2e-4).epsilon(0.005));
+    if (!held) CHECK(fit.fit.parameters[2] == Approx(0.2).epsilon(0.005));
+  }
+}
+
+TEST_CASE("auto weighs partial penetration; the numerical model refuses partial screens",
+          "[partial_penetration]") {
+  const PumpingTest test = partial_penetration_test(0.2);
+  const std::vector<WellTestModel> candidates = automatic_candidates(test);
+  CHECK(std::find(candidates.begin(), candidates.end(),
+                  WellTestModel::hantush_partial_penetration) != candidates.end());
+  const PumpingTestInterpretation auto_fit = interpret_pumping_test(test, std::nullopt);
+  CHECK(auto_fit.chosen_fit().model == WellTestModel::hantush_partial_penetration);
+  CHECK_THROWS_WITH(fit_pumping_test(test, WellTestModel::numerical),
+                    Catch::Contains("two-dimensional"));
+  // Without screens the candidates are those of a fully penetrating test.
+  PumpingTest full = test;
+  full.pumped_screen.reset();
+  for (ObservationSeries& w : full.wells) w.screen.reset();
+  full.anisotropy_ratio.reset();
+  const std::vector<WellTestModel> plain = automatic_candidates(full);
+  CHECK(std::find(plain.begin(), plain.end(), WellTestModel::hantush_partial_penetration) ==
+        plain.end());
 }
