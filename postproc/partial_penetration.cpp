@@ -1,5 +1,6 @@
 #include "postproc/partial_penetration.hpp"
 
+#include <boost/math/special_functions/bessel.hpp>
 #include <cassert>
 #include <cmath>
 #include <numbers>
@@ -7,6 +8,12 @@
 #include "postproc/analytical_solutions.hpp"
 
 namespace aquiledger {
+namespace {
+/// Boost.Math's K0 in double precision (its default promotes to long double, several times
+/// slower; the same choice as Neuman's series in well_test_models.cpp).
+using partial_penetration_bessel_policy =
+    boost::math::policies::policy<boost::math::policies::promote_double<false>>;
+}  // namespace
 
 double hantush_partial_penetration_drawdown(double q, double transmissivity, double storativity,
                                             double anisotropy_ratio, double r, double t,
@@ -32,7 +39,10 @@ double hantush_partial_penetration_drawdown(double q, double transmissivity, dou
   for (long n = 1;; ++n) {
     const double beta = static_cast<double>(n) * k;
     const double below_u = beta * beta / (4.0 * u);  // the exponent of the integrand at y = u
-    if (beta > 80.0 && below_u > 40.0) break;
+    // The terms left are under e^-40 of W(u): for beta < 2u, W(u, beta) / W(u) is about
+    // exp(-beta^2 / (4 u)); beyond, W(u, beta) <= 2 K0(beta) ~ exp(-beta) against
+    // W(u) > exp(-u) / (1 + u) (Abramowitz and Stegun, 1964, 5.1.19).
+    if (below_u > 40.0 && beta > u + 40.0 + std::log1p(u)) break;
     const double a = static_cast<double>(n) * pi / b;
     const double pumped = std::sin(a * l) - std::sin(a * d);
     const double observed =
@@ -42,7 +52,9 @@ double hantush_partial_penetration_drawdown(double q, double transmissivity, dou
     if (c == 0.0) continue;
     // W(u, beta) = 2 K0(beta) - int_0^u exp(-y - beta^2 / (4 y)) / y dy, and that part is
     // under E1(beta^2 / (4 u)) (exp(-y) <= 1, then y -> beta^2 / (4 y)).
-    const double w = below_u > 40.0 ? 2.0 * bessel_k0(beta) : leaky_well_function(u, beta);
+    const double w = below_u > 40.0 ? 2.0 * boost::math::cyl_bessel_k(
+                                                0, beta, partial_penetration_bessel_policy{})
+                                    : leaky_well_function(u, beta);
     sum += c * w;
   }
   return q / (4.0 * pi * transmissivity) * (theis + sum);

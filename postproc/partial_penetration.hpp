@@ -33,9 +33,9 @@ struct PartialPenetration {
 /// with W(u) the Theis (1935) and W(u, beta) the Hantush and Jacob (1955) leaky well function
 /// (postproc/analytical_solutions.hpp). A term's W(u, beta) is 2 K0(beta) where the part of its
 /// integral below u is under E1(beta^2 / (4 u)) < 1e-19 (beta^2 / (4 u) > 40), and the series
-/// stops once beta > 80 and beta^2 / (4 u) > 40 (docs/pumping-tests.md: the terms left are
-/// under 1e-16 of W(u)). The cost grows as b / (r sqrt(K_z / K_r)): about 25 terms per unit of
-/// b / (r sqrt(K_z / K_r)).
+/// stops where the terms left are under e^-40 of W(u) (beta^2 / (4 u) > 40 and
+/// beta > u + 40 + ln(1 + u)). The cost grows as b / (r sqrt(K_z / K_r)): about 13 terms per
+/// unit of it at late time (docs/pumping-tests.md, measured cost and accuracy).
 double hantush_partial_penetration_drawdown(double q, double transmissivity, double storativity,
                                             double anisotropy_ratio, double r, double t,
                                             const PartialPenetration& screens);
