@@ -27,6 +27,39 @@ double first_step_end(const PumpingTest& test) {
 
 }  // namespace
 
+bool PumpingTest::has_screens() const {
+  if (pumped_screen) return true;
+  return std::any_of(wells.begin(), wells.end(),
+                     [](const ObservationSeries& w) { return w.screen.has_value(); });
+}
+
+PartialPenetration partial_penetration_of(const PumpingTest& test, const ObservationSeries& well) {
+  PartialPenetration p;
+  if (!test.has_screens() || !test.aquifer) return p;
+  const TestAquiferGeometry& a = *test.aquifer;
+  const double top = a.bottom + a.thickness();
+  p.thickness = a.thickness();
+  auto depth = [&](double elevation) { return std::clamp(top - elevation, 0.0, p.thickness); };
+  p.pumped_top = test.pumped_screen ? depth(test.pumped_screen->top) : 0.0;
+  p.pumped_bottom = test.pumped_screen ? depth(test.pumped_screen->bottom) : p.thickness;
+  p.observed_top = well.screen ? depth(well.screen->top) : 0.0;
+  p.observed_bottom = well.screen ? depth(well.screen->bottom) : p.thickness;
+  p.anisotropy_ratio = test.anisotropy_ratio.value_or(0.0);
+  return p;
+}
+
+bool PumpingTest::has_partial_screens() const {
+  if (!has_screens() || !aquifer) return false;
+  auto partial = [](const PartialPenetration& p) {
+    return p.pumped_top > 0.0 || p.pumped_bottom < p.thickness || p.observed_top > 0.0 ||
+           p.observed_bottom < p.thickness;
+  };
+  if (partial(partial_penetration_of(*this, ObservationSeries{}))) return true;
+  return std::any_of(wells.begin(), wells.end(), [&](const ObservationSeries& w) {
+    return partial(partial_penetration_of(*this, w));
+  });
+}
+
 int PumpingTest::n_observations() const {
   int n = 0;
   for (const ObservationSeries& w : wells) n += static_cast<int>(w.times.size());
@@ -99,6 +132,13 @@ ParameterGuess guess_parameters(const PumpingTest& test, WellTestModel model) {
     g.lower.push_back(g.start.back() * 1e-4);
     g.upper.push_back(g.start.back() * 1e4);
   }
+  if (model == WellTestModel::hantush_partial_penetration && !test.anisotropy_ratio) {
+    // K_z / K_r: start at 0.3, within 1e-4..10 (layered sediments lie at 0.01..1; common
+    // practice).
+    g.start.push_back(0.3);
+    g.lower.push_back(1e-4);
+    g.upper.push_back(10.0);
+  }
   if (model == WellTestModel::neuman) {
     // The late slope sees S + Sy; start with that as Sy and the elastic S a hundredth of it.
     double r_max = 0.0;
@@ -111,9 +151,12 @@ ParameterGuess guess_parameters(const PumpingTest& test, WellTestModel model) {
   return g;
 }
 
-std::vector<WellTestModel> automatic_candidates() {
+std::vector<WellTestModel> automatic_candidates(const PumpingTest& test) {
   // Simplest first: a later model is chosen only when its AICc is lower by more than 2.
   // Neuman (1974) is fitted in seconds since its series was made cheaper (docs/pumping-tests.md).
+  if (test.has_partial_screens() && test.aquifer->starts_confined())
+    return {WellTestModel::theis, WellTestModel::hantush_partial_penetration,
+            WellTestModel::hantush_jacob, WellTestModel::neuman};
   return {WellTestModel::theis, WellTestModel::hantush_jacob, WellTestModel::neuman};
 }
 
@@ -132,11 +175,25 @@ ModelFit fit_pumping_test(const PumpingTest& test, WellTestModel model) {
         throw std::invalid_argument("papadopulos-cooper: well \"" + w.name +
                                     "\" is closer than the pumped well's radius");
   }
+  if (model == WellTestModel::hantush_partial_penetration &&
+      !(test.has_screens() && test.aquifer && test.aquifer->starts_confined()))
+    throw std::invalid_argument(
+        "hantush-partial-penetration is Hantush's (1961) confined aquifer: give the screens "
+        "(screen_top and screen_bottom, or piezometer_tip) and [aquifer] bottom, static_level "
+        "and a top below static_level");
+  if (model == WellTestModel::numerical && test.has_partial_screens())
+    throw std::invalid_argument(
+        "the numerical model is two-dimensional: it represents wells screened through the "
+        "whole aquifer, and a screen here leaves part of it out; use -m "
+        "hantush-partial-penetration, or beyond 1.5 b sqrt(K_r / K_z) from the pumped well "
+        "(where partial penetration fades; Hantush, 1961) give the wells without screens");
   const ParameterGuess guess = guess_parameters(test, model);
   if (model == WellTestModel::numerical)
     return fit_numerical_pumping_test(test, guess.start, guess.lower, guess.upper);
   ModelFit result;
   result.parameter_names = model_parameter_names(model);
+  if (model == WellTestModel::hantush_partial_penetration && test.anisotropy_ratio)
+    result.parameter_names.pop_back();  // K_z / K_r held
   result.model = model;
   result.used.resize(test.wells.size());
   std::vector<std::pair<std::size_t, std::size_t>> points;  // (well, time index)
@@ -158,15 +215,18 @@ ModelFit fit_pumping_test(const PumpingTest& test, WellTestModel model) {
       if (use) points.emplace_back(w, i);
     }
   }
-  const int k = n_model_parameters(model);
+  const int k = static_cast<int>(result.parameter_names.size());
   if (static_cast<int>(points.size()) <= k + 1)
     throw std::invalid_argument(model_name(model) + ": only " + std::to_string(points.size()) +
                                 " usable drawdowns, more than " + std::to_string(k + 1) +
                                 " are needed");
+  std::vector<PartialPenetration> screens;
+  for (const ObservationSeries& well : test.wells)
+    screens.push_back(partial_penetration_of(test, well));
   auto model_at = [&](const std::vector<double>& p, std::size_t w, std::size_t i) {
     const ObservationSeries& well = test.wells[w];
     return schedule_drawdown(model, p, test.schedule, well.distance, well.times[i], well.images,
-                             test.pumped_well);
+                             test.pumped_well, screens[w]);
   };
   BoundedFitProblem problem;
   problem.model = [&](const Eigen::VectorXd& p) {
@@ -247,7 +307,7 @@ PumpingTestInterpretation interpret_pumping_test(const PumpingTest& test,
     out.choice_reason = "model chosen by the user";
   } else {
     out.automatic = true;
-    for (WellTestModel m : automatic_candidates())
+    for (WellTestModel m : automatic_candidates(test))
       out.candidates.push_back(fit_pumping_test(test, m));
     // Lowest AICc, but a simpler model (earlier in the list) within 2 of it is kept.
     std::size_t best = 0;

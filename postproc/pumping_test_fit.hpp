@@ -12,6 +12,13 @@
 
 namespace aquiledger {
 
+/// A well's open interval as elevations (L, the datum of [aquifer]): a screen from top down to
+/// bottom, or a piezometer's tip (top == bottom).
+struct WellScreen {
+  double top = 0.0;     ///< L
+  double bottom = 0.0;  ///< L, <= top
+};
+
 /// The drawdown series measured in one observation (or the pumped) well.
 struct ObservationSeries {
   std::string name;
@@ -23,6 +30,9 @@ struct ObservationSeries {
   std::optional<double> bearing;
   std::vector<double> times;      ///< T since the start of the test, increasing
   std::vector<double> drawdowns;  ///< L, positive downwards
+  /// The well's screen or piezometer tip; without one the well is screened through the
+  /// whole aquifer (when the test has screen data at all).
+  std::optional<WellScreen> screen;
 };
 
 /// The aquifer's vertical geometry, when the test file gives it ([aquifer]): with a top above
@@ -77,8 +87,22 @@ struct PumpingTest {
   std::vector<ObservationSeries> wells;
   /// Straight boundaries and zone lines ([[boundary]]), used by the numerical model only.
   std::vector<TestLine> lines;
+  /// The pumped well's screen; without one it is screened through the whole aquifer.
+  std::optional<WellScreen> pumped_screen;
+  /// K_z / K_r (-) of the partial-penetration model when held ([aquifer].anisotropy_ratio);
+  /// fitted when empty.
+  std::optional<double> anisotropy_ratio;
   int n_observations() const;
+  /// True when the pumped well or an observation well has a screen (needs `aquifer`).
+  bool has_screens() const;
+  /// True when some screen (the pumped well's or a well's) leaves part of the aquifer out.
+  bool has_partial_screens() const;
 };
+
+/// The screens of the pumped well and of `well` as depths below the aquifer's top, for
+/// Hantush's (1961) model (postproc/partial_penetration.hpp), with the held K_z / K_r (0 when
+/// fitted). A thickness of 0 when the test has no screen data or no aquifer geometry.
+PartialPenetration partial_penetration_of(const PumpingTest& test, const ObservationSeries& well);
 
 /// One model fitted to all wells.
 struct ModelFit {
@@ -126,7 +150,9 @@ ModelFit fit_pumping_test(const PumpingTest& test, WellTestModel model);
 
 /// The models `auto` compares: each fitted to the same points, so AICc is comparable
 /// (Cooper-Jacob is an approximation of Theis, not a competing model, and is left out).
-std::vector<WellTestModel> automatic_candidates();
+/// Hantush's (1961) partial penetration joins them, after Theis, when a screen leaves part of
+/// the aquifer out.
+std::vector<WellTestModel> automatic_candidates(const PumpingTest& test);
 
 /// With a model: that model alone. Without (`auto`): every candidate, keeping the one with
 /// the lowest AICc unless a simpler model is within 2 of it (Burnham and Anderson, 2002;

@@ -27,6 +27,8 @@ std::string model_name(WellTestModel model) {
       return "papadopulos-cooper";
     case WellTestModel::hantush_aquitard_storage:
       return "hantush-aquitard-storage";
+    case WellTestModel::hantush_partial_penetration:
+      return "hantush-partial-penetration";
     case WellTestModel::numerical:
       return "numerical";
   }
@@ -40,6 +42,8 @@ std::vector<std::string> model_parameter_names(WellTestModel model) {
     return {"transmissivity", "storativity", "specific_yield", "drainage_length"};
   if (model == WellTestModel::hantush_aquitard_storage)
     return {"transmissivity", "storativity", "leakage_factor", "aquitard_storativity"};
+  if (model == WellTestModel::hantush_partial_penetration)
+    return {"transmissivity", "storativity", "anisotropy_ratio"};
   return {"transmissivity", "storativity"};
 }
 
@@ -48,8 +52,10 @@ int n_model_parameters(WellTestModel model) {
 }
 
 double unit_rate_drawdown(WellTestModel model, const std::vector<double>& parameters, double r,
-                          double t, const PumpedWellRadii& radii) {
-  assert(static_cast<int>(parameters.size()) == n_model_parameters(model));
+                          double t, const PumpedWellRadii& radii,
+                          const PartialPenetration& screens) {
+  assert(static_cast<int>(parameters.size()) == n_model_parameters(model) ||
+         (model == WellTestModel::hantush_partial_penetration && parameters.size() == 2));
   if (t <= 0.0) return 0.0;
   const double transmissivity = parameters[0];
   const double storativity = parameters[1];
@@ -74,6 +80,15 @@ double unit_rate_drawdown(WellTestModel model, const std::vector<double>& parame
     case WellTestModel::hantush_aquitard_storage:
       return hantush_aquitard_storage_drawdown(1.0, transmissivity, storativity, parameters[2],
                                                parameters[3], r, t);
+    case WellTestModel::hantush_partial_penetration: {
+      if (!(screens.thickness > 0.0))
+        throw std::invalid_argument(
+            "hantush-partial-penetration needs the screens and the "
+            "aquifer's thickness");
+      const double ratio = parameters.size() > 2 ? parameters[2] : screens.anisotropy_ratio;
+      return hantush_partial_penetration_drawdown(1.0, transmissivity, storativity, ratio, r, t,
+                                                  screens);
+    }
     case WellTestModel::numerical:
       throw std::invalid_argument("the numerical model has no closed-form drawdown");
   }
@@ -82,7 +97,8 @@ double unit_rate_drawdown(WellTestModel model, const std::vector<double>& parame
 
 double schedule_drawdown(WellTestModel model, const std::vector<double>& parameters,
                          const std::vector<RateStep>& schedule, double r, double t,
-                         const std::vector<ImageWell>& images, const PumpedWellRadii& radii) {
+                         const std::vector<ImageWell>& images, const PumpedWellRadii& radii,
+                         const PartialPenetration& screens) {
   double s = 0.0;
   double previous_rate = 0.0;
   for (const RateStep& step : schedule) {
@@ -91,9 +107,10 @@ double schedule_drawdown(WellTestModel model, const std::vector<double>& paramet
     previous_rate = step.rate;
     if (change == 0.0) continue;
     const double since = t - step.start;
-    double unit = unit_rate_drawdown(model, parameters, r, since, radii);
+    double unit = unit_rate_drawdown(model, parameters, r, since, radii, screens);
     for (const ImageWell& image : images) {
-      const double si = unit_rate_drawdown(model, parameters, image.image_distance, since, radii);
+      const double si =
+          unit_rate_drawdown(model, parameters, image.image_distance, since, radii, screens);
       unit += image.recharge ? -si : si;
     }
     s += change * unit;

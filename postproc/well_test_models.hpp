@@ -7,6 +7,8 @@
 #include <string>
 #include <vector>
 
+#include "postproc/partial_penetration.hpp"
+
 namespace aquiledger {
 
 /// The closed-form models a test can be fitted with.
@@ -17,6 +19,9 @@ enum class WellTestModel {
   neuman,              ///< Neuman (1974) delayed yield: parameters T, S, Sy, L_v
   papadopulos_cooper,  ///< Papadopulos and Cooper (1967) large-diameter well: T, S (radii given)
   hantush_aquitard_storage,  ///< Hantush (1960) leaky with aquitard storage: T, S, B, S'
+  /// Hantush (1961) partially penetrating wells in a confined aquifer: T, S, K_z / K_r (the
+  /// last given instead when PartialPenetration::anisotropy_ratio holds it); screens given
+  hantush_partial_penetration,
   /// The program's own flow model on a radial-telescoping grid (numerical_well_test.hpp):
   /// T, S (and Sy with the aquifer's geometry); no closed form, so unit_rate_drawdown and
   /// schedule_drawdown refuse it.
@@ -57,19 +62,21 @@ struct PumpedWellRadii {
 /// model's parameters (T in L2/T, S dimensionless, B in L). Zero for t <= 0. The Cooper-Jacob
 /// line q/(4 pi T) ln(2.25 T t / (r^2 S)) is returned as is (negative at early times); it
 /// approximates Theis for u = r^2 S / (4 T t) small (u < 0.01, Cooper and Jacob, 1946).
-/// Papadopulos and Cooper (1967) needs radii.well > 0, radii.casing > 0 and r >= radii.well
-/// (std::invalid_argument otherwise).
+/// Papadopulos and Cooper (1967) needs radii.well > 0, radii.casing > 0 and r >= radii.well;
+/// Hantush (1961) needs screens.thickness > 0 (std::invalid_argument otherwise), and takes
+/// K_z / K_r from parameters[2], or from screens.anisotropy_ratio with two parameters.
 double unit_rate_drawdown(WellTestModel model, const std::vector<double>& parameters, double r,
-                          double t, const PumpedWellRadii& radii = {});
+                          double t, const PumpedWellRadii& radii = {},
+                          const PartialPenetration& screens = {});
 
 /// Drawdown (L) at time t (T) at radius r (L) from the pumped well with the rate schedule
 /// (sorted by start) superposed in time, s(t) = sum_i (Q_i - Q_{i-1}) s_1(t - t_i)
 /// (Theis, 1935, for recovery; the principle of superposition), and the image wells in space.
-/// An image well is a well of the same construction (radii) at the image distance.
+/// An image well is a well of the same construction (radii, screen) at the image distance.
 double schedule_drawdown(WellTestModel model, const std::vector<double>& parameters,
                          const std::vector<RateStep>& schedule, double r, double t,
                          const std::vector<ImageWell>& images = {},
-                         const PumpedWellRadii& radii = {});
+                         const PumpedWellRadii& radii = {}, const PartialPenetration& screens = {});
 
 /// Papadopulos and Cooper (1967): drawdown (L) at radius r >= r_well (L) around a
 /// large-diameter well with casing radius r_casing (L) whose stored water supplies part of the

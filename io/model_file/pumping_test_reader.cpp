@@ -126,14 +126,78 @@ void read_test_section(ReaderContext& ctx, const toml::table& root, PumpingTest&
   }
 }
 
+/// A well's screen (screen_top and screen_bottom, elevations) or, with `tip_allowed`, a
+/// piezometer's tip (piezometer_tip): within the aquifer of [aquifer] (read before), the top
+/// above the bottom. nullopt (after an error when something was given wrongly) otherwise.
+std::optional<WellScreen> read_screen(ReaderContext& ctx, const toml::table& t,
+                                      const std::string& path, const PumpingTest& test,
+                                      bool tip_allowed) {
+  const auto top = read_number(ctx, t, "screen_top", path, false);
+  const auto bottom = read_number(ctx, t, "screen_bottom", path, false);
+  std::optional<double> tip;
+  if (tip_allowed) tip = read_number(ctx, t, "piezometer_tip", path, false);
+  if (!top && !bottom && !tip) return std::nullopt;
+  const std::string& lu = ctx.length_unit;
+  if (tip && (top || bottom)) {
+    ctx.error(*t.get("piezometer_tip"), path + ".piezometer_tip",
+              "give a screen (screen_top and screen_bottom) or a piezometer_tip, not both");
+    return std::nullopt;
+  }
+  if (!tip && (!top || !bottom)) {
+    const char* given = top ? "screen_top" : "screen_bottom";
+    ctx.error(*t.get(given), path + "." + given,
+              "a screen needs both screen_top and screen_bottom (elevations, " + lu + ")");
+    return std::nullopt;
+  }
+  const char* key = tip ? "piezometer_tip" : "screen_top";
+  if (!test.aquifer) {
+    ctx.error(*t.get(key), path + "." + key,
+              "screen data need the aquifer's thickness: give [aquifer] bottom, static_level "
+              "and top (elevations, the datum of the screens)");
+    return std::nullopt;
+  }
+  const double aquifer_top = test.aquifer->bottom + test.aquifer->thickness();
+  const double aquifer_bottom = test.aquifer->bottom;
+  const std::string range = "within the aquifer, from its bottom " + show_number(aquifer_bottom) +
+                            " to its top " + show_number(aquifer_top) + " " + lu;
+  if (tip) {
+    if (!(*tip >= aquifer_bottom && *tip <= aquifer_top)) {
+      ctx.error(*t.get(key), path + "." + key,
+                "expected a tip " + range + ", found " + show_number(*tip));
+      return std::nullopt;
+    }
+    return WellScreen{*tip, *tip};
+  }
+  if (!(*top > *bottom)) {
+    ctx.error(*t.get("screen_bottom"), path + ".screen_bottom",
+              "expected a bottom below screen_top (" + show_number(*top) + " " + lu + "), found " +
+                  show_number(*bottom));
+    return std::nullopt;
+  }
+  for (const char* k : {"screen_top", "screen_bottom"}) {
+    const double v = std::string(k) == "screen_top" ? *top : *bottom;
+    if (!(v >= aquifer_bottom && v <= aquifer_top)) {
+      ctx.error(*t.get(k), path + "." + k,
+                std::string("expected a level ") + range + ", found " + show_number(v));
+      return std::nullopt;
+    }
+  }
+  return WellScreen{*top, *bottom};
+}
+
 /// [pumped_well]: radius (r_w) and casing_radius (r_c, default r_w), for the large-diameter
-/// model of Papadopulos and Cooper (1967).
+/// model of Papadopulos and Cooper (1967); screen_top and screen_bottom for Hantush (1961).
 void read_pumped_well(ReaderContext& ctx, const toml::table& root, PumpingTest& test) {
   const toml::table* t = optional_table(ctx, root, "pumped_well");
   if (!t) return;
-  check_keys(ctx, *t, "[pumped_well]", {"radius", "casing_radius"});
+  check_keys(ctx, *t, "[pumped_well]", {"radius", "casing_radius", "screen_top", "screen_bottom"});
+  test.pumped_screen = read_screen(ctx, *t, "[pumped_well]", test, false);
+  // The radius is needed unless the section gives only the screen.
+  const bool radius_needed =
+      t->contains("casing_radius") || (!t->contains("screen_top") && !t->contains("screen_bottom"));
   for (const char* key : {"radius", "casing_radius"}) {
-    auto v = read_number(ctx, *t, key, "[pumped_well]", std::string(key) == "radius");
+    const bool required = std::string(key) == "radius" && radius_needed;
+    auto v = read_number(ctx, *t, key, "[pumped_well]", required);
     if (!v) continue;
     if (!(*v > 0.0)) {
       ctx.error(*t->get(key), std::string("[pumped_well].") + key,
@@ -163,13 +227,31 @@ void read_test_leakance(ReaderContext& ctx, const toml::table& t, PumpingTest& t
   test.leakance = TestLeakance{false, *v};
 }
 
+/// [aquifer].anisotropy_ratio: "fit" (the default) or K_z / K_r > 0 held, for Hantush (1961).
+void read_anisotropy_ratio(ReaderContext& ctx, const toml::table& t, PumpingTest& test) {
+  const toml::node* node = t.get("anisotropy_ratio");
+  if (!node) return;
+  if (const auto word = node->value_exact<std::string>(); word && *word == "fit") return;
+  const auto v = node->value<double>();
+  if (!v || !node->is_number() || !(*v > 0.0) || !std::isfinite(*v)) {
+    ctx.error(*node, "[aquifer].anisotropy_ratio",
+              "expected \"fit\" or a ratio K_z/K_r > 0 of the vertical to the horizontal "
+              "hydraulic conductivity, found " +
+                  show(*node));
+    return;
+  }
+  test.anisotropy_ratio = *v;
+}
+
 /// [aquifer]: the aquifer's geometry for the numerical model (docs/pumping-tests.md): bottom
 /// and static_level (the head before pumping) required, top optional (a confining top).
 void read_test_aquifer(ReaderContext& ctx, const toml::table& root, PumpingTest& test) {
   const toml::table* t = optional_table(ctx, root, "aquifer");
   if (!t) return;
-  check_keys(ctx, *t, "[aquifer]", {"top", "bottom", "static_level", "leakance"});
+  check_keys(ctx, *t, "[aquifer]",
+             {"top", "bottom", "static_level", "leakance", "anisotropy_ratio"});
   read_test_leakance(ctx, *t, test);
+  read_anisotropy_ratio(ctx, *t, test);
   // Without bottom and static_level (leakance alone) the aquifer stays the confined one of
   // unit thickness; with either, both are needed.
   const bool geometry = t->contains("bottom") || t->contains("static_level") || t->contains("top");
@@ -309,8 +391,10 @@ void read_wells(ReaderContext& ctx, const toml::table& root, PumpingTest& test,
     const std::string path = feature_path("well", t, i);
     check_keys(ctx, t, path,
                {"name", "distance", "radius", "times", "drawdowns", "water_levels", "static_level",
-                "series", "boundary", "image_distance", "bearing"});
+                "series", "boundary", "image_distance", "bearing", "screen_top", "screen_bottom",
+                "piezometer_tip"});
     ObservationSeries w;
+    w.screen = read_screen(ctx, t, path, test, true);
     w.name = read_string(ctx, t, "name", path, false).value_or("well " + std::to_string(i + 1));
     check_unique_name(ctx, t, path, w.name, names);
     auto distance = read_number(ctx, t, "distance", path, true);
@@ -522,6 +606,7 @@ std::vector<std::string> pumping_test_model_names() {
           "neuman",
           "papadopulos-cooper",
           "hantush-aquitard-storage",
+          "hantush-partial-penetration",
           "numerical"};
 }
 
@@ -529,10 +614,26 @@ std::optional<WellTestModel> well_test_model_from_name(std::string_view name) {
   for (WellTestModel m :
        {WellTestModel::theis, WellTestModel::cooper_jacob, WellTestModel::hantush_jacob,
         WellTestModel::neuman, WellTestModel::papadopulos_cooper,
-        WellTestModel::hantush_aquitard_storage, WellTestModel::numerical})
+        WellTestModel::hantush_aquitard_storage, WellTestModel::hantush_partial_penetration,
+        WellTestModel::numerical})
     if (model_name(m) == name) return m;
   return std::nullopt;
 }
+
+namespace {
+
+/// [aquifer].anisotropy_ratio serves only the screens' model (Hantush, 1961).
+void check_anisotropy_has_screens(ReaderContext& ctx, const toml::table& root,
+                                  const PumpingTest& test) {
+  const toml::table* a = root.get_as<toml::table>("aquifer");
+  const toml::node* node = a ? a->get("anisotropy_ratio") : nullptr;
+  if (node && !test.has_screens())
+    ctx.error(*node, "[aquifer].anisotropy_ratio",
+              "K_z/K_r is used with screen data only: give the wells' screen_top and "
+              "screen_bottom (or piezometer_tip), or leave it out");
+}
+
+}  // namespace
 
 PumpingTestReadResult read_pumping_test_text(std::string_view toml_text,
                                              const std::filesystem::path& as_if_path) {
@@ -548,12 +649,13 @@ PumpingTestReadResult read_pumping_test_text(std::string_view toml_text,
     PumpingTest test;
     TestClock clock;
     read_test_section(ctx, root, test, result, clock);
+    read_test_aquifer(ctx, root, test);  // before the screens, which lie within it
     read_pumped_well(ctx, root, test);
-    read_test_aquifer(ctx, root, test);
     read_schedule(ctx, root, test, clock);
     read_wells(ctx, root, test, clock);
     read_test_lines(ctx, root, test);
     check_wells_within_lines(ctx, root, test);
+    check_anisotropy_has_screens(ctx, root, test);
     if (!ctx.diagnostics.has_errors()) result.test = std::move(test);
   } catch (const toml::parse_error& e) {
     ctx.error(ctx.spot(e.source()), "", "TOML syntax: " + std::string(e.description()));

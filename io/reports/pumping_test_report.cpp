@@ -42,6 +42,14 @@ double late_storage(const ModelFit& m) {
   return sum ? m.fit.parameters[1] + m.fit.parameters[2] : m.fit.parameters[1];
 }
 
+/// A screen for the page: "top .. bottom m", "piezometer tip at z m" or the whole aquifer.
+std::string screen_text(const std::optional<WellScreen>& screen, const std::string& lu) {
+  if (!screen) return "the whole aquifer";
+  if (screen->top == screen->bottom)
+    return fmt::format("piezometer tip at {} {}", number(screen->top), lu);
+  return fmt::format("{} to {} {}", number(screen->top), number(screen->bottom), lu);
+}
+
 std::string model_title(WellTestModel m) {
   switch (m) {
     case WellTestModel::theis:
@@ -56,6 +64,8 @@ std::string model_title(WellTestModel m) {
       return "Papadopulos and Cooper (1967), large-diameter well";
     case WellTestModel::hantush_aquitard_storage:
       return "Hantush (1960), leaky with aquitard storage";
+    case WellTestModel::hantush_partial_penetration:
+      return "Hantush (1961), partially penetrating wells";
     case WellTestModel::numerical:
       return "the program's flow model on a radial-telescoping grid";
   }
@@ -93,18 +103,32 @@ HtmlReport pumping_test_page(const PumpingTest& test, const PumpingTestInterpret
       rows.push_back({number(s.start), s.rate > 0.0 ? number(s.rate) : "0 (recovery)"});
     page.add_table({"from (" + tu + ")", "rate (" + lu + "3/" + tu + ")"}, rows);
     rows.clear();
-    for (const ObservationSeries& w : test.wells)
+    const bool screens = test.has_screens() && test.aquifer;
+    for (const ObservationSeries& w : test.wells) {
       rows.push_back({w.name, number(w.distance), std::to_string(w.times.size()),
                       w.images.empty()
                           ? "none"
                           : fmt::format("{} image at {} {}",
                                         w.images.front().recharge ? "recharge" : "barrier",
                                         number(w.images.front().image_distance), lu)});
-    page.add_table({"well", "distance (" + lu + ")", "measurements", "straight boundary"}, rows);
+      if (screens) rows.back().push_back(screen_text(w.screen, lu));
+    }
+    std::vector<std::string> header{"well", "distance (" + lu + ")", "measurements",
+                                    "straight boundary"};
+    if (screens) header.push_back("screen");
+    page.add_table(header, rows);
     if (test.pumped_well.well > 0.0)
       page.add_paragraph(fmt::format("Pumped well: radius {} {}, casing radius {} {}.",
                                      number(test.pumped_well.well), lu,
                                      number(test.pumped_well.casing), lu));
+    if (screens)
+      page.add_paragraph(fmt::format(
+          "Screens (elevations, the datum of the aquifer's top {} {} and bottom {} {}): pumped "
+          "well {}; K_z / K_r {}. The closed forms other than Hantush (1961) take every well "
+          "as screened through the whole aquifer.",
+          number(test.aquifer->bottom + test.aquifer->thickness()), lu,
+          number(test.aquifer->bottom), lu, screen_text(test.pumped_screen, lu),
+          test.anisotropy_ratio ? "held at " + number(*test.anisotropy_ratio) : "fitted"));
   }
 
   page.add_heading("Fitted values");
@@ -143,7 +167,7 @@ HtmlReport pumping_test_page(const PumpingTest& test, const PumpingTestInterpret
     for (const ModelFit& c : result.candidates) best = std::min(best, c.aicc);
     std::vector<std::vector<std::string>> rows;
     for (const ModelFit& c : result.candidates)
-      rows.push_back({model_title(c.model), std::to_string(n_model_parameters(c.model)),
+      rows.push_back({model_title(c.model), std::to_string(c.parameter_names.size()),
                       std::to_string(c.n_used), number(c.rms_residual),
                       fmt::format("{:.2f}", c.aicc), fmt::format("{:.2f}", c.aicc - best),
                       &c == &m ? "chosen" : ""});
@@ -182,7 +206,8 @@ HtmlReport pumping_test_page(const PumpingTest& test, const PumpingTestInterpret
       ctp.push_back(ct[c] - start);
       cs.push_back(carried ? m.curve[w][c]
                            : schedule_drawdown(m.model, p, test.schedule, well.distance, ct[c],
-                                               well.images, test.pumped_well));
+                                               well.images, test.pumped_well,
+                                               partial_penetration_of(test, well)));
     }
     std::vector<double> cd = logarithmic_derivative(ctp, cs, 0.1);
     loglog.push_back({well.name + ": drawdown", t, s, SeriesStyle::points});

@@ -51,10 +51,24 @@ std::string model_json(const PumpingTest& test, const ModelFit& m, const std::st
 std::string parameter_unit(const std::string& parameter, const PumpingTest& test) {
   if (parameter == "transmissivity") return test.length_unit + "2/" + test.time_unit;
   if (parameter == "storativity" || parameter == "specific_yield" ||
-      parameter == "aquitard_storativity")
+      parameter == "aquitard_storativity" || parameter == "anisotropy_ratio")
     return "-";
   return test.length_unit;
 }
+
+namespace {
+
+/// A screen as JSON: {"top": .., "bottom": ..}, {"piezometer_tip": ..}, or null (the whole
+/// aquifer).
+std::string screen_json(const std::optional<WellScreen>& screen) {
+  if (!screen) return "null";
+  if (screen->top == screen->bottom)
+    return fmt::format("{{\"piezometer_tip\": {}}}", json_number(screen->top));
+  return fmt::format("{{\"top\": {}, \"bottom\": {}}}", json_number(screen->top),
+                     json_number(screen->bottom));
+}
+
+}  // namespace
 
 std::string drawdown_fit_json(const PumpingTest& test, const PumpingTestInterpretation& result,
                               const std::string& test_file, const std::string& version) {
@@ -62,20 +76,32 @@ std::string drawdown_fit_json(const PumpingTest& test, const PumpingTestInterpre
   for (std::size_t c = 0; c < result.candidates.size(); ++c)
     candidates += (c ? ",\n    " : "\n    ") + model_json(test, result.candidates[c], "    ");
   std::string wells;
+  const bool screens = test.has_screens() && test.aquifer;
   for (std::size_t w = 0; w < test.wells.size(); ++w)
-    wells += fmt::format("{}\n    {{\"name\": {}, \"distance\": {}, \"measurements\": {}}}",
+    wells += fmt::format("{}\n    {{\"name\": {}, \"distance\": {}, \"measurements\": {}{}}}",
                          w ? "," : "", json_string(test.wells[w].name),
-                         json_number(test.wells[w].distance), test.wells[w].times.size());
+                         json_number(test.wells[w].distance), test.wells[w].times.size(),
+                         screens ? ", \"screen\": " + screen_json(test.wells[w].screen) : "");
+  // The screens' frame: the aquifer's top and bottom, the pumped well's screen and K_z / K_r
+  // held (a number) or fitted ("fit", then among the parameters).
+  std::string screen_frame;
+  if (screens)
+    screen_frame = fmt::format(
+        "  \"screens\": {{\"aquifer_top\": {}, \"aquifer_bottom\": {}, \"pumped\": {}, "
+        "\"anisotropy_ratio\": {}}},\n",
+        json_number(test.aquifer->bottom + test.aquifer->thickness()),
+        json_number(test.aquifer->bottom), screen_json(test.pumped_screen),
+        test.anisotropy_ratio ? json_number(*test.anisotropy_ratio) : json_string("fit"));
   std::string classification;
   for (std::size_t i = 0; i < result.classification.size(); ++i)
     classification += (i ? ",\n    " : "\n    ") + json_string(result.classification[i]);
   return fmt::format(
       "{{\n  \"program\": \"aquiledger drawdown-fit\",\n  \"program_version\": {},\n"
       "  \"test_file\": {},\n  \"title\": {},\n  \"length_unit\": {},\n  \"time_unit\": {},\n"
-      "  \"wells\": [{}\n  ],\n  \"automatic_choice\": {},\n  \"chosen_model\": {},\n"
+      "  \"wells\": [{}\n  ],\n{}  \"automatic_choice\": {},\n  \"chosen_model\": {},\n"
       "  \"choice_reason\": {},\n  \"candidates\": [{}\n  ],\n  \"classification\": [{}\n  ]\n}}\n",
       json_string(version), json_string(test_file), json_string(test.title),
-      json_string(test.length_unit), json_string(test.time_unit), wells,
+      json_string(test.length_unit), json_string(test.time_unit), wells, screen_frame,
       result.automatic ? "true" : "false", json_string(model_name(result.chosen_fit().model)),
       json_string(result.choice_reason), candidates, classification);
 }

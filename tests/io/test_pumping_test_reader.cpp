@@ -352,3 +352,72 @@ TEST_CASE("straight lines ([[boundary]]) and well bearings for the numerical mod
   expect_replaced_error(lines, "kind = \"zone\"", "kind = \"zone\"\nwidth = 3.0",
                         "[[boundary]] #3.width", "width = 3.0", "");
 }
+
+TEST_CASE("screens, piezometer tips and K_z / K_r for partial penetration",
+          "[pumping_test_reader]") {
+  const std::string aquifer =
+      "[aquifer]\ntop = -5.0\nbottom = -35.0\nstatic_level = 2.5\nanisotropy_ratio = 0.2\n\n"
+      "[pumped_well]\nscreen_top = -5.0\nscreen_bottom = -15.0\n\n[[pumping]]";
+  const std::string screened =
+      replace(replace(replace(good, "[[pumping]]", aquifer), "distance = 12.0",
+                      "distance = 12.0\npiezometer_tip = -30.0"),
+              "distance = 30.0", "distance = 30.0\nscreen_top = -20.0\nscreen_bottom = -26.0");
+  {
+    const PumpingTestReadResult r = read_pumping_test_text(screened, "/invented/test.toml");
+    REQUIRE(r.test.has_value());
+    const PumpingTest& test = *r.test;
+    REQUIRE(test.pumped_screen.has_value());
+    CHECK(test.pumped_screen->top == -5.0);
+    CHECK(test.pumped_screen->bottom == -15.0);
+    CHECK(test.pumped_well.well == 0.0);  // no radius: only the screen given
+    REQUIRE(test.anisotropy_ratio.has_value());
+    CHECK(*test.anisotropy_ratio == 0.2);
+    REQUIRE(test.wells[0].screen.has_value());
+    CHECK(test.wells[0].screen->top == -30.0);
+    CHECK(test.wells[0].screen->bottom == -30.0);
+    CHECK(test.wells[1].screen->top == -20.0);
+    CHECK(test.has_partial_screens());
+    // Depths below the aquifer's top (-5 m), for Hantush (1961): d, l, d', l'.
+    const PartialPenetration p = partial_penetration_of(test, test.wells[1]);
+    CHECK(p.thickness == 30.0);
+    CHECK(p.pumped_top == 0.0);
+    CHECK(p.pumped_bottom == 10.0);
+    CHECK(p.observed_top == 15.0);
+    CHECK(p.observed_bottom == 21.0);
+    CHECK(p.anisotropy_ratio == 0.2);
+  }
+  {  // "fit": the ratio is fitted
+    const PumpingTestReadResult r = read_pumping_test_text(
+        replace(screened, "anisotropy_ratio = 0.2", "anisotropy_ratio = \"fit\""),
+        "/invented/test.toml");
+    REQUIRE(r.test.has_value());
+    CHECK_FALSE(r.test->anisotropy_ratio.has_value());
+  }
+  expect_replaced_error(screened, "screen_bottom = -15.0", "screen_bottom = -45.0",
+                        "[pumped_well].screen_bottom", "screen_bottom = -45.0",
+                        "within the aquifer");
+  expect_replaced_error(screened, "screen_bottom = -26.0", "screen_bottom = -19.0",
+                        "[[well]] \"west piezometer\".screen_bottom", "screen_bottom = -19.0",
+                        "below screen_top");
+  expect_replaced_error(screened, "screen_bottom = -26.0\n", "",
+                        "[[well]] \"west piezometer\".screen_top", "screen_top = -20.0",
+                        "needs both");
+  expect_replaced_error(screened, "piezometer_tip = -30.0", "piezometer_tip = 0.0",
+                        "[[well]] \"east piezometer\".piezometer_tip", "piezometer_tip = 0.0",
+                        "within the aquifer");
+  expect_replaced_error(screened, "piezometer_tip = -30.0",
+                        "piezometer_tip = -30.0\nscreen_top = -6.0\nscreen_bottom = -7.0",
+                        "[[well]] \"east piezometer\".piezometer_tip", "piezometer_tip = -30.0",
+                        "not both");
+  expect_replaced_error(screened, "anisotropy_ratio = 0.2", "anisotropy_ratio = 0.0",
+                        "[aquifer].anisotropy_ratio", "anisotropy_ratio = 0.0",
+                        "\"fit\" or a ratio");
+  // Screens need the aquifer's geometry; the ratio needs screens.
+  expect_replaced_error(good, "[[pumping]]",
+                        "[pumped_well]\nscreen_top = -5.0\nscreen_bottom = -15.0\n\n[[pumping]]",
+                        "[pumped_well].screen_top", "screen_top = -5.0", "aquifer's thickness");
+  expect_replaced_error(good, "[[pumping]]",
+                        "[aquifer]\nbottom = -35.0\nstatic_level = 2.5\nanisotropy_ratio = 0.2\n\n"
+                        "[[pumping]]",
+                        "[aquifer].anisotropy_ratio", "anisotropy_ratio = 0.2", "screen data only");
+}

@@ -1,6 +1,7 @@
 #!/usr/bin/env bash
-# The interpretation page of `drawdown-fit` in a real browser: both invented cases
-# (cases/02-*: confined, auto; cases/03-*: delayed yield, Neuman) are interpreted, their
+# The interpretation page of `drawdown-fit` in a real browser: the invented cases
+# (cases/02-*: confined, auto; cases/03-*: delayed yield, Neuman; cases/07-*: screens, Hantush
+# 1961 partial penetration, with its screens on the page) are interpreted, their
 # interpretation.html opened in headless Chromium, and each page must have rendered its three
 # diagnostic charts (log-log with the derivative, semi-log with the Cooper-Jacob line,
 # residuals), carry its sections, the caution, the fitted values of fit.json, and no NaN.
@@ -14,7 +15,8 @@ make_scratch tmp
 # shellcheck source=../support/browser_page.sh
 source "$src/tests/support/browser_page.sh"
 
-for case in 02-hollin-ford-confined-test 03-brackwater-water-table-test; do
+for case in 02-hollin-ford-confined-test 03-brackwater-water-table-test \
+  07-corvel-moss-partial-penetration-test; do
   out="$tmp/$case"
   "$exe" drawdown-fit "$src/cases/$case/test.toml" -o "$out" -q
   page="$out/interpretation.html"
@@ -35,6 +37,12 @@ for case in 02-hollin-ford-confined-test 03-brackwater-water-table-test; do
       exit 1
     fi
   done
+  if [[ $case == 07-* ]]; then
+    for text in "Hantush (1961), partially penetrating wells" "piezometer tip at -40 m" \
+      "-30 to -38 m" "anisotropy_ratio"; do
+      grep -qF -- "$text" <<<"$dom" || { echo "FAILED: $case: no '$text'" >&2; exit 1; }
+    done
+  fi
   check_visible_text "$dom"
   # The table shows the chosen model's fitted values as fit.json holds them (4 significant
   # digits).

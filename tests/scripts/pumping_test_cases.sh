@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
-# The two invented pumping-test cases (cases/02-*, cases/03-*) interpreted by one command each:
-# the generating values (make_test.py, scipy) lie within the fitted 95 % intervals, and the
-# chosen models, both by `auto`, are Theis and Neuman.
+# The invented pumping-test cases (cases/02-*, cases/03-*, cases/07-*) interpreted by one
+# command each: the generating values (make_test.py, scipy) lie within the fitted 95 %
+# intervals, and the chosen models, all by `auto`, are Theis, Neuman and Hantush's (1961)
+# partial penetration.
 #   bash pumping_test_cases.sh <aquiledger> <source-dir>
 set -euo pipefail
 exe=${1:?usage: pumping_test_cases.sh <aquiledger> <source-dir>}
@@ -12,6 +13,8 @@ trap 'rm -rf "$out"' EXIT
 # Case 03's file names neuman; -m auto makes the choice by AICc among Theis, Hantush-Jacob and
 # Neuman (the simpler kept within 2).
 "$exe" drawdown-fit "$src/cases/03-brackwater-water-table-test/test.toml" -m auto -o "$out/b" -q
+# Case 07 gives screens: auto weighs Hantush (1961) partial penetration too.
+"$exe" drawdown-fit "$src/cases/07-corvel-moss-partial-penetration-test/test.toml" -o "$out/c" -q
 python3 - "$out" <<'PY'
 import json, sys
 # Generating values of the invented cases (their make_test.py).
@@ -25,5 +28,14 @@ for folder, model, truth in (("a", "theis", {"transmissivity": 480.0, "storativi
     chosen = [c for c in fit["candidates"] if c["model"] == model][0]
     for p in chosen["parameters"]:
         assert p["low_95"] <= truth[p["name"]] <= p["high_95"], (folder, p)
+fit = json.load(open(f"{sys.argv[1]}/c/fit.json"))
+assert fit["chosen_model"] == "hantush-partial-penetration", fit["chosen_model"]
+assert [c["model"] for c in fit["candidates"]] == [
+    "theis", "hantush-partial-penetration", "hantush-jacob", "neuman"], fit["candidates"]
+truth = {"transmissivity": 90.0, "storativity": 3e-4, "anisotropy_ratio": 0.1}
+chosen = [c for c in fit["candidates"] if c["model"] == "hantush-partial-penetration"][0]
+assert [p["name"] for p in chosen["parameters"]] == list(truth), chosen["parameters"]
+for p in chosen["parameters"]:
+    assert p["low_95"] <= truth[p["name"]] <= p["high_95"], ("c", p)
 PY
 echo "pumping test cases: all checks passed"
