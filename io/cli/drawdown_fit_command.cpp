@@ -6,6 +6,7 @@
 #include <fmt/format.h>
 
 #include <CLI/CLI.hpp>
+#include <algorithm>
 #include <cstdio>
 #include <stdexcept>
 
@@ -94,9 +95,12 @@ int run_drawdown_fit_command(const DrawdownFitOptions& o) {
   std::string out = fmt::format("{}: {} observation(s) in {} well(s)\n",
                                 test.title.empty() ? o.test_file.string() : test.title,
                                 test.n_observations(), test.wells.size());
+  std::size_t name_width = 14;  // the model names' column as wide as the longest name
   for (const ModelFit& c : result.candidates)
-    out += fmt::format("  {:<14} AICc {:>10.2f}  rms residual {:.3g} {}{}\n", model_name(c.model),
-                       c.aicc, c.rms_residual, test.length_unit,
+    name_width = std::max(name_width, model_name(c.model).size());
+  for (const ModelFit& c : result.candidates)
+    out += fmt::format("  {:<{}} AICc {:>10.2f}  rms residual {:.3g} {}{}\n", model_name(c.model),
+                       name_width, c.aicc, c.rms_residual, test.length_unit,
                        &c == &m ? (result.automatic ? "  <- chosen" : "") : "");
   const std::vector<std::string>& names = m.parameter_names;
   for (std::size_t j = 0; j < names.size(); ++j) {
