@@ -219,9 +219,21 @@ HtmlReport pumping_test_page(const PumpingTest& test, const PumpingTestInterpret
     std::vector<double> lt, ls;
     const double tt = p[0], ss = late_storage(m);
     const double r2 = std::max(well.distance, 1e-9) * std::max(well.distance, 1e-9);
+    // Partial penetration shifts the late line by Hantush's (1961) constant Q / (4 pi T) f_s:
+    // the fitted model's drawdown less Theis's once u = r^2 S / (4 T t) is 1e-10.
+    double shift = 0.0;
+    if (m.model == WellTestModel::hantush_partial_penetration) {
+      const double t_late = r2 * p[1] / (4.0 * tt * 1e-10);
+      const std::vector<RateStep> steady_rate{{0.0, q0}};
+      shift =
+          schedule_drawdown(m.model, p, steady_rate, well.distance, t_late, {}, test.pumped_well,
+                            partial_penetration_of(test, well)) -
+          schedule_drawdown(WellTestModel::theis, {tt, p[1]}, steady_rate, well.distance, t_late);
+    }
     for (double tc : ctp) {
       if (start + tc > first_end) break;
-      const double v = q0 / (4.0 * std::numbers::pi * tt) * std::log(2.25 * tt * tc / (r2 * ss));
+      const double v =
+          q0 / (4.0 * std::numbers::pi * tt) * std::log(2.25 * tt * tc / (r2 * ss)) + shift;
       if (v <= 0.0) continue;
       lt.push_back(tc);
       ls.push_back(v);
@@ -242,8 +254,12 @@ HtmlReport pumping_test_page(const PumpingTest& test, const PumpingTestInterpret
       fmt::format("Semi-log: measured drawdown and the Cooper-Jacob (1946) straight line "
                   "s = Q / (4 pi T) ln(2.25 T t / (r2 S)) with the fitted T and {} and the first "
                   "rate, drawn over the first pumping step; it holds for u = r2 S / (4 T t) "
-                  "under about 0.01 (Cooper and Jacob, 1946).",
-                  m.model == WellTestModel::neuman ? "S + Sy (the late, water-table line)" : "S"),
+                  "under about 0.01 (Cooper and Jacob, 1946){}.",
+                  m.model == WellTestModel::neuman ? "S + Sy (the late, water-table line)" : "S",
+                  m.model == WellTestModel::hantush_partial_penetration
+                      ? ", shifted for each well by the fitted model's late partial-penetration "
+                        "constant (Hantush, 1961)"
+                      : ""),
       line_chart_spec(semilog, {time_title, true}, {"drawdown (" + lu + ")", false}, 620, 320));
   page.add_chart("Residuals: measured minus fitted drawdown of the drawdowns in the fit.",
                  line_chart_spec(residuals, {time_title, true}, {"residual (" + lu + ")", false},
