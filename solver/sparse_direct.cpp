@@ -32,6 +32,25 @@ void set_blas_threads(int n) {
   if (set) set(n);
 }
 
+/// While it lives, every OpenMP parallel region runs on the calling thread alone (no active
+/// level). CHOLMOD 3.0's supernodal factorisation opens a region for the loops of each
+/// supernode with num_threads(CHOLMOD_OMP_NUM_THREADS), fixed at 4 when the library was built
+/// (cholmod_core.h), whatever OMP_NUM_THREADS or the machine's cores say: on 2 cores and with
+/// passive waiting, hundreds of thousands of thread wake-ups. One numeric factorisation at 1e6
+/// cells (benchmarks/ordering_cost, whole process, load 10 to 14): 4.66 + 3.04 s of CPU with
+/// the regions, 3.51 + 2.16 s without, the same as under OMP_THREAD_LIMIT=1 (3.66 + 2.18 s);
+/// docs/performance.md, "Ninth pass".
+class SerialRegions {
+ public:
+  SerialRegions() : levels_(omp_get_max_active_levels()) { omp_set_max_active_levels(0); }
+  ~SerialRegions() { omp_set_max_active_levels(levels_); }
+  SerialRegions(const SerialRegions&) = delete;
+  SerialRegions& operator=(const SerialRegions&) = delete;
+
+ private:
+  int levels_;
+};
+
 /// Hands the heap's free memory back to the system. METIS's ordering of a large graph frees
 /// its arrays before the factorisation, but the C library keeps much of the freed space in
 /// the heap (its mmap threshold rises with each large block freed), and the factor then comes
@@ -285,7 +304,10 @@ class DirectSolver final : public LinearSolver {
       if (a.rows() >= simplicial_below) return_freed_memory();
     }
     const bool changed = values_changed(a);
-    if (changed) factorization_.factorize(a);
+    if (changed) {
+      const SerialRegions serial;
+      factorization_.factorize(a);
+    }
     count_factorization(!changed);
     if (factorization_.info() != Eigen::Success) return false;
     count_iterations(0);
@@ -427,7 +449,10 @@ class PicardKrylov final : public LinearSolver {
       }
       if (diagonal_at >= 0) s[diagonal_at] = diagonal - removed;
     }
-    factor_.factorize(picard_);
+    {
+      const SerialRegions serial;
+      factor_.factorize(picard_);
+    }
     count_factorization(false);
     refactor_ = false;
     return factor_.info() == Eigen::Success;
@@ -504,7 +529,10 @@ CholeskyAnalysis analyse_cholesky(const SparseMatrix& a, CholmodOrdering orderin
     result.stored = l->is_super ? static_cast<double>(l->xsize) : c.lnz;
     if (factorize) {
       const auto t1 = Clock::now();
-      result.ok = cholmod_factorize(&view, l, &c) != 0 && c.status == CHOLMOD_OK;
+      {
+        const SerialRegions serial;
+        result.ok = cholmod_factorize(&view, l, &c) != 0 && c.status == CHOLMOD_OK;
+      }
       result.factorize_seconds = seconds_since(t1);
       cholmod_dense* b = cholmod_ones(view.nrow, 1, CHOLMOD_REAL, &c);
       cholmod_dense* x = result.ok ? cholmod_solve(CHOLMOD_A, l, b, &c) : nullptr;
