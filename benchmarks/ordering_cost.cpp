@@ -70,7 +70,8 @@ SparseMatrix masked_grid_matrix(int n, const StructuredUnknowns& grid) {
 }  // namespace
 
 int main(int argc, char** argv) {
-  CLI::App app{"Ordering of the confined Cholesky factor: METIS against the grid's nested dissection"};
+  CLI::App app{
+      "Ordering of the confined Cholesky factor: METIS against the grid's nested dissection"};
   std::vector<double> sizes{1e5, 1e6, 4e6};
   bool holes = false, amd = false, grid_only = false;
   int factorize = 1;
@@ -99,11 +100,13 @@ int main(int argc, char** argv) {
         order = grid_elimination_order(grid);
         order_s = bench::seconds_since(t0);
       }
-      const CholeskyAnalysis f =
-          analyse_cholesky(a, kind == 0 ? CholmodOrdering::amd : CholmodOrdering::metis, order,
-                           factorize != 0);
+      const CholeskyAnalysis f = analyse_cholesky(
+          a, kind == 0 ? CholmodOrdering::amd : CholmodOrdering::metis, order, factorize != 0);
       std::printf("%9d %-8s %9.3f %9.3f %12.4e %12.4e %12.4e %10.3f %10.2e%s\n",
-                  static_cast<int>(a.rows()), kind == 0 ? "AMD" : kind == 1 ? "METIS" : "grid ND",
+                  static_cast<int>(a.rows()),
+                  kind == 0   ? "AMD"
+                  : kind == 1 ? "METIS"
+                              : "grid ND",
                   order_s, f.analyse_seconds + order_s, f.nonzeros, f.flops, f.stored,
                   f.factorize_seconds, f.residual, f.ok ? "" : "  (failed)");
       std::fflush(stdout);

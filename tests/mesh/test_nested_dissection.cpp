@@ -24,8 +24,8 @@ bool orders_each_included_cell_once(int n_rows, int n_cols, const std::vector<st
 }  // namespace
 
 TEST_CASE("nested dissection orders every included cell once", "[mesh]") {
-  for (const auto& [rows, cols] : {std::pair{1, 1}, {1, 17}, {23, 1}, {2, 2}, {7, 30}, {64, 64},
-                                   {50, 33}}) {
+  for (const auto& [rows, cols] :
+       {std::pair{1, 1}, {1, 17}, {23, 1}, {2, 2}, {7, 30}, {64, 64}, {50, 33}}) {
     INFO(rows << " x " << cols);
     std::vector<std::uint8_t> in(static_cast<std::size_t>(rows) * cols, 1);
     CHECK(orders_each_included_cell_once(rows, cols, in, nested_dissection_order(rows, cols, in)));

@@ -18,9 +18,9 @@ StructuredUnknowns grid_unknowns(int n, bool holes) {
   for (int r = 0; r < n; ++r)
     for (int c = 0; c < n; ++c) {
       const double x = (c + 0.5) / n, y = (r + 0.5) / n;
-      const bool in = !holes || (std::pow((x - 0.5) / 0.48, 2) + std::pow((y - 0.5) / 0.45, 2) <=
-                                     1.0 &&
-                                 std::hypot(x - 0.6, y - 0.4) >= 0.12);
+      const bool in =
+          !holes || (std::pow((x - 0.5) / 0.48, 2) + std::pow((y - 0.5) / 0.45, 2) <= 1.0 &&
+                     std::hypot(x - 0.6, y - 0.4) >= 0.12);
       if (in) g.unknown_of_cell[static_cast<std::size_t>(r) * n + c] = next++;
     }
   return g;
