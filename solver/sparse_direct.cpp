@@ -65,10 +65,11 @@ void return_freed_memory() {
 
 /// Without the grid behind the unknowns (make_cholmod_solver(grid) orders by the grid's own
 /// nested dissection, smaller than METIS's and AMD's at every size measured), from this many
-/// unknowns CHOLMOD's automatic choice of ordering is replaced by METIS nested dissection. On the 5-point grid (measured, docs/performance.md) CHOLMOD keeps AMD at 1e6
-/// unknowns, whose factor holds 44.7 entries per row against METIS's 34.0 (peak 649 against
-/// 525 bytes per row), and picks METIS itself at 4e6; METIS costs about 4 s more analysis
-/// once at 1e6, and factorises in 2.7 s against 3.0 s.
+/// unknowns CHOLMOD's automatic choice of ordering is replaced by METIS nested dissection. On the
+/// 5-point grid (measured, docs/performance.md) CHOLMOD keeps AMD at 1e6 unknowns, whose factor
+/// holds 44.7 entries per row against METIS's 34.0 (peak 649 against 525 bytes per row), and picks
+/// METIS itself at 4e6; METIS costs about 4 s more analysis once at 1e6, and factorises in 2.7 s
+/// against 3.0 s.
 constexpr int metis_ordering_from = 500'000;
 
 /// Below this many unknowns the Cholesky factor is simplicial (column by column: no BLAS, no
