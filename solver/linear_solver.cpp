@@ -122,6 +122,11 @@ std::unique_ptr<BandMultigrid> make_band_multigrid(int, int, int, int) {
 
 namespace {
 
+/// Cholesky, with the grid's nested dissection as its ordering when the grid is known.
+std::unique_ptr<LinearSolver> cholesky_on_grid(const StructuredUnknowns* grid) {
+  return grid != nullptr ? make_cholmod_solver(*grid) : make_cholmod_solver();
+}
+
 std::string gib(double bytes) {
   char text[32];
   std::snprintf(text, sizeof text, "%.1f GiB", bytes / (1024.0 * 1024.0 * 1024.0));
@@ -140,7 +145,8 @@ LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int
         throw std::invalid_argument("multigrid solver requested without the grid of the unknowns");
       return {make_multigrid_solver(*grid, symmetric), "multigrid requested"};
     case LinearChoice::direct:
-      if (symmetric) return {make_cholmod_solver(), "direct requested; symmetric system: Cholesky"};
+      if (symmetric)
+        return {cholesky_on_grid(grid), "direct requested; symmetric system: Cholesky"};
       return {make_umfpack_solver(), "direct requested; non-symmetric system: LU"};
     case LinearChoice::pcg:
       if (symmetric) return {make_pcg_solver(), "pcg requested"};
@@ -156,7 +162,7 @@ LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int
     const double needed = cholmod_bytes_per_unknown * n;
     if (!(memory_bytes > 0.0)) {
       if (n <= cholmod_auto_limit)
-        return {make_cholmod_solver(), "auto: symmetric (confined), " + size + ": Cholesky"};
+        return {cholesky_on_grid(grid), "auto: symmetric (confined), " + size + ": Cholesky"};
       if (multigrid)
         return {make_multigrid_solver(*grid, true),
                 "auto: symmetric (confined), " + size + " (over the direct limit): multigrid"};
@@ -165,7 +171,7 @@ LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int
     }
     const std::string fit = "needs about " + gib(needed) + " of " + gib(memory_bytes);
     if (needed <= 0.75 * memory_bytes)
-      return {make_cholmod_solver(),
+      return {cholesky_on_grid(grid),
               "auto: symmetric (confined), " + size + ": Cholesky (" + fit + ")"};
     if (multigrid)
       return {

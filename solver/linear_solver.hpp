@@ -96,6 +96,33 @@ struct StructuredUnknowns {
   int n_cols = 0;
   std::vector<std::int32_t> unknown_of_cell;
 };
+/// Cholesky whose fill-reducing ordering is the nested dissection of the grid behind the
+/// unknowns (grid_elimination_order), given to CHOLMOD instead of its own choice; CHOLMOD's
+/// automatic choice when the grid's order does not cover the matrix's unknowns.
+std::unique_ptr<LinearSolver> make_cholmod_solver(const StructuredUnknowns& grid);
+/// The unknowns in the elimination order of the grid's nested dissection
+/// (mesh/nested_dissection.hpp): entry k is the unknown eliminated k-th. Empty when the grid
+/// holds no unknowns or its unknowns are not numbered 0 .. n - 1 once each.
+std::vector<int> grid_elimination_order(const StructuredUnknowns& grid);
+
+/// What CHOLMOD's analysis (and, when asked, one numeric factorisation and solve) gives for
+/// a Cholesky factor of the symmetric a (both triangles stored, as the solvers take it), set
+/// up as make_cholmod_solver sets it up: with the ordering, or with `given` (a permutation
+/// of the unknowns, entry k eliminated k-th) when that is not empty. For benchmarks/ordering_cost
+/// and the ordering's tests.
+struct CholeskyAnalysis {
+  double nonzeros = 0.0;  ///< in L, as CHOLMOD's analysis counts them (Common->lnz)
+  double flops = 0.0;     ///< of the numeric factorisation (Common->fl)
+  double stored = 0.0;    ///< values the factor stores (a supernodal one: with the zeros of
+                          ///< merged supernodes)
+  double analyse_seconds = 0.0;
+  double factorize_seconds = 0.0;  ///< 0 unless factorised
+  double residual = 0.0;           ///< |A x - b| / |b| of one solve with b = 1, if factorised
+  bool ok = false;
+};
+CholeskyAnalysis analyse_cholesky(const SparseMatrix& a, CholmodOrdering ordering,
+                                  std::span<const int> given, bool factorize);
+
 /// True when the program was built with the multigrid backend (-DAQUILEDGER_WITH_HYPRE=ON,
 /// which defines AQUILEDGER_HAVE_MULTIGRID for every target linking the solver library).
 constexpr bool multigrid_available() {

@@ -7,9 +7,12 @@
 #include <Eigen/IterativeLinearSolvers>
 #include <Eigen/UmfPackSupport>
 #include <algorithm>
+#include <chrono>
+#include <cmath>
 #include <memory>
 #include <vector>
 
+#include "mesh/nested_dissection.hpp"
 #include "solver/linear_solver.hpp"
 #include "solver/supernodal_solve.hpp"
 
@@ -29,6 +32,25 @@ void set_blas_threads(int n) {
   if (set) set(n);
 }
 
+/// While it lives, every OpenMP parallel region runs on the calling thread alone (no active
+/// level). CHOLMOD 3.0's supernodal factorisation opens a region for the loops of each
+/// supernode with num_threads(CHOLMOD_OMP_NUM_THREADS), fixed at 4 when the library was built
+/// (cholmod_core.h), whatever OMP_NUM_THREADS or the machine's cores say: on 2 cores and with
+/// passive waiting, hundreds of thousands of thread wake-ups. One numeric factorisation at 1e6
+/// cells (benchmarks/ordering_cost, whole process, load 10 to 14): 4.66 + 3.04 s of CPU with
+/// the regions, 3.51 + 2.16 s without, the same as under OMP_THREAD_LIMIT=1 (3.66 + 2.18 s);
+/// docs/performance.md, "Ninth pass".
+class SerialRegions {
+ public:
+  SerialRegions() : levels_(omp_get_max_active_levels()) { omp_set_max_active_levels(0); }
+  ~SerialRegions() { omp_set_max_active_levels(levels_); }
+  SerialRegions(const SerialRegions&) = delete;
+  SerialRegions& operator=(const SerialRegions&) = delete;
+
+ private:
+  int levels_;
+};
+
 /// Hands the heap's free memory back to the system. METIS's ordering of a large graph frees
 /// its arrays before the factorisation, but the C library keeps much of the freed space in
 /// the heap (its mmap threshold rises with each large block freed), and the factor then comes
@@ -41,11 +63,13 @@ void return_freed_memory() {
 #endif
 }
 
-/// From this many unknowns CHOLMOD's automatic choice of ordering is replaced by METIS nested
-/// dissection. On the 5-point grid (measured, docs/performance.md) CHOLMOD keeps AMD at 1e6
-/// unknowns, whose factor holds 44.7 entries per row against METIS's 34.0 (peak 649 against
-/// 525 bytes per row), and picks METIS itself at 4e6; METIS costs about 4 s more analysis
-/// once at 1e6, and factorises in 2.7 s against 3.0 s.
+/// Without the grid behind the unknowns (make_cholmod_solver(grid) orders by the grid's own
+/// nested dissection, smaller than METIS's and AMD's at every size measured), from this many
+/// unknowns CHOLMOD's automatic choice of ordering is replaced by METIS nested dissection. On the
+/// 5-point grid (measured, docs/performance.md) CHOLMOD keeps AMD at 1e6 unknowns, whose factor
+/// holds 44.7 entries per row against METIS's 34.0 (peak 649 against 525 bytes per row), and picks
+/// METIS itself at 4e6; METIS costs about 4 s more analysis once at 1e6, and factorises in 2.7 s
+/// against 3.0 s.
 constexpr int metis_ordering_from = 500'000;
 
 /// Below this many unknowns the Cholesky factor is simplicial (column by column: no BLAS, no
@@ -88,6 +112,27 @@ void use_metis(cholmod_common& c) {
   c.postorder = 1;
 }
 
+/// The permutation handed to cholmod_analyze_p (the grid's nested dissection), followed by
+/// the postorder of its elimination tree, with as few stored zeros as under METIS (both are
+/// nested-dissection factors).
+void use_given_order(cholmod_common& c) {
+  use_fewer_stored_zeros(c);
+  c.nmethods = 1;
+  c.method[0].ordering = CHOLMOD_GIVEN;
+  c.postorder = 1;
+}
+
+/// True when `order` holds each of 0 .. n - 1 once.
+bool is_permutation_of(const std::vector<int>& order, Eigen::Index n) {
+  if (static_cast<Eigen::Index>(order.size()) != n) return false;
+  std::vector<std::uint8_t> seen(order.size(), 0);
+  for (const int k : order) {
+    if (k < 0 || k >= n || seen[static_cast<std::size_t>(k)]) return false;
+    seen[static_cast<std::size_t>(k)] = 1;
+  }
+  return true;
+}
+
 /// CHOLMOD's Cholesky (supernodal, or simplicial below simplicial_below) whose solves keep their
 /// result and workspace between calls (cholmod_solve2): a repeated solve allocates nothing, where
 /// cholmod_solve allocates and frees three dense blocks each time (benchmarks/step_allocations).
@@ -118,6 +163,18 @@ class KeptCholesky : public Eigen::CholmodSupernodalLLT<SparseMatrix, Eigen::Low
     if (!solve_dense(b.data(), b.rows(), 1)) return false;
     x = Eigen::Map<const Eigen::VectorXd>(static_cast<const double*>(x_->x), b.size());
     return true;
+  }
+  /// The symbolic analysis with a given fill-reducing order (entry k: the unknown eliminated
+  /// k-th, a permutation of a's unknowns) in place of analyzePattern's own choice.
+  void analyze_in_order(const SparseMatrix& a, const std::vector<int>& order) {
+    if (m_cholmodFactor != nullptr) cholmod_free_factor(&m_cholmodFactor, &cholmod());
+    cholmod_sparse view = Eigen::viewAsCholmod(a.selfadjointView<Eigen::Lower>());
+    m_cholmodFactor =
+        cholmod_analyze_p(&view, const_cast<int*>(order.data()), nullptr, 0, &cholmod());
+    this->m_isInitialized = true;
+    this->m_info = m_cholmodFactor != nullptr ? Eigen::Success : Eigen::InvalidInput;
+    this->m_analysisIsOk = m_cholmodFactor != nullptr;
+    this->m_factorizationIsOk = false;
   }
   /// X = A^-1 B, every column in one call: CHOLMOD's triangular solves take the columns of a
   /// dense right-hand side together (up to 4 a pass in the simplicial solve, a block in the
@@ -194,23 +251,28 @@ class KeptLU : public Eigen::UmfPackLU<SparseMatrix> {
 /// The fill-reducing ordering of a factorisation of n unknowns, set before its analysis: the
 /// one asked for, or under `automatic` METIS from metis_ordering_from unknowns and CHOLMOD's
 /// own choice below. UMFPACK keeps its own.
+void configure_cholmod(cholmod_common& c, CholmodOrdering ordering, Eigen::Index n, bool given) {
+  if (n < simplicial_below) use_simplicial(c);
+  if (given) return use_given_order(c);
+  if (ordering == CholmodOrdering::automatic && n < metis_ordering_from) return;
+  use_metis(c);
+  if (ordering == CholmodOrdering::amd) c.method[0].ordering = CHOLMOD_AMD;
+}
+
 template <class Factorization>
-void configure(Factorization&, CholmodOrdering, Eigen::Index) {}
+void configure(Factorization&, CholmodOrdering, Eigen::Index, bool) {}
 
 template <>
-void configure(KeptCholesky& f, CholmodOrdering ordering, Eigen::Index n) {
-  if (n < simplicial_below) use_simplicial(f.cholmod());
-  if (ordering == CholmodOrdering::automatic && n < metis_ordering_from) return;
-  use_metis(f.cholmod());
-  if (ordering == CholmodOrdering::amd) f.cholmod().method[0].ordering = CHOLMOD_AMD;
+void configure(KeptCholesky& f, CholmodOrdering ordering, Eigen::Index n, bool given) {
+  configure_cholmod(f.cholmod(), ordering, n, given);
 }
 
 /// Symbolic analysis on the first call, numeric factorisation only when values changed.
 template <class Factorization>
 class DirectSolver final : public LinearSolver {
  public:
-  DirectSolver(std::string name, CholmodOrdering ordering)
-      : name_(std::move(name)), ordering_(ordering) {}
+  DirectSolver(std::string name, CholmodOrdering ordering, std::vector<int> order = {})
+      : name_(std::move(name)), ordering_(ordering), order_(std::move(order)) {}
   bool solve(const SparseMatrix& a, const Eigen::VectorXd& b, Eigen::VectorXd& x) override {
     if (!factorize(a)) return false;
     if constexpr (requires { factorization_.solve_into(b, x); }) {
@@ -232,13 +294,22 @@ class DirectSolver final : public LinearSolver {
   bool factorize(const SparseMatrix& a) {
     set_blas_threads(1);
     if (!analysed_) {
-      configure(factorization_, ordering_, a.rows());
-      factorization_.analyzePattern(a);
+      bool given = false;
+      if constexpr (requires { factorization_.analyze_in_order(a, order_); })
+        given = is_permutation_of(order_, a.rows());
+      configure(factorization_, ordering_, a.rows(), given);
+      if constexpr (requires { factorization_.analyze_in_order(a, order_); })
+        if (given) factorization_.analyze_in_order(a, order_);
+      if (!given) factorization_.analyzePattern(a);
       analysed_ = true;
+      order_ = {};
       if (a.rows() >= simplicial_below) return_freed_memory();
     }
     const bool changed = values_changed(a);
-    if (changed) factorization_.factorize(a);
+    if (changed) {
+      const SerialRegions serial;
+      factorization_.factorize(a);
+    }
     count_factorization(!changed);
     if (factorization_.info() != Eigen::Success) return false;
     count_iterations(0);
@@ -247,6 +318,7 @@ class DirectSolver final : public LinearSolver {
 
   std::string name_;
   CholmodOrdering ordering_;
+  std::vector<int> order_;  ///< the given fill-reducing order, until the analysis
   Factorization factorization_;
   bool analysed_ = false;
 };
@@ -302,7 +374,7 @@ class PicardKrylov final : public LinearSolver {
     if (!analysed_) {
       mirror_ = transpose_positions(a);
       picard_ = a;
-      configure(factor_, CholmodOrdering::automatic, a.rows());
+      configure(factor_, CholmodOrdering::automatic, a.rows(), false);
       factor_.analyzePattern(picard_);
       krylov_.setMaxIterations(max_iterations);
       analysed_ = true;
@@ -379,7 +451,10 @@ class PicardKrylov final : public LinearSolver {
       }
       if (diagonal_at >= 0) s[diagonal_at] = diagonal - removed;
     }
-    factor_.factorize(picard_);
+    {
+      const SerialRegions serial;
+      factor_.factorize(picard_);
+    }
     count_factorization(false);
     refactor_ = false;
     return factor_.info() == Eigen::Success;
@@ -408,6 +483,75 @@ std::unique_ptr<LinearSolver> make_cholmod_solver(CholmodOrdering ordering) {
                      : ordering == CholmodOrdering::amd ? "cholmod (AMD)"
                                                         : "cholmod";
   return std::make_unique<DirectSolver<KeptCholesky>>(name, ordering);
+}
+
+std::unique_ptr<LinearSolver> make_cholmod_solver(const StructuredUnknowns& grid) {
+  return std::make_unique<DirectSolver<KeptCholesky>>("cholmod", CholmodOrdering::automatic,
+                                                      grid_elimination_order(grid));
+}
+
+std::vector<int> grid_elimination_order(const StructuredUnknowns& grid) {
+  const std::size_t cells = grid.unknown_of_cell.size();
+  if (grid.n_rows <= 0 || grid.n_cols <= 0 ||
+      cells != static_cast<std::size_t>(grid.n_rows) * static_cast<std::size_t>(grid.n_cols))
+    return {};
+  std::vector<std::uint8_t> included(cells);
+  for (std::size_t i = 0; i < cells; ++i) included[i] = grid.unknown_of_cell[i] >= 0 ? 1 : 0;
+  std::vector<int> order = nested_dissection_order(grid.n_rows, grid.n_cols, included);
+  for (int& k : order) k = grid.unknown_of_cell[static_cast<std::size_t>(k)];
+  if (order.empty() || !is_permutation_of(order, static_cast<Eigen::Index>(order.size())))
+    return {};
+  return order;
+}
+
+CholeskyAnalysis analyse_cholesky(const SparseMatrix& a, CholmodOrdering ordering,
+                                  std::span<const int> given, bool factorize) {
+  using Clock = std::chrono::steady_clock;
+  const auto seconds_since = [](Clock::time_point t0) {
+    return std::chrono::duration<double>(Clock::now() - t0).count();
+  };
+  set_blas_threads(1);
+  CholeskyAnalysis result;
+  const std::vector<int> order(given.begin(), given.end());
+  const bool use_given = !order.empty();
+  if (use_given && !is_permutation_of(order, a.rows())) return result;
+  cholmod_common c;
+  cholmod_start(&c);
+  configure_cholmod(c, ordering, a.rows(), use_given);
+  cholmod_sparse view = Eigen::viewAsCholmod(a.selfadjointView<Eigen::Lower>());
+  const auto t0 = Clock::now();
+  cholmod_factor* l = use_given
+                          ? cholmod_analyze_p(&view, const_cast<int*>(order.data()), nullptr, 0, &c)
+                          : cholmod_analyze(&view, &c);
+  result.analyse_seconds = seconds_since(t0);
+  if (l != nullptr) {
+    result.ok = true;
+    result.nonzeros = c.lnz;
+    result.flops = c.fl;
+    result.stored = l->is_super ? static_cast<double>(l->xsize) : c.lnz;
+    if (factorize) {
+      const auto t1 = Clock::now();
+      {
+        const SerialRegions serial;
+        result.ok = cholmod_factorize(&view, l, &c) != 0 && c.status == CHOLMOD_OK;
+      }
+      result.factorize_seconds = seconds_since(t1);
+      cholmod_dense* b = cholmod_ones(view.nrow, 1, CHOLMOD_REAL, &c);
+      cholmod_dense* x = result.ok ? cholmod_solve(CHOLMOD_A, l, b, &c) : nullptr;
+      if (x != nullptr) {
+        const Eigen::Map<const Eigen::VectorXd> xv(static_cast<const double*>(x->x), a.rows());
+        result.residual = (a * xv - Eigen::VectorXd::Ones(a.rows())).norm() /
+                          std::sqrt(static_cast<double>(a.rows()));
+      } else {
+        result.ok = false;
+      }
+      cholmod_free_dense(&x, &c);
+      cholmod_free_dense(&b, &c);
+    }
+    cholmod_free_factor(&l, &c);
+  }
+  cholmod_finish(&c);
+  return result;
 }
 
 std::unique_ptr<LinearSolver> make_umfpack_solver() {
