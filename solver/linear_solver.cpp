@@ -122,9 +122,18 @@ std::unique_ptr<BandMultigrid> make_band_multigrid(int, int, int, int) {
 
 namespace {
 
-/// Cholesky, with the grid's nested dissection as its ordering when the grid is known.
-std::unique_ptr<LinearSolver> cholesky_on_grid(const StructuredUnknowns* grid) {
-  return grid != nullptr ? make_cholmod_solver(*grid) : make_cholmod_solver();
+/// Below this many unknowns the grid's nested dissection is not used: the factor is then
+/// simplicial (sparse_direct.cpp), and with the grid's ordering it was measured slower than
+/// with CHOLMOD's own (a 4,000-cell numerical pumping-test fit, tests/postproc "noise-free Theis
+/// drawdowns fitted by the numerical model": 9.8 s against 3.5 s; the cause is not known). The
+/// grid's ordering was measured to pay from 1e5 unknowns (docs/performance.md, "Ninth pass").
+constexpr int grid_ordering_from = 100'000;
+
+/// Cholesky, with the grid's nested dissection as its ordering when the grid is known and the
+/// system has at least grid_ordering_from unknowns.
+std::unique_ptr<LinearSolver> cholesky_on_grid(const StructuredUnknowns* grid, int n) {
+  return grid != nullptr && n >= grid_ordering_from ? make_cholmod_solver(*grid)
+                                                    : make_cholmod_solver();
 }
 
 std::string gib(double bytes) {
@@ -146,7 +155,7 @@ LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int
       return {make_multigrid_solver(*grid, symmetric), "multigrid requested"};
     case LinearChoice::direct:
       if (symmetric)
-        return {cholesky_on_grid(grid), "direct requested; symmetric system: Cholesky"};
+        return {cholesky_on_grid(grid, n), "direct requested; symmetric system: Cholesky"};
       return {make_umfpack_solver(), "direct requested; non-symmetric system: LU"};
     case LinearChoice::pcg:
       if (symmetric) return {make_pcg_solver(), "pcg requested"};
@@ -162,7 +171,7 @@ LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int
     const double needed = cholmod_bytes_per_unknown * n;
     if (!(memory_bytes > 0.0)) {
       if (n <= cholmod_auto_limit)
-        return {cholesky_on_grid(grid), "auto: symmetric (confined), " + size + ": Cholesky"};
+        return {cholesky_on_grid(grid, n), "auto: symmetric (confined), " + size + ": Cholesky"};
       if (multigrid)
         return {make_multigrid_solver(*grid, true),
                 "auto: symmetric (confined), " + size + " (over the direct limit): multigrid"};
@@ -171,7 +180,7 @@ LinearSolverChoice choose_linear_solver(LinearChoice choice, bool symmetric, int
     }
     const std::string fit = "needs about " + gib(needed) + " of " + gib(memory_bytes);
     if (needed <= 0.75 * memory_bytes)
-      return {cholesky_on_grid(grid),
+      return {cholesky_on_grid(grid, n),
               "auto: symmetric (confined), " + size + ": Cholesky (" + fit + ")"};
     if (multigrid)
       return {

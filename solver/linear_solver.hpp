@@ -98,7 +98,8 @@ struct StructuredUnknowns {
 };
 /// Cholesky whose fill-reducing ordering is the nested dissection of the grid behind the
 /// unknowns (grid_elimination_order), given to CHOLMOD instead of its own choice; CHOLMOD's
-/// automatic choice when the grid's order does not cover the matrix's unknowns.
+/// automatic choice when the grid's order does not cover the matrix's unknowns. The automatic
+/// choice of solver (choose_linear_solver) takes it from 1e5 unknowns only (linear_solver.cpp).
 std::unique_ptr<LinearSolver> make_cholmod_solver(const StructuredUnknowns& grid);
 /// The unknowns in the elimination order of the grid's nested dissection
 /// (mesh/nested_dissection.hpp): entry k is the unknown eliminated k-th. Empty when the grid
